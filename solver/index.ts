@@ -1,0 +1,53 @@
+export { CHANNELS, channelIndex, channelName, type Channel } from './channels';
+export {
+  ModelError,
+  modelToJson,
+  occupiedCount,
+  parseModel,
+  type ChannelCoupling,
+  type Filling,
+  type Model,
+} from './model';
+export {
+  couplingArrays,
+  couplingsFromArrays,
+  couplingsOf,
+  energyOfOrder,
+  type CouplingArrays,
+  type Couplings,
+} from './couplings';
+export { hermitianEigen4, symmetricEigen } from './linalg';
+export { seededRandom, type RandomSource } from './random';
+export { randomFrame } from './seeds';
+export { orderOfProjector, projectorOf, hartreeFockOfOrder } from './state';
+export {
+  DEFAULT_DESCENT,
+  DescentWorkspace,
+  descend,
+  frameEnergy,
+  tangentDimension,
+  type DescentOptions,
+  type DescentResult,
+} from './localMinimise';
+export {
+  DEFAULT_MINIMISE,
+  minimiseEnergy,
+  type LocalMinimum,
+  type MinimiseOptions,
+  type MinimiseResult,
+} from './minimise';
+export {
+  ORDER_GROUPS,
+  groupMagnitudes,
+  orderAngles,
+  sublatticeSpins,
+  type OrderGroup,
+  type OrderGroupKey,
+} from './orderParameters';
+export { ORDER_TOLERANCE, TOKEN_MEANINGS, phaseLabel } from './phaseLabel';
+export { modelSymmetry, type ModelSymmetry } from './symmetry';
+export { GOLDSTONE_TOLERANCE, collectiveModes, type CollectiveModes } from './collectiveModes';
+export { occupiedSpinors } from './spinors';
+export { describeState, solve, type SolveResult } from './groundState';
+export { clean, solveResultToJson, type SolveJson } from './solveJson';
+export { MEAN_FIELD_CAUTION, SOFTWARE_VERSION } from './version';

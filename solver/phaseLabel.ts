@@ -1,0 +1,88 @@
+import type { Couplings } from './couplings';
+import { ORDER_GROUPS, groupMagnitudes, type OrderGroupKey } from './orderParameters';
+import type { ModelSymmetry } from './symmetry';
+
+/**
+ * Order parameters below this magnitude count as zero when naming a phase (o_ab = tr(G_ab P)
+ * ranges over [-Nf, Nf]).
+ */
+export const ORDER_TOLERANCE = 1e-6;
+
+/** What each label token stands for, for legends and the README. */
+export const TOKEN_MEANINGS: Readonly<Record<string, string>> = {
+  F: 'ferromagnet: spin moment (along the field when there is one)',
+  Fxy: 'spin moment in the plane perpendicular to the field',
+  AF: 'antiferromagnet: Neel order along the field (any direction without a field)',
+  CAF: 'canted antiferromagnet: Neel order perpendicular to the field',
+  CDW: 'charge density wave: sublattice (valley) imbalance',
+  KD: 'Kekule distortion: bond order, intervalley coherence',
+  SB: 'spin bond order along the field (valley-coherent, spin-dependent)',
+  SBxy: 'spin bond order perpendicular to the field',
+};
+
+/**
+ * Groups that the model's one-body terms induce without any symmetry breaking: a Zeeman field
+ * allows the moment along it, a sublattice splitting allows the CDW, and both together allow the
+ * Neel component along the field (their product).
+ */
+export function inducedGroups(c: Couplings): Set<OrderGroupKey> {
+  const out = new Set<OrderGroupKey>();
+  const field = c.eta[3] !== 0;
+  const sublattice = c.eta[12] !== 0;
+  if (field) out.add('spinAlongField');
+  if (sublattice) out.add('cdw');
+  if (c.eta[15] !== 0 || (field && sublattice)) out.add('neelAlongField');
+  ORDER_GROUPS.forEach((g) => {
+    if (g.channels.some((ch) => c.eta[channelSlot(ch)] !== 0)) {
+      out.add(g.key);
+    }
+  });
+  return out;
+}
+
+function channelSlot(name: string): number {
+  const letters = '0xyz';
+  return 4 * letters.indexOf(name[0]!) + letters.indexOf(name[1]!);
+}
+
+/**
+ * Phase label from the computed state only (model.md section 6): the nonzero order-parameter
+ * groups, in the fixed order of ORDER_GROUPS, joined by '+'. Groups that the one-body terms
+ * induce are named only when nothing else is broken. With full spin SU(2) the spin groups merge
+ * (any moment is F, any Neel vector AF, both together CAF).
+ */
+export function phaseLabel(order: ArrayLike<number>, c: Couplings, symmetry: ModelSymmetry): string {
+  const magnitudes = groupMagnitudes(order);
+  const induced = inducedGroups(c);
+  const present: { key: OrderGroupKey; token: string }[] = [];
+  ORDER_GROUPS.forEach((g, i) => {
+    if (magnitudes[i]! > ORDER_TOLERANCE) present.push({ key: g.key, token: g.token });
+  });
+  let named = present;
+  if (symmetry.spinIsotropic) {
+    const has = (k: OrderGroupKey): boolean => present.some((p) => p.key === k);
+    const moment = has('spinAlongField') || has('spinInPlane');
+    const neel = has('neelAlongField') || has('neelInPlane');
+    named = [];
+    if (moment && neel) named.push({ key: 'neelInPlane', token: 'CAF' });
+    else if (moment) named.push({ key: 'spinAlongField', token: 'F' });
+    else if (neel) named.push({ key: 'neelAlongField', token: 'AF' });
+    for (const p of present) {
+      if (p.key === 'cdw' || p.key === 'bondOrder') named.push(p);
+    }
+    if (has('spinBondAlongField') || has('spinBondInPlane')) {
+      named.push({ key: 'spinBondAlongField', token: 'SB' });
+    }
+  }
+  const broken = named.filter((p) => !induced.has(p.key));
+  // Canting already implies the moment along the field; induced groups name a state only when
+  // nothing is broken, and then the Neel part that is the product of the two fields is left out.
+  const tokens =
+    broken.length > 0
+      ? broken
+      : named.filter(
+          (p) =>
+            !(p.key === 'neelAlongField' && induced.has('spinAlongField') && induced.has('cdw')),
+        );
+  return tokens.length === 0 ? 'sym' : tokens.map((t) => t.token).join('+');
+}

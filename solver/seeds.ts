@@ -1,0 +1,178 @@
+import { COMMUTATION_SIGN, MATRIX_COUNT, denseMatrix, productIndex } from './channels';
+import { hermitianEigen4, orthonormaliseFrame } from './linalg';
+import { retract } from './localMinimise';
+import { gaussian, seededRandom, type RandomSource } from './random';
+import { orderOfProjector, projectorOf } from './state';
+
+/**
+ * Starting states for the global search. Every seed is model independent, so its order
+ * parameters are computed once and a model only needs a dot product to rank it.
+ *
+ * - Stabiliser states: joint eigenstates of a maximal set of three commuting G's, filled with any
+ *   Nf of the four joint eigenvectors. They contain the F, CDW, KD and AF states of model.md
+ *   section 5 and their rotations into the other channels.
+ * - Canted states: the CAF family at several canting angles and valley spinors tilted between
+ *   the poles (KD towards CDW), the continuous families of section 5.
+ * - Random states: Haar-random frames from a fixed seed.
+ */
+export interface Seed {
+  readonly frame: Float64Array;
+  readonly order: Float64Array;
+  readonly kind: 'stabiliser' | 'canted' | 'random';
+}
+
+const RANDOM_SEEDS = 64;
+const LIBRARY_SEED = 0x5eed4;
+const NUDGE = 0.02;
+
+/** A Haar-random unitary frame (QR of a complex Gaussian matrix). */
+export function randomFrame(random: RandomSource): Float64Array {
+  const frame = new Float64Array(32);
+  for (let i = 0; i < 32; i++) frame[i] = gaussian(random);
+  orthonormaliseFrame(frame, 4);
+  return frame;
+}
+
+function seedOf(frame: Float64Array, nf: number, kind: Seed['kind']): Seed {
+  const p = projectorOf(frame, nf, new Float64Array(32));
+  return { frame, order: orderOfProjector(p, new Float64Array(MATRIX_COUNT)), kind };
+}
+
+function combinations(n: number, k: number): number[][] {
+  if (k === 0) return [[]];
+  const out: number[][] = [];
+  for (let first = 0; first <= n - k; first++) {
+    for (const rest of combinations(n - first - 1, k - 1)) {
+      out.push([first, ...rest.map((r) => r + first + 1)]);
+    }
+  }
+  return out;
+}
+
+function stabiliserSeeds(nf: number): Seed[] {
+  const sets = new Set<string>();
+  const seeds: Seed[] = [];
+  for (let g1 = 1; g1 < MATRIX_COUNT; g1++) {
+    for (let g2 = g1 + 1; g2 < MATRIX_COUNT; g2++) {
+      if (COMMUTATION_SIGN[16 * g1 + g2] !== 1) continue;
+      const g3 = productIndex(g1, g2);
+      const key = [g1, g2, g3].sort((a, b) => a - b).join(',');
+      if (sets.has(key)) continue;
+      sets.add(key);
+      const a = denseMatrix(g1);
+      const b = denseMatrix(g2);
+      for (let i = 0; i < 32; i++) a[i] = a[i]! + 2 * b[i]!;
+      const values = new Float64Array(4);
+      const basis = new Float64Array(32);
+      hermitianEigen4(a, values, basis);
+      for (const chosen of combinations(4, nf)) {
+        const frame = new Float64Array(32);
+        const order = [...chosen, ...[0, 1, 2, 3].filter((v) => !chosen.includes(v))];
+        order.forEach((v, slot) => frame.set(basis.subarray(8 * v, 8 * v + 8), 8 * slot));
+        seeds.push(seedOf(frame, nf, 'stabiliser'));
+      }
+    }
+  }
+  return seeds;
+}
+
+/** Spinor chi (x) xi with valley Bloch angles (beta, phiV) and spin angles (theta, phiS). */
+function productSpinor(beta: number, phiV: number, theta: number, phiS: number): number[] {
+  const v = [Math.cos(beta / 2), 0, Math.sin(beta / 2) * Math.cos(phiV), Math.sin(beta / 2) * Math.sin(phiV)];
+  const s = [Math.cos(theta / 2), 0, Math.sin(theta / 2) * Math.cos(phiS), Math.sin(theta / 2) * Math.sin(phiS)];
+  const out: number[] = [];
+  for (let iv = 0; iv < 2; iv++) {
+    for (let is = 0; is < 2; is++) {
+      const ar = v[2 * iv]!;
+      const ai = v[2 * iv + 1]!;
+      const br = s[2 * is]!;
+      const bi = s[2 * is + 1]!;
+      out.push(ar * br - ai * bi, ar * bi + ai * br);
+    }
+  }
+  return out;
+}
+
+function frameFromSpinors(spinors: number[][], random: RandomSource): Float64Array {
+  const frame = randomFrame(random);
+  spinors.forEach((s, k) => frame.set(s, 8 * k));
+  orthonormaliseFrame(frame, 4);
+  return frame;
+}
+
+function cantedSeeds(nf: number, random: RandomSource): Seed[] {
+  const seeds: Seed[] = [];
+  const angles = [0.35, 0.8, 1.2];
+  for (const theta of angles) {
+    if (nf === 2) {
+      // CAF: spin on A (valley K) and on B (valley K') at +-theta from the field.
+      seeds.push(
+        seedOf(
+          frameFromSpinors([productSpinor(0, 0, theta, 0), productSpinor(Math.PI, 0, theta, Math.PI)], random),
+          nf,
+          'canted',
+        ),
+      );
+      // Valley spinor tilted from the pole towards the bond-ordered equator, both spins filled.
+      seeds.push(
+        seedOf(
+          frameFromSpinors([productSpinor(theta, 0, 0, 0), productSpinor(theta, 0, Math.PI, 0)], random),
+          nf,
+          'canted',
+        ),
+      );
+    } else {
+      const spinors = [productSpinor(theta, 0, theta, 0), productSpinor(theta, 0, Math.PI - theta, Math.PI)];
+      const frame = frameFromSpinors(spinors.slice(0, 1), random);
+      seeds.push(seedOf(nf === 1 ? frame : complementFrame(frame), nf, 'canted'));
+      const frame2 = frameFromSpinors([productSpinor(Math.PI - theta, 0, theta, Math.PI / 2)], random);
+      seeds.push(seedOf(nf === 1 ? frame2 : complementFrame(frame2), nf, 'canted'));
+    }
+  }
+  return seeds;
+}
+
+/** The frame with vector 0 moved last: the hole of a one-particle state (Nf = 3). */
+function complementFrame(frame: Float64Array): Float64Array {
+  const out = new Float64Array(32);
+  out.set(frame.subarray(8, 32), 0);
+  out.set(frame.subarray(0, 8), 24);
+  return out;
+}
+
+const libraries = new Map<number, readonly Seed[]>();
+
+/** The seed library for Nf occupied flavours (built once, deterministic). */
+export function seedLibrary(nf: number): readonly Seed[] {
+  let library = libraries.get(nf);
+  if (library === undefined) {
+    const random = seededRandom(LIBRARY_SEED + nf);
+    const seeds = [...stabiliserSeeds(nf), ...cantedSeeds(nf, random)];
+    for (let i = 0; i < RANDOM_SEEDS; i++) seeds.push(seedOf(randomFrame(random), nf, 'random'));
+    // Nudge every structured seed off its symmetric point: exact critical points would need a
+    // saddle escape (an eigen-decomposition); a small fixed rotation lets Newton's shifted
+    // steps leave a saddle directly.
+    const step = new Float64Array(8);
+    const scratch = new Float64Array(8);
+    const nudged = dedupe(seeds).map((seed) => {
+      if (seed.kind === 'random') return seed;
+      for (let p = 0; p < 8; p++) step[p] = NUDGE * gaussian(random);
+      const frame = new Float64Array(32);
+      retract(nf, seed.frame, step, frame, scratch);
+      return seedOf(frame, nf, seed.kind);
+    });
+    library = nudged;
+    libraries.set(nf, library);
+  }
+  return library;
+}
+
+function dedupe(seeds: Seed[]): Seed[] {
+  const seen = new Set<string>();
+  return seeds.filter((s) => {
+    const key = Array.from(s.order, (x) => x.toFixed(6)).join(',');
+    if (seen.has(key)) return false;
+    seen.add(key);
+    return true;
+  });
+}
