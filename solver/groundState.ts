@@ -93,10 +93,9 @@ export function describeState(
     occupiedSet.splice(k, 1);
     return false;
   });
-  const levels = [
-    ...occupiedLevels.map((e) => e - c.exchange),
-    ...emptyLevels,
-  ].sort((a, b) => a - b);
+  const levels = [...occupiedLevels.map((e) => e - c.exchange), ...emptyLevels].sort(
+    (a, b) => a - b,
+  );
   // Particle and hole far apart: cheapest empty level minus the highest occupied one. Equal to
   // eps_(Nf+1) - eps_(Nf) when the Aufbau principle holds; negative when it does not.
   const gap = Math.min(...emptyLevels) - Math.max(...occupiedLevels) + c.exchange;
@@ -155,7 +154,10 @@ function distinctMinima(
   const out: { energy: number; phase: string; groups: Float64Array }[] = [];
   const sorted = [...minima].sort((a, b) => a.energy - b.energy);
   for (const m of sorted) {
-    const order = orderOfProjector(projectorOf(m.frame, c.nf, new Float64Array(32)), new Float64Array(16));
+    const order = orderOfProjector(
+      projectorOf(m.frame, c.nf, new Float64Array(32)),
+      new Float64Array(16),
+    );
     const groups = groupMagnitudes(order);
     const same = out.some(
       (o) =>

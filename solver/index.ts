@@ -35,6 +35,7 @@ export {
   type LocalMinimum,
   type MinimiseOptions,
   type MinimiseResult,
+  type SearchPlan,
 } from './minimise';
 export {
   ORDER_GROUPS,
@@ -51,3 +52,28 @@ export { occupiedSpinors } from './spinors';
 export { describeState, solve, type SolveResult } from './groundState';
 export { clean, solveResultToJson, type SolveJson } from './solveJson';
 export { MEAN_FIELD_CAUTION, SOFTWARE_VERSION } from './version';
+export {
+  MAX_RESOLUTION,
+  PlaneCouplings,
+  axisValue,
+  parseMapInput,
+  parsePlane,
+  type Axis,
+  type MapInput,
+  type Plane,
+} from './plane';
+export {
+  BISECTION_TOLERANCE,
+  FIRST_ORDER_JUMP,
+  boundaryEdges,
+  coarseLayout,
+  coarseNodes,
+  locateCrossings,
+  solveCoarseNodes,
+  solvePixels,
+  type CoarseNodes,
+  type Crossing,
+  type PixelBlock,
+} from './mapTiling';
+export { joinBoundaries, type Boundary } from './boundaries';
+export { computePhaseMap, localStages, type MapStages, type PhaseMap } from './phaseMap';

@@ -17,7 +17,11 @@ const JACOBI_MAX_SWEEPS = 30;
  * by a diagonal phase). `a` is overwritten. Eigenvalues ascending into `values`, eigenvectors as a
  * frame into `vectors` (vector k belongs to values[k]).
  */
-export function hermitianEigen4(a: Float64Array, values: Float64Array, vectors: Float64Array): void {
+export function hermitianEigen4(
+  a: Float64Array,
+  values: Float64Array,
+  vectors: Float64Array,
+): void {
   vectors.fill(0);
   for (let k = 0; k < 4; k++) vectors[8 * k + 2 * k] = 1;
   let total = 0;

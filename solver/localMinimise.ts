@@ -24,6 +24,13 @@ export interface DescentOptions {
   /** Stop when every gradient component is below this times the coupling scale. */
   readonly gradientTolerance: number;
   readonly maxIterations: number;
+  /** Newton steps taken after the tolerance is met (each squares the residual). */
+  readonly polishSteps: number;
+  /**
+   * Leave saddle points along negative curvature (true), or stop there and report
+   * `converged: false` (false: for continuing a known branch, as map bisection does).
+   */
+  escapeSaddles: boolean;
   /**
    * Give up early (result `abandoned`) once the run is in its Newton phase and its quadratic
    * model, with a safety factor of two, says it cannot end below this value. Infinity never
@@ -35,6 +42,8 @@ export interface DescentOptions {
 export const DEFAULT_DESCENT: DescentOptions = {
   gradientTolerance: 1e-12,
   maxIterations: 200,
+  polishSteps: 1,
+  escapeSaddles: true,
   abandonAbove: Infinity,
 };
 
@@ -256,23 +265,43 @@ export function descend(
   let escapes = 0;
   let gmax = Infinity;
   let lastRatio = 0;
+  let polished = 0;
   for (let iteration = 0; iteration < options.maxIterations; iteration++) {
     tangentModel(c, frame, ws);
     gmax = 0;
     for (let p = 0; p < d; p++) gmax = Math.max(gmax, Math.abs(g[p]!));
     if (gmax <= tolerance) {
       // A minimum has a positive semidefinite Hessian; Goldstone zeros pass the small shift.
-      if (choleskySolve(k, d, 1e-7 * scale, g, z, ws.chol, 0)) {
-        return { energy, gradient: gmax, iterations: iteration, converged: true, abandoned: false };
+      if (choleskySolve(k, d, 1e-11 * scale, g, z, ws.chol, 0)) {
+        // Extra Newton steps cost little and clear the slow residual of soft modes near a
+        // continuous transition (gradient / curvature), which would otherwise blur labels.
+        if (polished >= options.polishSteps || gmax <= 1e-15 * scale) {
+          return {
+            energy,
+            gradient: gmax,
+            iterations: iteration,
+            converged: true,
+            abandoned: false,
+          };
+        }
+        polished++;
+        lambda = 0;
+      } else {
+        if (!options.escapeSaddles || escapes >= 8 || !escapeSaddle(c, frame, ws, d, energy)) {
+          return {
+            energy,
+            gradient: gmax,
+            iterations: iteration,
+            converged: false,
+            abandoned: false,
+          };
+        }
+        escapes++;
+        energy = frameEnergy(c, frame, ws, ws.order);
+        lambda = 1e-3 * scale;
+        lastRatio = 0;
+        continue;
       }
-      if (escapes >= 8 || !escapeSaddle(c, frame, ws, d, energy)) {
-        return { energy, gradient: gmax, iterations: iteration, converged: false, abandoned: false };
-      }
-      escapes++;
-      energy = frameEnergy(c, frame, ws, ws.order);
-      lambda = 1e-3 * scale;
-      lastRatio = 0;
-      continue;
     }
     for (let p = 0; p < d; p++) rhs[p] = -g[p]!;
     if (
@@ -316,7 +345,8 @@ export function descend(
       frame.set(ws.trial);
       ws.order.set(ws.trialOrder);
       energy = trialEnergy;
-      const ratio = predicted > 0 ? decrease / predicted : 1;
+      // Below rounding the measured decrease is noise: trust the quadratic model there.
+      const ratio = predicted > roundoff ? decrease / predicted : 1;
       if (ratio > 0.75) lambda = lambda < 1e-10 * scale ? 0 : lambda / 4;
       else if (ratio < 0.25) lambda = Math.max(2 * lambda, 1e-4 * scale);
       lastRatio = norm <= MAX_STEP ? ratio : 0;
@@ -325,7 +355,13 @@ export function descend(
       lastRatio = 0;
     }
   }
-  return { energy, gradient: gmax, iterations: options.maxIterations, converged: false, abandoned: false };
+  return {
+    energy,
+    gradient: gmax,
+    iterations: options.maxIterations,
+    converged: false,
+    abandoned: false,
+  };
 }
 
 /** Steps from a saddle along the most negative curvature direction; true when energy fell. */
@@ -345,7 +381,10 @@ function escapeSaddle(
     if (Math.abs(ws.eigVectors[p * d]!) > Math.abs(big)) big = ws.eigVectors[p * d]!;
   }
   const sign = big < 0 ? -1 : 1;
-  for (const length of [0.5, 0.15, 0.03]) {
+  // Near a continuous transition the negative curvature is tiny and the new minimum close:
+  // shrink the step towards the quartic estimate sqrt(|lambda| / scale).
+  const smallest = 0.3 * Math.sqrt(-ws.eigValues[0]! / c.scale);
+  for (let length = 0.5; length >= smallest; length *= 0.3) {
     for (let p = 0; p < d; p++) ws.step[p] = sign * length * ws.eigVectors[p * d]!;
     retract(c.nf, frame, ws.step, ws.trial, ws.scratch);
     const e = frameEnergy(c, ws.trial, ws, ws.trialOrder);

@@ -71,35 +71,51 @@ function lowestSeeds(c: Couplings, library: readonly Seed[], count: number): num
   return chosen;
 }
 
+/** How to search: warm starts, cold library search, early abandonment, saddle escapes. */
+export interface SearchPlan {
+  /** Frames to descend from first (for example a neighbour's state on a map). */
+  readonly warmStarts?: readonly Float64Array[];
+  /** Also descend from the ranked library seeds and random frames (default true). */
+  readonly coldSearch?: boolean;
+  /** Let warm starts after the first stop once they cannot beat the best (default false). */
+  readonly abandonWarm?: boolean;
+  /** Leave saddle points along negative curvature (default true). */
+  readonly escapeSaddles?: boolean;
+}
+
 /**
- * Finds the ground state. `warmStarts` (frames, for example a neighbour's state on a map) are
- * always descended from first; with `coldSearch` false only they are used.
+ * Finds the ground state: the lowest converged local minimum among all descents (a descent
+ * stopped at a saddle only counts when no descent reached a minimum).
  */
 export function minimiseEnergy(
   c: Couplings,
   options: MinimiseOptions = DEFAULT_MINIMISE,
-  warmStarts: readonly Float64Array[] = [],
-  coldSearch = true,
+  plan: SearchPlan = {},
 ): MinimiseResult {
   const ws = workspace();
   const minima: LocalMinimum[] = [];
   let best: LocalMinimum | undefined;
   let descents = 0;
-  const cold = { ...DEFAULT_DESCENT };
+  const descent = { ...DEFAULT_DESCENT, escapeSaddles: plan.escapeSaddles ?? true };
+  const better = (a: LocalMinimum, b: LocalMinimum | undefined): boolean =>
+    b === undefined ||
+    (a.converged && !b.converged) ||
+    (a.converged === b.converged && a.energy < b.energy);
   const run = (start: Float64Array, abandon: boolean): DescentResult => {
     const frame = Float64Array.from(start);
-    cold.abandonAbove = abandon && best ? best.energy - ABANDON_MARGIN * c.scale : Infinity;
-    const result = descend(c, frame, cold, ws);
+    descent.abandonAbove =
+      abandon && best?.converged ? best.energy - ABANDON_MARGIN * c.scale : Infinity;
+    const result = descend(c, frame, descent, ws);
     descents++;
     if (!result.abandoned) {
       const found = { frame, energy: result.energy, converged: result.converged };
       minima.push(found);
-      if (best === undefined || found.energy < best.energy) best = found;
+      if (better(found, best)) best = found;
     }
     return result;
   };
-  for (const start of warmStarts) run(start, false);
-  if (coldSearch) {
+  (plan.warmStarts ?? []).forEach((start, i) => run(start, i > 0 && (plan.abandonWarm ?? false)));
+  if (plan.coldSearch ?? true) {
     const library = seedLibrary(c.nf);
     for (const index of lowestSeeds(c, library, options.rankedStarts)) {
       run(library[index]!.frame, true);

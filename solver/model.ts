@@ -81,15 +81,21 @@ function parseCoupling(value: unknown, field: string): ChannelCoupling {
     return { hartree: fock, fock };
   }
   if (!isPlainObject(value)) {
-    throw new ModelError(`${field}: expected { "fock": number, "hartree"?: number }, got ${describe(value)}`);
+    throw new ModelError(
+      `${field}: expected { "fock": number, "hartree"?: number }, got ${describe(value)}`,
+    );
   }
   for (const key of Object.keys(value)) {
     if (key !== 'hartree' && key !== 'fock') {
-      throw new ModelError(`${field}.${key}: unknown field; a channel has "fock" and optionally "hartree"`);
+      throw new ModelError(
+        `${field}.${key}: unknown field; a channel has "fock" and optionally "hartree"`,
+      );
     }
   }
   if (!('fock' in value)) {
-    throw new ModelError(`${field}.fock: missing; a channel needs "fock" ("hartree" alone is not enough)`);
+    throw new ModelError(
+      `${field}.fock: missing; a channel needs "fock" ("hartree" alone is not enough)`,
+    );
   }
   const fock = finiteNumber(value.fock, `${field}.fock`);
   const hartree = 'hartree' in value ? finiteNumber(value.hartree, `${field}.hartree`) : fock;
@@ -121,7 +127,9 @@ export function parseModel(json: unknown, where = ''): Model {
   if ('channels' in json) {
     const raw = json.channels;
     if (!isPlainObject(raw)) {
-      throw new ModelError(`${prefix}channels: expected an object of channels, got ${describe(raw)}`);
+      throw new ModelError(
+        `${prefix}channels: expected an object of channels, got ${describe(raw)}`,
+      );
     }
     for (const [name, value] of Object.entries(raw)) {
       const channel = channelName(name, `${prefix}channels`);
@@ -132,7 +140,9 @@ export function parseModel(json: unknown, where = ''): Model {
   if ('oneBody' in json) {
     const raw = json.oneBody;
     if (!isPlainObject(raw)) {
-      throw new ModelError(`${prefix}oneBody: expected an object of channel coefficients, got ${describe(raw)}`);
+      throw new ModelError(
+        `${prefix}oneBody: expected an object of channel coefficients, got ${describe(raw)}`,
+      );
     }
     for (const [name, value] of Object.entries(raw)) {
       const channel = channelName(name, `${prefix}oneBody`);
@@ -142,7 +152,8 @@ export function parseModel(json: unknown, where = ''): Model {
   const zeeman = 'zeeman' in json ? finiteNumber(json.zeeman, `${prefix}zeeman`) : 0;
   const valleyZeeman =
     'valleyZeeman' in json ? finiteNumber(json.valleyZeeman, `${prefix}valleyZeeman`) : 0;
-  const exchange = 'exchange' in json ? finiteNumber(json.exchange, `${prefix}exchange`) : undefined;
+  const exchange =
+    'exchange' in json ? finiteNumber(json.exchange, `${prefix}exchange`) : undefined;
   return Object.freeze({
     filling,
     channels: Object.freeze(channels),

@@ -53,7 +53,10 @@ function rotateFrame(frame: Float64Array, alpha: number, beta: number): void {
 /** Moves `frame` (in place) to the canonical point of its symmetry orbit. */
 export function canonicaliseOrbit(frame: Float64Array, nf: number, symmetry: ModelSymmetry): void {
   if (!symmetry.spinRotationAboutField && !symmetry.valleyRotation) return;
-  const order = orderOfProjector(projectorOf(frame, nf, new Float64Array(32)), new Float64Array(16));
+  const order = orderOfProjector(
+    projectorOf(frame, nf, new Float64Array(32)),
+    new Float64Array(16),
+  );
   // exp(-i alpha sigma_z / 2) turns the spin by alpha about z; undo the present angle.
   const alpha = symmetry.spinRotationAboutField ? -firstAngle(order, SPIN_PAIRS) : 0;
   const beta = symmetry.valleyRotation ? -firstAngle(order, VALLEY_PAIRS) : 0;

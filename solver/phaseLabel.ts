@@ -51,7 +51,11 @@ function channelSlot(name: string): number {
  * induce are named only when nothing else is broken. With full spin SU(2) the spin groups merge
  * (any moment is F, any Neel vector AF, both together CAF).
  */
-export function phaseLabel(order: ArrayLike<number>, c: Couplings, symmetry: ModelSymmetry): string {
+export function phaseLabel(
+  order: ArrayLike<number>,
+  c: Couplings,
+  symmetry: ModelSymmetry,
+): string {
   const magnitudes = groupMagnitudes(order);
   const induced = inducedGroups(c);
   const present: { key: OrderGroupKey; token: string }[] = [];

@@ -78,8 +78,18 @@ function stabiliserSeeds(nf: number): Seed[] {
 
 /** Spinor chi (x) xi with valley Bloch angles (beta, phiV) and spin angles (theta, phiS). */
 function productSpinor(beta: number, phiV: number, theta: number, phiS: number): number[] {
-  const v = [Math.cos(beta / 2), 0, Math.sin(beta / 2) * Math.cos(phiV), Math.sin(beta / 2) * Math.sin(phiV)];
-  const s = [Math.cos(theta / 2), 0, Math.sin(theta / 2) * Math.cos(phiS), Math.sin(theta / 2) * Math.sin(phiS)];
+  const v = [
+    Math.cos(beta / 2),
+    0,
+    Math.sin(beta / 2) * Math.cos(phiV),
+    Math.sin(beta / 2) * Math.sin(phiV),
+  ];
+  const s = [
+    Math.cos(theta / 2),
+    0,
+    Math.sin(theta / 2) * Math.cos(phiS),
+    Math.sin(theta / 2) * Math.sin(phiS),
+  ];
   const out: number[] = [];
   for (let iv = 0; iv < 2; iv++) {
     for (let is = 0; is < 2; is++) {
@@ -108,7 +118,10 @@ function cantedSeeds(nf: number, random: RandomSource): Seed[] {
       // CAF: spin on A (valley K) and on B (valley K') at +-theta from the field.
       seeds.push(
         seedOf(
-          frameFromSpinors([productSpinor(0, 0, theta, 0), productSpinor(Math.PI, 0, theta, Math.PI)], random),
+          frameFromSpinors(
+            [productSpinor(0, 0, theta, 0), productSpinor(Math.PI, 0, theta, Math.PI)],
+            random,
+          ),
           nf,
           'canted',
         ),
@@ -116,16 +129,25 @@ function cantedSeeds(nf: number, random: RandomSource): Seed[] {
       // Valley spinor tilted from the pole towards the bond-ordered equator, both spins filled.
       seeds.push(
         seedOf(
-          frameFromSpinors([productSpinor(theta, 0, 0, 0), productSpinor(theta, 0, Math.PI, 0)], random),
+          frameFromSpinors(
+            [productSpinor(theta, 0, 0, 0), productSpinor(theta, 0, Math.PI, 0)],
+            random,
+          ),
           nf,
           'canted',
         ),
       );
     } else {
-      const spinors = [productSpinor(theta, 0, theta, 0), productSpinor(theta, 0, Math.PI - theta, Math.PI)];
+      const spinors = [
+        productSpinor(theta, 0, theta, 0),
+        productSpinor(theta, 0, Math.PI - theta, Math.PI),
+      ];
       const frame = frameFromSpinors(spinors.slice(0, 1), random);
       seeds.push(seedOf(nf === 1 ? frame : complementFrame(frame), nf, 'canted'));
-      const frame2 = frameFromSpinors([productSpinor(Math.PI - theta, 0, theta, Math.PI / 2)], random);
+      const frame2 = frameFromSpinors(
+        [productSpinor(Math.PI - theta, 0, theta, Math.PI / 2)],
+        random,
+      );
       seeds.push(seedOf(nf === 1 ? frame2 : complementFrame(frame2), nf, 'canted'));
     }
   }

@@ -46,7 +46,11 @@ export function orderOfProjector(p: Float64Array, out: Float64Array): Float64Arr
  * H_HF[P] of model.md section 7 from the order parameters, without the -E_X P term:
  * sum_k (eta_k + kappa_k o_k) G_k + identityShift.
  */
-export function hartreeFockOfOrder(c: Couplings, order: Float64Array, out: Float64Array): Float64Array {
+export function hartreeFockOfOrder(
+  c: Couplings,
+  order: Float64Array,
+  out: Float64Array,
+): Float64Array {
   out.fill(0);
   for (let k = 1; k < MATRIX_COUNT; k++) {
     const mu = c.eta[k]! + c.kappa[k]! * order[k]!;

@@ -30,7 +30,11 @@ export function modelSymmetry(c: Couplings): ModelSymmetry {
       if (!close(kappa[x]!, kappa[y]!, scale) || eta[x] !== 0 || eta[y] !== 0) {
         spinRotationAboutField = false;
       }
-      if (!close(kappa[x]!, kappa[z]!, scale) || !close(kappa[x]!, kappa[y]!, scale) || eta[z] !== 0) {
+      if (
+        !close(kappa[x]!, kappa[z]!, scale) ||
+        !close(kappa[x]!, kappa[y]!, scale) ||
+        eta[z] !== 0
+      ) {
         spinIsotropic = false;
       }
     }

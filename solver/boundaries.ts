@@ -1,0 +1,95 @@
+import type { Crossing } from './mapTiling';
+
+/** A boundary polyline between two labelled regions (interfaces.md `map` output). */
+export interface Boundary {
+  readonly between: [string, string];
+  readonly order: 'first' | 'continuous';
+  readonly points: [number, number][];
+}
+
+function pairKey(c: Crossing): string {
+  return c.near < c.far ? `${c.near}|${c.far}` : `${c.far}|${c.near}`;
+}
+
+/**
+ * Joins edge crossings into polylines, marching-squares style: inside each grid cell (four pixel
+ * centres) the crossings of the same label pair are linked, two by two around the cell; chains of
+ * links become polylines, split where the transition order changes. Polylines end next to triple
+ * points, where a cell holds one crossing of a pair.
+ */
+export function joinBoundaries(crossings: readonly Crossing[], nx: number, ny: number): Boundary[] {
+  const byEdge = new Map<number, number>();
+  crossings.forEach((c, index) => byEdge.set(c.edge, index));
+  const links: number[][] = crossings.map(() => []);
+  for (let j = 0; j + 1 < ny; j++) {
+    for (let i = 0; i + 1 < nx; i++) {
+      const p = j * nx + i;
+      // Around the cell: bottom, right, top, left.
+      const around = [2 * p, 2 * (p + 1) + 1, 2 * (p + nx), 2 * p + 1]
+        .map((edge) => byEdge.get(edge))
+        .filter((k): k is number => k !== undefined);
+      if (around.length < 2) continue;
+      const groups = new Map<string, number[]>();
+      for (const k of around) {
+        const key = pairKey(crossings[k]!);
+        groups.set(key, [...(groups.get(key) ?? []), k]);
+      }
+      for (const members of groups.values()) {
+        for (let m = 0; m + 1 < members.length; m += 2) {
+          links[members[m]!]!.push(members[m + 1]!);
+          links[members[m + 1]!]!.push(members[m]!);
+        }
+      }
+    }
+  }
+  const visited = new Uint8Array(crossings.length);
+  const chains: number[][] = [];
+  const walk = (start: number): number[] => {
+    const chain = [start];
+    visited[start] = 1;
+    let current = start;
+    for (;;) {
+      const next = links[current]!.find((k) => visited[k] === 0);
+      if (next === undefined) break;
+      visited[next] = 1;
+      chain.push(next);
+      current = next;
+    }
+    return chain;
+  };
+  // Open chains first (from an end), then closed loops.
+  crossings.forEach((_, k) => {
+    if (visited[k] === 0 && links[k]!.length <= 1) chains.push(walk(k));
+  });
+  crossings.forEach((_, k) => {
+    if (visited[k] === 0) {
+      const loop = walk(k);
+      if (links[loop[loop.length - 1]!]!.includes(k) && loop.length > 2) loop.push(k);
+      chains.push(loop);
+    }
+  });
+  const out: Boundary[] = [];
+  for (const chain of chains) {
+    let run: number[] = [chain[0]!];
+    const flush = () => {
+      const first = crossings[run[0]!]!;
+      const [a, b] = pairKey(first).split('|') as [string, string];
+      const firstOrder = run.filter((k) => crossings[k]!.order === 'first').length;
+      out.push({
+        between: [a, b],
+        order: firstOrder * 2 >= run.length ? 'first' : 'continuous',
+        points: run.map((k) => [crossings[k]!.x, crossings[k]!.y]),
+      });
+    };
+    for (let m = 1; m < chain.length; m++) {
+      const k = chain[m]!;
+      if (crossings[k]!.order !== crossings[run[run.length - 1]!]!.order && run.length > 1) {
+        flush();
+        run = [run[run.length - 1]!];
+      }
+      run.push(k);
+    }
+    flush();
+  }
+  return out;
+}

@@ -1,0 +1,330 @@
+import { type Couplings } from './couplings';
+import { hermitianEigen4 } from './linalg';
+import { minimiseEnergy, DEFAULT_MINIMISE } from './minimise';
+import { ORDER_TOLERANCE, phaseLabel } from './phaseLabel';
+import { axisValue, PlaneCouplings, type MapInput } from './plane';
+import { hartreeFockOfOrder, orderOfProjector, projectorOf } from './state';
+import { modelSymmetry } from './symmetry';
+
+/**
+ * The Map in three stages, each a pure function of its inputs so that any split of the work
+ * between threads gives the same numbers bit for bit:
+ *
+ * 1. coarse nodes (every `stride`-th pixel and the last row and column): full global search;
+ * 2. every pixel: descents warm-started from the four coarse nodes around it (both sides of any
+ *    boundary that crosses the coarse cell), the lowest kept;
+ * 3. every pixel edge whose ends carry different labels: bisection of the transition along the
+ *    edge to 1e-9 of the axis span, warm-started from both ends, and typed first order (the order
+ *    parameters jump) or continuous.
+ */
+
+/** Coarse node spacing: about 48 nodes along the longer side, at least every 2nd pixel. */
+export function coarseStride(nx: number, ny: number): number {
+  return Math.max(2, Math.ceil(Math.max(nx, ny) / 48));
+}
+
+/** Pixel indices of coarse nodes along one side: 0, s, 2s, ... and n - 1. */
+export function coarseLine(n: number, stride: number): Int32Array {
+  const out: number[] = [];
+  for (let i = 0; i < n; i += stride) out.push(i);
+  if (out[out.length - 1] !== n - 1) out.push(n - 1);
+  return Int32Array.from(out);
+}
+
+export interface CoarseNodes {
+  readonly cols: Int32Array;
+  readonly rows: Int32Array;
+  /** Frames (32 numbers) of node (a, b) at [32 (b cols.length + a)]. */
+  readonly frames: Float64Array;
+  readonly orders: Float64Array;
+}
+
+export function coarseLayout(input: MapInput): { cols: Int32Array; rows: Int32Array } {
+  const [nx, ny] = input.plane.resolution;
+  const stride = coarseStride(nx, ny);
+  return { cols: coarseLine(nx, stride), rows: coarseLine(ny, stride) };
+}
+
+/** Stage 1 for coarse nodes `first .. first + count - 1` (row-major over the coarse grid). */
+export function solveCoarseNodes(input: MapInput, first: number, count: number): Float64Array {
+  const { cols, rows } = coarseLayout(input);
+  const [nx, ny] = input.plane.resolution;
+  const planeCouplings = new PlaneCouplings(input);
+  const frames = new Float64Array(32 * count);
+  for (let n = 0; n < count; n++) {
+    const node = first + n;
+    const a = node % cols.length;
+    const b = Math.floor(node / cols.length);
+    const c = planeCouplings.at(
+      axisValue(input.plane.x, nx, cols[a]!),
+      axisValue(input.plane.y, ny, rows[b]!),
+    );
+    frames.set(minimiseEnergy(c, DEFAULT_MINIMISE).frame, 32 * n);
+  }
+  return frames;
+}
+
+export function coarseNodes(input: MapInput, frames: Float64Array): CoarseNodes {
+  const { cols, rows } = coarseLayout(input);
+  const nf = input.model.filling + 2;
+  const count = cols.length * rows.length;
+  const orders = new Float64Array(16 * count);
+  const p = new Float64Array(32);
+  for (let n = 0; n < count; n++) {
+    projectorOf(frames.subarray(32 * n, 32 * n + 32), nf, p);
+    orderOfProjector(p, orders.subarray(16 * n, 16 * n + 16));
+  }
+  return { cols, rows, frames, orders };
+}
+
+/** Per-pixel results of stage 2 for pixels `start .. start + count - 1` (row-major). */
+export interface PixelBlock {
+  readonly start: number;
+  readonly count: number;
+  readonly energy: Float64Array;
+  /** o_k, k = 1..15, at [15 n + k - 1]. */
+  readonly order: Float64Array;
+  readonly gap: Float64Array;
+  readonly frames: Float64Array;
+  readonly labels: string[];
+}
+
+function interval(line: Int32Array, i: number): number {
+  let a = 0;
+  while (a < line.length - 2 && line[a + 1]! <= i) a++;
+  return a;
+}
+
+/** Candidate warm starts for pixel (i, j): the corner nodes, nearest first, duplicates merged. */
+function cornerCandidates(coarse: CoarseNodes, i: number, j: number): Float64Array[] {
+  const a = interval(coarse.cols, i);
+  const b = interval(coarse.rows, j);
+  const corners: { node: number; d: number }[] = [];
+  for (const [da, db] of [
+    [0, 0],
+    [1, 0],
+    [0, 1],
+    [1, 1],
+  ] as const) {
+    const ci = coarse.cols[a + da]!;
+    const cj = coarse.rows[b + db]!;
+    corners.push({
+      node: (b + db) * coarse.cols.length + a + da,
+      d: (ci - i) ** 2 + (cj - j) ** 2,
+    });
+  }
+  corners.sort((x, y) => x.d - y.d || x.node - y.node);
+  const chosen: number[] = [];
+  for (const { node } of corners) {
+    const similar = chosen.some((other) => {
+      let diff = 0;
+      for (let k = 1; k < 16; k++) {
+        diff = Math.max(
+          diff,
+          Math.abs(coarse.orders[16 * node + k]! - coarse.orders[16 * other + k]!),
+        );
+      }
+      return diff < 1e-3;
+    });
+    if (!similar) chosen.push(node);
+  }
+  return chosen.map((node) => coarse.frames.subarray(32 * node, 32 * node + 32));
+}
+
+/** Stage 2 for a block of pixels. */
+export function solvePixels(
+  input: MapInput,
+  coarse: CoarseNodes,
+  start: number,
+  count: number,
+): PixelBlock {
+  const [nx, ny] = input.plane.resolution;
+  const nf = input.model.filling + 2;
+  const planeCouplings = new PlaneCouplings(input);
+  const block: PixelBlock = {
+    start,
+    count,
+    energy: new Float64Array(count),
+    order: new Float64Array(15 * count),
+    gap: new Float64Array(count),
+    frames: new Float64Array(32 * count),
+    labels: [],
+  };
+  const scratch = new PixelScratch();
+  for (let n = 0; n < count; n++) {
+    const pixel = start + n;
+    const i = pixel % nx;
+    const j = Math.floor(pixel / nx);
+    const c = planeCouplings.at(axisValue(input.plane.x, nx, i), axisValue(input.plane.y, ny, j));
+    const result = minimiseEnergy(c, DEFAULT_MINIMISE, {
+      warmStarts: cornerCandidates(coarse, i, j),
+      coldSearch: false,
+      abandonWarm: true,
+    });
+    block.frames.set(result.frame, 32 * n);
+    const summary = summarise(c, result.frame, nf, scratch);
+    block.energy[n] = summary.energy;
+    block.gap[n] = summary.gap;
+    block.order.set(scratch.order.subarray(1, 16), 15 * n);
+    block.labels.push(summary.label);
+  }
+  return block;
+}
+
+class PixelScratch {
+  readonly projector = new Float64Array(32);
+  readonly order = new Float64Array(16);
+  readonly hamiltonian = new Float64Array(32);
+  readonly values = new Float64Array(4);
+  readonly vectors = new Float64Array(32);
+}
+
+/** Energy, label and quasiparticle gap of a frame (gap without E_X unless the model sets it). */
+function summarise(
+  c: Couplings,
+  frame: Float64Array,
+  nf: number,
+  s: PixelScratch,
+): { energy: number; gap: number; label: string } {
+  projectorOf(frame, nf, s.projector);
+  orderOfProjector(s.projector, s.order);
+  let energy = c.c0 + c.eta[0]! * nf;
+  for (let k = 1; k < 16; k++)
+    energy += s.order[k]! * (c.eta[k]! + 0.5 * c.kappa[k]! * s.order[k]!);
+  hartreeFockOfOrder(c, s.order, s.hamiltonian);
+  hermitianEigen4(s.hamiltonian, s.values, s.vectors);
+  // Classify eigenvectors as occupied (v^dagger P v near 1) or empty.
+  let highestOccupied = -Infinity;
+  let lowestEmpty = Infinity;
+  for (let k = 0; k < 4; k++) {
+    let weight = 0;
+    for (let r = 0; r < 4; r++) {
+      for (let col = 0; col < 4; col++) {
+        const vr = s.vectors[8 * k + 2 * r]!;
+        const vi = s.vectors[8 * k + 2 * r + 1]!;
+        const wr = s.vectors[8 * k + 2 * col]!;
+        const wi = s.vectors[8 * k + 2 * col + 1]!;
+        const pr = s.projector[2 * (4 * r + col)]!;
+        const pi = s.projector[2 * (4 * r + col) + 1]!;
+        // conj(v_r) P_rc w_c, real part
+        const ar = vr * pr + vi * pi;
+        const ai = vr * pi - vi * pr;
+        weight += ar * wr - ai * wi;
+      }
+    }
+    if (weight > 0.5) highestOccupied = Math.max(highestOccupied, s.values[k]!);
+    else lowestEmpty = Math.min(lowestEmpty, s.values[k]!);
+  }
+  const gap = lowestEmpty - highestOccupied + c.exchange;
+  return { energy, gap, label: phaseLabel(s.order, c, modelSymmetry(c)) };
+}
+
+/** A located transition on one pixel edge. */
+export interface Crossing {
+  /** Edge id: 2 p for the edge from pixel p to p + 1, 2 p + 1 from p to p + nx. */
+  readonly edge: number;
+  readonly x: number;
+  readonly y: number;
+  /** Labels on the near (p) and far side of the crossing. */
+  readonly near: string;
+  readonly far: string;
+  readonly order: 'first' | 'continuous';
+}
+
+/** Order-parameter jump above which a transition counts as first order. */
+export const FIRST_ORDER_JUMP = 1e-2;
+
+/** Relative bracket width (of the axis span) at which bisection stops. */
+export const BISECTION_TOLERANCE = 1e-9;
+
+/**
+ * Stage 3: locate the transitions on the given edges. `endFrames` holds, per edge, the frames of
+ * its near and far pixel (64 numbers); `endLabels` their labels.
+ */
+export function locateCrossings(
+  input: MapInput,
+  edges: Int32Array,
+  endFrames: Float64Array,
+  endLabels: readonly string[],
+): Crossing[] {
+  const [nx, ny] = input.plane.resolution;
+  const nf = input.model.filling + 2;
+  const planeCouplings = new PlaneCouplings(input);
+  const out: Crossing[] = [];
+  const p = new Float64Array(32);
+  const orderNear = new Float64Array(16);
+  const orderFar = new Float64Array(16);
+  for (let e = 0; e < edges.length; e++) {
+    const edge = edges[e]!;
+    const pixel = edge >> 1;
+    const vertical = (edge & 1) === 1;
+    const i = pixel % nx;
+    const j = Math.floor(pixel / nx);
+    const x0 = axisValue(input.plane.x, nx, i);
+    const y0 = axisValue(input.plane.y, ny, j);
+    const x1 = vertical ? x0 : axisValue(input.plane.x, nx, i + 1);
+    const y1 = vertical ? axisValue(input.plane.y, ny, j + 1) : y0;
+    const steps = Math.ceil(Math.log2(1 / (BISECTION_TOLERANCE * (vertical ? ny : nx))));
+    let lo = 0;
+    let hi = 1;
+    let near = endLabels[2 * e]!;
+    let far = endLabels[2 * e + 1]!;
+    let frameNear: Float64Array = endFrames.slice(64 * e, 64 * e + 32);
+    let frameFar: Float64Array = endFrames.slice(64 * e + 32, 64 * e + 64);
+    for (let step = 0; step < steps; step++) {
+      const t = (lo + hi) / 2;
+      const c = planeCouplings.at(x0 + t * (x1 - x0), y0 + t * (y1 - y0));
+      // Continue both branches without leaving saddles: a branch that has become a saddle is
+      // not the ground state; only if both have, search properly.
+      let result = minimiseEnergy(c, DEFAULT_MINIMISE, {
+        warmStarts: [frameNear, frameFar],
+        coldSearch: false,
+        escapeSaddles: false,
+      });
+      if (!result.converged) {
+        result = minimiseEnergy(c, DEFAULT_MINIMISE, { warmStarts: [frameNear, frameFar] });
+      }
+      projectorOf(result.frame, nf, p);
+      orderOfProjector(p, orderNear);
+      const label = phaseLabel(orderNear, c, modelSymmetry(c));
+      if (label === near) {
+        lo = t;
+        frameNear = result.frame;
+      } else {
+        // A third phase between the ends becomes the far side: the nearest transition is kept.
+        hi = t;
+        far = label;
+        frameFar = result.frame;
+      }
+    }
+    orderOfProjector(projectorOf(frameNear, nf, p), orderNear);
+    orderOfProjector(projectorOf(frameFar, nf, p), orderFar);
+    let jump = 0;
+    for (let k = 1; k < 16; k++) jump = Math.max(jump, Math.abs(orderNear[k]! - orderFar[k]!));
+    const t = (lo + hi) / 2;
+    out.push({
+      edge,
+      x: x0 + t * (x1 - x0),
+      y: y0 + t * (y1 - y0),
+      near,
+      far,
+      order: jump > FIRST_ORDER_JUMP ? 'first' : 'continuous',
+    });
+  }
+  return out;
+}
+
+/** Edges (ids as in Crossing) between differently labelled neighbours, ascending. */
+export function boundaryEdges(labels: readonly string[], nx: number, ny: number): Int32Array {
+  const out: number[] = [];
+  for (let j = 0; j < ny; j++) {
+    for (let i = 0; i < nx; i++) {
+      const p = j * nx + i;
+      if (i + 1 < nx && labels[p] !== labels[p + 1]) out.push(2 * p);
+      if (j + 1 < ny && labels[p] !== labels[p + nx]) out.push(2 * p + 1);
+    }
+  }
+  return Int32Array.from(out);
+}
+
+export { ORDER_TOLERANCE };
