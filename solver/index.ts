@@ -77,3 +77,4 @@ export {
 } from './mapTiling';
 export { joinBoundaries, type Boundary } from './boundaries';
 export { computePhaseMap, localStages, type MapStages, type PhaseMap } from './phaseMap';
+export { legendOf, mapToCsv, mapToJson } from './mapExport';

@@ -36,7 +36,7 @@ export interface CoarseNodes {
   readonly rows: Int32Array;
   /** Frames (32 numbers) of node (a, b) at [32 (b cols.length + a)]. */
   readonly frames: Float64Array;
-  readonly orders: Float64Array;
+  readonly labels: string[];
 }
 
 export function coarseLayout(input: MapInput): { cols: Int32Array; rows: Int32Array } {
@@ -66,15 +66,24 @@ export function solveCoarseNodes(input: MapInput, first: number, count: number):
 
 export function coarseNodes(input: MapInput, frames: Float64Array): CoarseNodes {
   const { cols, rows } = coarseLayout(input);
+  const [nx, ny] = input.plane.resolution;
   const nf = input.model.filling + 2;
-  const count = cols.length * rows.length;
-  const orders = new Float64Array(16 * count);
+  const planeCouplings = new PlaneCouplings(input);
+  const labels: string[] = [];
   const p = new Float64Array(32);
-  for (let n = 0; n < count; n++) {
-    projectorOf(frames.subarray(32 * n, 32 * n + 32), nf, p);
-    orderOfProjector(p, orders.subarray(16 * n, 16 * n + 16));
+  const order = new Float64Array(16);
+  for (let b = 0; b < rows.length; b++) {
+    for (let a = 0; a < cols.length; a++) {
+      const n = b * cols.length + a;
+      const c = planeCouplings.at(
+        axisValue(input.plane.x, nx, cols[a]!),
+        axisValue(input.plane.y, ny, rows[b]!),
+      );
+      projectorOf(frames.subarray(32 * n, 32 * n + 32), nf, p);
+      labels.push(phaseLabel(orderOfProjector(p, order), c, modelSymmetry(c)));
+    }
   }
-  return { cols, rows, frames, orders };
+  return { cols, rows, frames, labels };
 }
 
 /** Per-pixel results of stage 2 for pixels `start .. start + count - 1` (row-major). */
@@ -95,7 +104,7 @@ function interval(line: Int32Array, i: number): number {
   return a;
 }
 
-/** Candidate warm starts for pixel (i, j): the corner nodes, nearest first, duplicates merged. */
+/** Candidate warm starts for pixel (i, j): corner nodes, nearest first, one per phase. */
 function cornerCandidates(coarse: CoarseNodes, i: number, j: number): Float64Array[] {
   const a = interval(coarse.cols, i);
   const b = interval(coarse.rows, j);
@@ -114,19 +123,11 @@ function cornerCandidates(coarse: CoarseNodes, i: number, j: number): Float64Arr
     });
   }
   corners.sort((x, y) => x.d - y.d || x.node - y.node);
+  // The nearest node of each distinct phase: one start inside a region, one per side of a
+  // boundary that crosses the coarse cell.
   const chosen: number[] = [];
   for (const { node } of corners) {
-    const similar = chosen.some((other) => {
-      let diff = 0;
-      for (let k = 1; k < 16; k++) {
-        diff = Math.max(
-          diff,
-          Math.abs(coarse.orders[16 * node + k]! - coarse.orders[16 * other + k]!),
-        );
-      }
-      return diff < 1e-3;
-    });
-    if (!similar) chosen.push(node);
+    if (!chosen.some((other) => coarse.labels[other] === coarse.labels[node])) chosen.push(node);
   }
   return chosen.map((node) => coarse.frames.subarray(32 * node, 32 * node + 32));
 }
@@ -160,6 +161,7 @@ export function solvePixels(
       warmStarts: cornerCandidates(coarse, i, j),
       coldSearch: false,
       abandonWarm: true,
+      polishSteps: 0,
     });
     block.frames.set(result.frame, 32 * n);
     const summary = summarise(c, result.frame, nf, scratch);
@@ -267,7 +269,7 @@ export function locateCrossings(
     const steps = Math.ceil(Math.log2(1 / (BISECTION_TOLERANCE * (vertical ? ny : nx))));
     let lo = 0;
     let hi = 1;
-    let near = endLabels[2 * e]!;
+    const near = endLabels[2 * e]!;
     let far = endLabels[2 * e + 1]!;
     let frameNear: Float64Array = endFrames.slice(64 * e, 64 * e + 32);
     let frameFar: Float64Array = endFrames.slice(64 * e + 32, 64 * e + 64);

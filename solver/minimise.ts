@@ -81,6 +81,8 @@ export interface SearchPlan {
   readonly abandonWarm?: boolean;
   /** Leave saddle points along negative curvature (default true). */
   readonly escapeSaddles?: boolean;
+  /** Newton steps after the gradient tolerance is met (default 1). */
+  readonly polishSteps?: number;
 }
 
 /**
@@ -96,7 +98,11 @@ export function minimiseEnergy(
   const minima: LocalMinimum[] = [];
   let best: LocalMinimum | undefined;
   let descents = 0;
-  const descent = { ...DEFAULT_DESCENT, escapeSaddles: plan.escapeSaddles ?? true };
+  const descent = {
+    ...DEFAULT_DESCENT,
+    escapeSaddles: plan.escapeSaddles ?? true,
+    polishSteps: plan.polishSteps ?? DEFAULT_DESCENT.polishSteps,
+  };
   const better = (a: LocalMinimum, b: LocalMinimum | undefined): boolean =>
     b === undefined ||
     (a.converged && !b.converged) ||

@@ -132,62 +132,82 @@ export function axisValue(axis: Axis, n: number, i: number): number {
   return axis.from + ((i + 0.5) * (axis.to - axis.from)) / n;
 }
 
-/** Builds couplings at plane points, reusing scratch arrays. */
+/**
+ * Builds couplings at plane points. Everything in Couplings is linear in the targets, so the
+ * base model and the two axis directions are reduced once and each point costs a few dozen
+ * multiply-adds. `at` returns the same object each call, overwritten: use it before the next.
+ */
 export class PlaneCouplings {
-  private readonly base: CouplingArrays;
-  private readonly work: CouplingArrays;
-  private readonly nf: number;
-  private readonly exchange: number;
-  private readonly slots: {
-    array: 'hartree' | 'fock' | 'eta';
-    index: number;
-    x: number;
-    y: number;
-  }[] = [];
+  private readonly base: Couplings;
+  private readonly dx: Couplings;
+  private readonly dy: Couplings;
+  private readonly point: {
+    -readonly [K in keyof Couplings]: Couplings[K];
+  };
 
   constructor(readonly input: MapInput) {
-    this.base = couplingArrays(input.model);
-    this.work = couplingArrays(input.model);
-    this.nf = occupiedCount(input.model);
-    this.exchange = input.model.exchange ?? 0;
-    const slot = (name: string) => {
-      if (name === 'zeeman') return { array: 'eta' as const, index: 3, factor: -0.5 };
-      if (name === 'valleyZeeman') return { array: 'eta' as const, index: 12, factor: -0.5 };
+    const nf = occupiedCount(input.model);
+    const exchange = input.model.exchange ?? 0;
+    const baseArrays = couplingArrays(input.model);
+    const targetSlot = (
+      name: string,
+    ): { array: keyof CouplingArrays; index: number; factor: number } => {
+      if (name === 'zeeman') return { array: 'eta', index: 3, factor: -0.5 };
+      if (name === 'valleyZeeman') return { array: 'eta', index: 12, factor: -0.5 };
       const [channel, part] = name.split('.');
       return { array: part as 'hartree' | 'fock', index: channelIndex(channel!), factor: 1 };
     };
-    const all = new Set([
+    const names = new Set([
       ...Object.keys(input.plane.x.targets),
       ...Object.keys(input.plane.y.targets),
     ]);
-    for (const name of all) {
-      const s = slot(name);
-      this.slots.push({
-        array: s.array,
-        index: s.index,
-        x: (input.plane.x.targets[name] ?? 0) * s.factor,
-        y: (input.plane.y.targets[name] ?? 0) * s.factor,
-      });
+    // A target is set by the axes, replacing the model's own value (a oneBody term on the same
+    // matrix stays: it is separate from E_Z and Delta_V).
+    for (const name of names) {
+      const slot = targetSlot(name);
+      baseArrays[slot.array][slot.index] =
+        slot.array === 'eta' ? (input.model.oneBody[slot.index === 3 ? '0z' : 'z0'] ?? 0) : 0;
     }
+    const direction = (axis: Axis): CouplingArrays => {
+      const arrays: CouplingArrays = {
+        hartree: new Float64Array(16),
+        fock: new Float64Array(16),
+        eta: new Float64Array(16),
+      };
+      for (const [name, coefficient] of Object.entries(axis.targets)) {
+        const slot = targetSlot(name);
+        arrays[slot.array][slot.index] =
+          arrays[slot.array][slot.index]! + coefficient * slot.factor;
+      }
+      return arrays;
+    };
+    this.base = couplingsFromArrays(nf, baseArrays, exchange);
+    this.dx = couplingsFromArrays(nf, direction(input.plane.x), 0);
+    this.dy = couplingsFromArrays(nf, direction(input.plane.y), 0);
+    this.point = couplingsFromArrays(nf, baseArrays, exchange);
   }
 
   /** Couplings at axis values (x, y). */
   at(x: number, y: number): Couplings {
-    const { base, work } = this;
-    work.hartree.set(base.hartree);
-    work.fock.set(base.fock);
-    work.eta.set(base.eta);
-    // A target is set by the axes, replacing the model's own value.
-    for (const s of this.slots) work[s.array][s.index] = 0;
-    for (const s of this.slots)
-      work[s.array][s.index] = work[s.array][s.index]! + s.x * x + s.y * y;
-    if (this.slots.some((s) => s.array === 'eta' && s.index === 3)) {
-      // zeeman targets replace E_Z but keep any oneBody 0z term of the model.
-      work.eta[3] = work.eta[3]! + (this.input.model.oneBody['0z'] ?? 0);
+    const { base, dx, dy, point } = this;
+    let scale = 0;
+    for (let k = 0; k < 16; k++) {
+      point.hartree[k] = base.hartree[k]! + x * dx.hartree[k]! + y * dy.hartree[k]!;
+      point.fock[k] = base.fock[k]! + x * dx.fock[k]! + y * dy.fock[k]!;
+      point.eta[k] = base.eta[k]! + x * dx.eta[k]! + y * dy.eta[k]!;
+      point.kappa[k] = base.kappa[k]! + x * dx.kappa[k]! + y * dy.kappa[k]!;
+      if (k > 0) {
+        scale = Math.max(
+          scale,
+          Math.abs(point.hartree[k]!),
+          Math.abs(point.fock[k]!),
+          Math.abs(point.eta[k]!),
+        );
+      }
     }
-    if (this.slots.some((s) => s.array === 'eta' && s.index === 12)) {
-      work.eta[12] = work.eta[12]! + (this.input.model.oneBody['z0'] ?? 0);
-    }
-    return couplingsFromArrays(this.nf, work, this.exchange);
+    point.c0 = base.c0 + x * dx.c0 + y * dy.c0;
+    point.identityShift = base.identityShift + x * dx.identityShift + y * dy.identityShift;
+    point.scale = Math.max(scale, 1e-300);
+    return point;
   }
 }

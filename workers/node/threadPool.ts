@@ -1,0 +1,61 @@
+import { availableParallelism } from 'node:os';
+import { Worker } from 'node:worker_threads';
+import { wrap, type Remote } from 'comlink';
+import nodeEndpoint from 'comlink/dist/esm/node-adapter.mjs';
+import type { MapStages } from '../../solver/index';
+import type { MapThreadApi } from './mapThread';
+
+/**
+ * A pool of worker threads running the Map stages for the CLI. Calls queue for the next free
+ * thread; results do not depend on which thread ran them. `close()` ends the threads.
+ */
+export class ThreadPool {
+  readonly size: number;
+  private readonly workers: Worker[] = [];
+  private readonly remotes: Remote<MapThreadApi>[] = [];
+  private readonly idle: number[] = [];
+  private readonly waiting: ((slot: number) => void)[] = [];
+
+  constructor(workerUrl: URL, size = availableParallelism()) {
+    this.size = Math.max(1, size);
+    for (let k = 0; k < this.size; k++) {
+      const worker = new Worker(workerUrl);
+      worker.unref();
+      this.workers.push(worker);
+      this.remotes.push(wrap<MapThreadApi>(nodeEndpoint(worker)));
+      this.idle.push(k);
+    }
+  }
+
+  private async acquire(): Promise<number> {
+    const slot = this.idle.pop();
+    if (slot !== undefined) return slot;
+    return new Promise((resolve) => this.waiting.push(resolve));
+  }
+
+  private release(slot: number): void {
+    const next = this.waiting.shift();
+    if (next) next(slot);
+    else this.idle.push(slot);
+  }
+
+  private async run<T>(task: (remote: Remote<MapThreadApi>) => Promise<T>): Promise<T> {
+    const slot = await this.acquire();
+    try {
+      return await task(this.remotes[slot]!);
+    } finally {
+      this.release(slot);
+    }
+  }
+
+  readonly stages: MapStages = {
+    coarse: (input, first, count) => this.run((r) => r.coarse(input, first, count)),
+    pixels: (input, coarse, start, count) => this.run((r) => r.pixels(input, coarse, start, count)),
+    crossings: (input, edges, frames, labels) =>
+      this.run((r) => r.crossings(input, edges, frames, labels)),
+  };
+
+  async close(): Promise<void> {
+    await Promise.all(this.workers.map((w) => w.terminate()));
+  }
+}
