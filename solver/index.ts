@@ -78,3 +78,16 @@ export {
 export { joinBoundaries, type Boundary } from './boundaries';
 export { computePhaseMap, localStages, type MapStages, type PhaseMap } from './phaseMap';
 export { legendOf, mapToCsv, mapToJson } from './mapExport';
+export {
+  BOHR_MAGNETON,
+  ELEMENTARY_CHARGE,
+  REDUCED_PLANCK,
+  VACUUM_PERMITTIVITY,
+  coulombScaleMeV,
+  exchangeEnergyMeV,
+  landauLevelMeV,
+  landauLevelMixing,
+  magneticLength,
+  zeemanEnergyMeV,
+} from './units';
+export { exponentialIntegralE1, rangeCouplings, type RangeProfile } from './interactionRange';

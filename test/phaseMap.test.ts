@@ -1,0 +1,141 @@
+import { spawnSync } from 'node:child_process';
+import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join, resolve } from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { describe, expect, test } from 'vitest';
+import { computePhaseMap, localStages, parseMapInput, type PhaseMap } from '../solver/index';
+
+const repoRoot = resolve(fileURLToPath(new URL('.', import.meta.url)), '..');
+
+/** Standard model (H = F) on the (uPerp, uZ) plane of interfaces.md. */
+function standardPlane(
+  zeeman: number,
+  n: number,
+  xRange: [number, number],
+  yRange: [number, number],
+) {
+  return {
+    filling: 0,
+    channels: {},
+    zeeman,
+    valleyZeeman: 0,
+    plane: {
+      x: {
+        label: 'u_perp',
+        from: xRange[0],
+        to: xRange[1],
+        targets: { 'x0.fock': 1, 'y0.fock': 1, 'x0.hartree': 1, 'y0.hartree': 1 },
+      },
+      y: {
+        label: 'u_z',
+        from: yRange[0],
+        to: yRange[1],
+        targets: { 'z0.fock': 1, 'z0.hartree': 1 },
+      },
+      resolution: [n, n],
+    },
+  };
+}
+
+/**
+ * Distance of (uPerp, uZ) from the closed-form boundary of a label pair (model.md section 5,
+ * derived there from section 4, H = F, Delta_V = 0).
+ */
+function closedFormDistance(pair: string, u: number, z: number, zeeman: number): number {
+  switch (pair) {
+    case 'CAF/F':
+      return Math.abs(u + zeeman / 4);
+    case 'CAF/KD':
+      return Math.abs(z - (Math.abs(u) - zeeman ** 2 / (8 * Math.abs(u))));
+    case 'CDW/F':
+      return Math.abs(z - (-u - zeeman / 2));
+    case 'CDW/KD':
+      return Math.abs(z - u);
+    default:
+      return NaN;
+  }
+}
+
+const EXPECTED_ORDER: Record<string, 'first' | 'continuous'> = {
+  'CAF/F': 'continuous',
+  'CAF/KD': 'first',
+  'CDW/F': 'first',
+  'CDW/KD': 'first',
+};
+
+describe('Map of the standard model', () => {
+  for (const zeeman of [0.3, 0.8]) {
+    test(`recovers the closed-form boundaries of model.md section 5 at E_Z = ${zeeman} to 1e-6 of the span, typed`, async () => {
+      // Ranges avoid putting pixel centres on the KD/CDW line uZ = uPerp, where H = F makes the two
+      // states exactly degenerate (a valley-rotation family).
+      const xRange: [number, number] = [-2, 2.03];
+      const yRange: [number, number] = [-1.98, 2.01];
+      const map = await computePhaseMap(parseMapInput(standardPlane(zeeman, 80, xRange, yRange)));
+      const span = Math.max(xRange[1] - xRange[0], yRange[1] - yRange[0]);
+      // Near the point where all four regions meet, (-E_Z/4, -E_Z/4), pixel edges may also see
+      // F next to KD: the closed forms say nothing about those crossings.
+      const junction = 3 * (span / 80);
+      const counts: Record<string, number> = {};
+      for (const c of map.crossings) {
+        const pair = [c.near, c.far].sort().join('/');
+        if (Math.hypot(c.x + zeeman / 4, c.y + zeeman / 4) < junction) continue;
+        expect(Object.keys(EXPECTED_ORDER)).toContain(pair);
+        expect(closedFormDistance(pair, c.x, c.y, zeeman)).toBeLessThan(1e-6 * span);
+        expect(c.order).toBe(EXPECTED_ORDER[pair]);
+        counts[pair] = (counts[pair] ?? 0) + 1;
+      }
+      for (const pair of Object.keys(EXPECTED_ORDER)) expect(counts[pair] ?? 0).toBeGreaterThan(10);
+      expect(new Set(map.labels)).toEqual(new Set(['F', 'CAF', 'KD', 'CDW']));
+      for (const b of map.boundaries) {
+        expect(b.points.length).toBeGreaterThan(0);
+        const pair = b.between.join('/');
+        if (b.points.length > 4) expect(b.order).toBe(EXPECTED_ORDER[pair]);
+      }
+    });
+  }
+
+  test('labels at points whose phase is known in closed form (model.md section 5)', async () => {
+    const map = await computePhaseMap(parseMapInput(standardPlane(0.4, 40, [-2, 2], [-2, 2])));
+    const at = (u: number, z: number): string => {
+      const i = Math.floor(((u + 2) / 4) * 40);
+      const j = Math.floor(((z + 2) / 4) * 40);
+      return map.labels[j * 40 + i]!;
+    };
+    expect(at(1, 1)).toBe('F');
+    expect(at(-1, 1.5)).toBe('CAF');
+    expect(at(-1.5, 0)).toBe('KD');
+    expect(at(0.5, -1.5)).toBe('CDW');
+  });
+
+  test('deterministic bit for bit, whatever the split of the work', async () => {
+    const input = parseMapInput(standardPlane(0.3, 30, [-2, 2.03], [-1.98, 2.01]));
+    const one = await computePhaseMap(input, localStages, 1);
+    const many = await computePhaseMap(input, localStages, 5);
+    const same = (a: PhaseMap, b: PhaseMap) => {
+      expect(Array.from(b.energy)).toEqual(Array.from(a.energy));
+      expect(Array.from(b.order)).toEqual(Array.from(a.order));
+      expect(b.labels).toEqual(a.labels);
+      expect(b.boundaries).toEqual(a.boundaries);
+    };
+    same(one, many);
+  });
+
+  test('the CLI gives the same file with 1 and 2 worker threads', () => {
+    const dir = mkdtempSync(join(tmpdir(), 'fourfold-'));
+    const modelFile = join(dir, 'model.json');
+    writeFileSync(modelFile, JSON.stringify(standardPlane(0.3, 24, [-2, 2.03], [-1.98, 2.01])));
+    const outputs = [1, 2].map((threads) => {
+      const out = join(dir, `map${threads}.json`);
+      const run = spawnSync(
+        process.execPath,
+        ['fourfold.mjs', 'map', '--model', modelFile, '--out', out, '--threads', String(threads)],
+        { cwd: repoRoot, encoding: 'utf8' },
+      );
+      expect(run.stderr).toBe('');
+      expect(run.status).toBe(0);
+      return readFileSync(out, 'utf8');
+    });
+    expect(outputs[1]).toBe(outputs[0]);
+  });
+});
