@@ -47,7 +47,8 @@ function channelSlot(name: string): number {
 
 /**
  * Phase label from the computed state only (model.md section 6): the nonzero order-parameter
- * groups, in the fixed order of ORDER_GROUPS, joined by '+'. Groups that the one-body terms
+ * groups, in the fixed order of ORDER_GROUPS, joined by '+' (at odd filling, a product spinor is
+ * named by its valley and spin factors instead). Groups that the one-body terms
  * induce are named only when nothing else is broken. With full spin SU(2) the spin groups merge
  * (any moment is F, any Neel vector AF, both together CAF).
  */
@@ -56,8 +57,12 @@ export function phaseLabel(
   c: Couplings,
   symmetry: ModelSymmetry,
 ): string {
-  const magnitudes = groupMagnitudes(order);
   const induced = inducedGroups(c);
+  if (c.nf % 2 === 1) {
+    const product = productStateLabel(order, c.nf, induced, symmetry);
+    if (product !== undefined) return product;
+  }
+  const magnitudes = groupMagnitudes(order);
   const present: { key: OrderGroupKey; token: string }[] = [];
   ORDER_GROUPS.forEach((g, i) => {
     if (magnitudes[i]! > ORDER_TOLERANCE) present.push({ key: g.key, token: g.token });
@@ -88,5 +93,40 @@ export function phaseLabel(
           (p) =>
             !(p.key === 'neelAlongField' && induced.has('spinAlongField') && induced.has('cdw')),
         );
+  return tokens.length === 0 ? 'sym' : tokens.map((t) => t.token).join('+');
+}
+
+/**
+ * At nu = -1 (one particle) and nu = +1 (one hole) a state is one spinor phi. When phi is a
+ * product of a valley and a spin state, o_ab = v_a s_b for the particle (or the hole, o -> -o),
+ * and the natural name is that of its two factors: the valley part is CDW (along tau_z) and/or
+ * KD (in the plane), the spin part F (along the field) and/or Fxy. Otherwise undefined.
+ */
+function productStateLabel(
+  order: ArrayLike<number>,
+  nf: number,
+  induced: Set<OrderGroupKey>,
+  symmetry: ModelSymmetry,
+): string | undefined {
+  const sign = nf === 1 ? 1 : -1;
+  const o = (k: number): number => sign * order[k]!;
+  for (let a = 1; a < 4; a++) {
+    for (let b = 1; b < 4; b++) {
+      if (Math.abs(o(4 * a + b) - o(4 * a) * o(b)) > ORDER_TOLERANCE) return undefined;
+    }
+  }
+  const parts: { key: OrderGroupKey; token: string }[] = [];
+  const spinInPlane = Math.hypot(o(1), o(2)) > ORDER_TOLERANCE;
+  const spinAlong = Math.abs(o(3)) > ORDER_TOLERANCE;
+  if (symmetry.spinIsotropic) {
+    if (spinInPlane || spinAlong) parts.push({ key: 'spinAlongField', token: 'F' });
+  } else {
+    if (spinAlong) parts.push({ key: 'spinAlongField', token: 'F' });
+    if (spinInPlane) parts.push({ key: 'spinInPlane', token: 'Fxy' });
+  }
+  if (Math.abs(o(12)) > ORDER_TOLERANCE) parts.push({ key: 'cdw', token: 'CDW' });
+  if (Math.hypot(o(4), o(8)) > ORDER_TOLERANCE) parts.push({ key: 'bondOrder', token: 'KD' });
+  const broken = parts.filter((p) => !induced.has(p.key));
+  const tokens = broken.length > 0 ? broken : parts;
   return tokens.length === 0 ? 'sym' : tokens.map((t) => t.token).join('+');
 }

@@ -9,7 +9,11 @@ import {
   frameEnergy,
   landauLevelMeV,
   magneticLength,
+  modelSymmetry,
   orderAngles,
+  orderOfProjector,
+  phaseLabel,
+  projectorOf,
   parseModel,
   randomFrame,
   rangeCouplings,
@@ -192,6 +196,45 @@ describe('reference checks of model.md section 10', () => {
         }
         expect(solve(parseModel({ filling, channels })).energy).toBeCloseTo(expected, 12);
       }
+    }
+  });
+
+  test('section 8: a ferromagnet at E_Z = 0 has one zero-frequency pair for two broken generators', () => {
+    // Spin-isotropic couplings in the F region (uPerp, uZ > 0): S_x and S_y rotations are both
+    // flat Hessian directions, yet they form one conjugate pair (model.md section 8).
+    const r = solve(standard(1, 1, 0));
+    expect(r.phase).toBe('F');
+    const flat = r.modes.hessianEigenvalues.filter((k) => Math.abs(k) < 1e-9);
+    expect(flat.length).toBe(2);
+    expect(r.modes.goldstone).toBe(1);
+    expect(r.modes.frequencies.length).toBe(4); // Nf (4 - Nf) pairs
+    // With a field the pair gaps out at the Larmor frequency E_Z.
+    const withField = solve(standard(1, 1, 0.3));
+    expect(withField.modes.goldstone).toBe(0);
+    expect(withField.modes.frequencies[0]).toBeCloseTo(0.3, 10);
+  });
+
+  test('section 6: at nu = -1 and +1 a product spinor is named by its valley and spin factors', () => {
+    const c = couplingsOf(standard(-1, 2, 0.2, 0, -1));
+    const label = (spinor: number[], filling: -1 | 1): string => {
+      // nu = -1: the particle is the spinor; nu = +1: the hole is (o_ab -> -o_ab).
+      const frame = new Float64Array(32);
+      frame.set(spinor);
+      const p = projectorOf(frame, 1, new Float64Array(32));
+      const order = orderOfProjector(p, new Float64Array(16));
+      if (filling === 1) for (let k = 1; k < 16; k++) order[k] = -order[k]!;
+      const cf = filling === -1 ? c : couplingsOf(standard(-1, 2, 0.2, 0, 1));
+      return phaseLabel(order, cf, modelSymmetry(cf));
+    };
+    const h = Math.SQRT1_2;
+    for (const filling of [-1, 1] as const) {
+      // |K up>: valley-polarised (CDW), spin along the field (F, induced by E_Z).
+      expect(label([1, 0, 0, 0, 0, 0, 0, 0], filling)).toBe('CDW');
+      // (|K> + |K'>)/sqrt 2 (x) |up>: bond order.
+      expect(label([h, 0, 0, 0, h, 0, 0, 0], filling)).toBe('KD');
+      // (|K up> + |K' down>)/sqrt 2 is entangled: named by its groups, o_zz = 1 (Neel along the
+      // field) and o_xx = -o_yy = 1 (in-plane spin bond order); no moment, no CDW.
+      expect(label([h, 0, 0, 0, 0, 0, h, 0], filling)).toBe('AF+SBxy');
     }
   });
 });
