@@ -26,8 +26,8 @@ export interface SolveJson {
   caution: string;
 }
 
-/** Rounds away float noise: values within 1e-13 of zero become 0 (and -0 becomes 0). */
-export function clean(x: number, zero = 1e-13): number {
+/** Rounds away float noise: values within 1e-12 of zero become 0 (and -0 becomes 0). */
+export function clean(x: number, zero = 1e-12): number {
   return Math.abs(x) < zero ? 0 : x;
 }
 
