@@ -24,6 +24,15 @@ export function hermitianEigen4(
 ): void {
   vectors.fill(0);
   for (let k = 0; k < 4; k++) vectors[8 * k + 2 * k] = 1;
+  // Work on a / max|a_ij| so that squares neither overflow nor underflow (common practice).
+  let largest = 0;
+  for (let i = 0; i < 32; i++) largest = Math.max(largest, Math.abs(a[i]!));
+  if (largest === 0 || !Number.isFinite(largest)) {
+    for (let k = 0; k < 4; k++) values[k] = a[2 * (5 * k)]!;
+    sortFrameByValues(values, vectors, 4);
+    return;
+  }
+  for (let i = 0; i < 32; i++) a[i] = a[i]! / largest;
   let total = 0;
   for (let i = 0; i < 32; i++) total += a[i]! * a[i]!;
   const threshold = total * 1e-30;
@@ -99,7 +108,7 @@ export function hermitianEigen4(
       }
     }
   }
-  for (let k = 0; k < 4; k++) values[k] = a[2 * (5 * k)]!;
+  for (let k = 0; k < 4; k++) values[k] = a[2 * (5 * k)]! * largest;
   sortFrameByValues(values, vectors, 4);
 }
 
@@ -132,6 +141,10 @@ export function symmetricEigen(
 ): void {
   vectors.fill(0, 0, n * n);
   for (let k = 0; k < n; k++) vectors[k * n + k] = 1;
+  let largest = 0;
+  for (let i = 0; i < n * n; i++) largest = Math.max(largest, Math.abs(a[i]!));
+  if (largest === 0 || !Number.isFinite(largest)) largest = 1;
+  for (let i = 0; i < n * n; i++) a[i] = a[i]! / largest;
   let total = 0;
   for (let i = 0; i < n * n; i++) total += a[i]! * a[i]!;
   const threshold = total * 1e-30;
@@ -172,7 +185,7 @@ export function symmetricEigen(
       }
     }
   }
-  for (let k = 0; k < n; k++) values[k] = a[k * n + k]!;
+  for (let k = 0; k < n; k++) values[k] = a[k * n + k]! * largest;
   // Selection sort of columns (n <= 8 here).
   for (let i = 0; i < n - 1; i++) {
     let m = i;

@@ -22,7 +22,7 @@ import { hartreeFockOfOrder, orderOfProjector, projectorOf } from './state';
 
 export interface DescentOptions {
   /** Stop when every gradient component is below this times the coupling scale. */
-  readonly gradientTolerance: number;
+  gradientTolerance: number;
   readonly maxIterations: number;
   /** Newton steps taken after the tolerance is met (each squares the residual). */
   readonly polishSteps: number;
@@ -37,6 +37,8 @@ export interface DescentOptions {
    * abandons.
    */
   abandonAbove: number;
+  /** Order parameters of the best minimum so far: a run that nears it is abandoned too. */
+  abandonNear?: Float64Array | undefined;
 }
 
 export const DEFAULT_DESCENT: DescentOptions = {
@@ -242,6 +244,10 @@ export function retract(
 }
 
 const MAX_STEP = 1;
+/** A Newton step shorter than this (tangent norm) is taken as inside the quadratic regime. */
+const SHORT_STEP = 0.05;
+/** Order parameters within this (max norm) of a known minimum, in its quadratic regime. */
+const SAME_BASIN = 1e-2;
 
 /**
  * Minimises the energy from `frame` (modified in place) to a local minimum. Saddle points are
@@ -285,7 +291,9 @@ export function descend(
           };
         }
         polished++;
-        lambda = 0;
+        // The same tiny shift that passed the test above: Goldstone zero modes stay harmless,
+        // soft modes far above it are corrected fully.
+        lambda = 1e-11 * scale;
       } else {
         if (!options.escapeSaddles || escapes >= 8 || !escapeSaddle(c, frame, ws, d, energy)) {
           return {
@@ -306,22 +314,42 @@ export function descend(
     for (let p = 0; p < d; p++) rhs[p] = -g[p]!;
     if (
       options.abandonAbove < Infinity &&
-      lastRatio > 0.5 &&
-      lastRatio < 1.5 &&
       choleskySolve(k, d, 1e-8 * scale, rhs, z, ws.chol, 1e-13 * scale)
     ) {
       // Newton decrement: the quadratic model's remaining decrease, 1/2 g K^-1 g (a tiny shift
-      // lets Goldstone zero modes through; it only overestimates the decrease).
+      // lets Goldstone zero modes through; it only overestimates the decrease). The model is
+      // trusted after a step that it predicted well, or when the Newton step is short.
       let decrement = 0;
-      for (let p = 0; p < d; p++) decrement -= 0.5 * g[p]! * z[p]!;
-      if (energy - 2 * decrement > options.abandonAbove) {
+      let stepNorm = 0;
+      for (let p = 0; p < d; p++) {
+        decrement -= 0.5 * g[p]! * z[p]!;
+        stepNorm += z[p]! * z[p]!;
+      }
+      const trusted = (lastRatio > 0.5 && lastRatio < 1.5) || stepNorm < SHORT_STEP * SHORT_STEP;
+      if (trusted && energy - 2 * decrement > options.abandonAbove) {
         return { energy, gradient: gmax, iterations: iteration, converged: false, abandoned: true };
+      }
+      // Close to the best minimum already found, with a short step left: the same basin.
+      const near = options.abandonNear;
+      if (near !== undefined && stepNorm < SHORT_STEP * SHORT_STEP) {
+        let distance = 0;
+        for (let q = 1; q < 16; q++)
+          distance = Math.max(distance, Math.abs(ws.order[q]! - near[q]!));
+        if (distance < SAME_BASIN) {
+          return {
+            energy,
+            gradient: gmax,
+            iterations: iteration,
+            converged: false,
+            abandoned: true,
+          };
+        }
       }
     }
     let tries = 0;
     while (!choleskySolve(k, d, lambda, rhs, z, ws.chol, 1e-13 * scale)) {
       lambda = Math.max(4 * lambda, 1e-6 * scale);
-      if (++tries > 80) break;
+      if (++tries > 40) break;
     }
     let norm = 0;
     for (let p = 0; p < d; p++) norm += z[p]! * z[p]!;

@@ -161,7 +161,7 @@ export function solvePixels(
       warmStarts: cornerCandidates(coarse, i, j),
       coldSearch: false,
       abandonWarm: true,
-      polishSteps: 0,
+      gradientTolerance: 1e-12,
     });
     block.frames.set(result.frame, 32 * n);
     const summary = summarise(c, result.frame, nf, scratch);
@@ -270,7 +270,7 @@ export function locateCrossings(
     let lo = 0;
     let hi = 1;
     const near = endLabels[2 * e]!;
-    let far = endLabels[2 * e + 1]!;
+    const far = endLabels[2 * e + 1]!;
     let frameNear: Float64Array = endFrames.slice(64 * e, 64 * e + 32);
     let frameFar: Float64Array = endFrames.slice(64 * e + 32, 64 * e + 64);
     for (let step = 0; step < steps; step++) {
@@ -278,24 +278,36 @@ export function locateCrossings(
       const c = planeCouplings.at(x0 + t * (x1 - x0), y0 + t * (y1 - y0));
       // Continue both branches without leaving saddles: a branch that has become a saddle is
       // not the ground state; only if both have, search properly.
+      // Tight convergence and a polishing step keep soft modes near a continuous transition
+      // from blurring the labels.
+      const tight = { gradientTolerance: 1e-12, polishSteps: 1 };
       let result = minimiseEnergy(c, DEFAULT_MINIMISE, {
         warmStarts: [frameNear, frameFar],
         coldSearch: false,
         escapeSaddles: false,
+        ...tight,
       });
       if (!result.converged) {
-        result = minimiseEnergy(c, DEFAULT_MINIMISE, { warmStarts: [frameNear, frameFar] });
+        result = minimiseEnergy(c, DEFAULT_MINIMISE, {
+          warmStarts: [frameNear, frameFar],
+          ...tight,
+        });
       }
       projectorOf(result.frame, nf, p);
       orderOfProjector(p, orderNear);
-      const label = phaseLabel(orderNear, c, modelSymmetry(c));
+      let label = phaseLabel(orderNear, c, modelSymmetry(c));
+      if (label !== near && label !== far) {
+        // Within rounding of a line where the two end states are degenerate (for H = F,
+        // uZ = uPerp joins KD and CDW by a valley rotation) a descent may stop part-way along
+        // the flat direction: the state belongs to the end it is closer to. (A genuine third
+        // phase narrower than one pixel edge is not resolved.)
+        label = closerEnd(orderNear, frameNear, frameFar, nf) ? near : far;
+      }
       if (label === near) {
         lo = t;
         frameNear = result.frame;
       } else {
-        // A third phase between the ends becomes the far side: the nearest transition is kept.
         hi = t;
-        far = label;
         frameFar = result.frame;
       }
     }
@@ -314,6 +326,20 @@ export function locateCrossings(
     });
   }
   return out;
+}
+
+/** Whether `order` lies closer (max norm) to the state of frame `a` than to that of `b`. */
+function closerEnd(order: Float64Array, a: Float64Array, b: Float64Array, nf: number): boolean {
+  const p = new Float64Array(32);
+  const oa = orderOfProjector(projectorOf(a, nf, p), new Float64Array(16));
+  const ob = orderOfProjector(projectorOf(b, nf, p), new Float64Array(16));
+  let da = 0;
+  let db = 0;
+  for (let k = 1; k < 16; k++) {
+    da = Math.max(da, Math.abs(order[k]! - oa[k]!));
+    db = Math.max(db, Math.abs(order[k]! - ob[k]!));
+  }
+  return da <= db;
 }
 
 /** Edges (ids as in Crossing) between differently labelled neighbours, ascending. */

@@ -15,13 +15,22 @@ export interface MinimiseOptions {
   readonly randomStarts: number;
   /** Seed of the random stream (results are deterministic for a given seed). */
   readonly seed: number;
+  /** Ranked seeds closer than this (max norm of o) to a chosen one are skipped. */
+  readonly seedSpread?: number;
 }
 
-export const DEFAULT_MINIMISE: MinimiseOptions = { rankedStarts: 4, randomStarts: 1, seed: 1 };
+export const DEFAULT_MINIMISE: MinimiseOptions = {
+  rankedStarts: 4,
+  randomStarts: 1,
+  seed: 1,
+  seedSpread: 0,
+};
 
 /** A local minimum met during the search. */
 export interface LocalMinimum {
   readonly frame: Float64Array;
+  /** Its order parameters o_k, k = 0..15. */
+  readonly order: Float64Array;
   readonly energy: number;
   readonly converged: boolean;
 }
@@ -43,6 +52,12 @@ export interface MinimiseResult {
  */
 export const ABANDON_MARGIN = 1e-8;
 
+/**
+ * Gradient tolerance of the search descents (relative to the coupling scale). The winner is
+ * polished further by whoever reports it (`describeState` to 1e-12 plus a Newton step).
+ */
+export const SEARCH_TOLERANCE = 1e-10;
+
 const workspaces: DescentWorkspace[] = [];
 function workspace(): DescentWorkspace {
   let ws = workspaces[0];
@@ -55,17 +70,33 @@ function workspace(): DescentWorkspace {
 
 const seedEnergies = new Float64Array(512);
 
-/** Indices of the `count` library seeds of lowest energy, lowest first (ties by index). */
-function lowestSeeds(c: Couplings, library: readonly Seed[], count: number): number[] {
+/**
+ * Indices of `count` library seeds, lowest energy first, skipping seeds whose order parameters
+ * lie within `spread` (max norm) of one already chosen: nearby seeds tend to share a basin, so
+ * this spends the descents on different basins. Ties go to the lower index.
+ */
+function lowestSeeds(
+  c: Couplings,
+  library: readonly Seed[],
+  count: number,
+  spread: number,
+): number[] {
   const n = library.length;
   for (let i = 0; i < n; i++) seedEnergies[i] = energyOfOrder(c, library[i]!.order);
   const chosen: number[] = [];
+  const near = (i: number, j: number): boolean => {
+    const a = library[i]!.order;
+    const b = library[j]!.order;
+    for (let k = 1; k < 16; k++) if (Math.abs(a[k]! - b[k]!) > spread) return false;
+    return true;
+  };
   for (let pick = 0; pick < Math.min(count, n); pick++) {
     let best = -1;
     for (let i = 0; i < n; i++) {
-      if (chosen.includes(i)) continue;
+      if (chosen.includes(i) || chosen.some((j) => near(i, j))) continue;
       if (best < 0 || seedEnergies[i]! < seedEnergies[best]!) best = i;
     }
+    if (best < 0) break;
     chosen.push(best);
   }
   return chosen;
@@ -81,8 +112,10 @@ export interface SearchPlan {
   readonly abandonWarm?: boolean;
   /** Leave saddle points along negative curvature (default true). */
   readonly escapeSaddles?: boolean;
-  /** Newton steps after the gradient tolerance is met (default 1). */
+  /** Newton steps after the gradient tolerance is met (default 0: callers polish the winner). */
   readonly polishSteps?: number;
+  /** Gradient tolerance relative to the coupling scale (default 1e-10; Newton squares it). */
+  readonly gradientTolerance?: number;
 }
 
 /**
@@ -101,7 +134,8 @@ export function minimiseEnergy(
   const descent = {
     ...DEFAULT_DESCENT,
     escapeSaddles: plan.escapeSaddles ?? true,
-    polishSteps: plan.polishSteps ?? DEFAULT_DESCENT.polishSteps,
+    polishSteps: plan.polishSteps ?? 0,
+    gradientTolerance: plan.gradientTolerance ?? SEARCH_TOLERANCE,
   };
   const better = (a: LocalMinimum, b: LocalMinimum | undefined): boolean =>
     b === undefined ||
@@ -111,10 +145,16 @@ export function minimiseEnergy(
     const frame = Float64Array.from(start);
     descent.abandonAbove =
       abandon && best?.converged ? best.energy - ABANDON_MARGIN * c.scale : Infinity;
+    descent.abandonNear = abandon && best?.converged ? best.order : undefined;
     const result = descend(c, frame, descent, ws);
     descents++;
     if (!result.abandoned) {
-      const found = { frame, energy: result.energy, converged: result.converged };
+      const found = {
+        frame,
+        energy: result.energy,
+        converged: result.converged,
+        order: Float64Array.from(ws.order),
+      };
       minima.push(found);
       if (better(found, best)) best = found;
     }
@@ -123,7 +163,7 @@ export function minimiseEnergy(
   (plan.warmStarts ?? []).forEach((start, i) => run(start, i > 0 && (plan.abandonWarm ?? false)));
   if (plan.coldSearch ?? true) {
     const library = seedLibrary(c.nf);
-    for (const index of lowestSeeds(c, library, options.rankedStarts)) {
+    for (const index of lowestSeeds(c, library, options.rankedStarts, options.seedSpread ?? 0)) {
       run(library[index]!.frame, true);
     }
     const random = seededRandom(options.seed);

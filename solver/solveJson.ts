@@ -32,7 +32,7 @@ export function clean(x: number, zero = 1e-12): number {
 }
 
 export function solveResultToJson(r: SolveResult): SolveJson {
-  const zero = 1e-12 * Math.max(1, r.couplings.scale);
+  const zero = 1e-12 * r.couplings.scale;
   const re: number[][] = [];
   const im: number[][] = [];
   for (let i = 0; i < 4; i++) {
