@@ -1,0 +1,411 @@
+import { spawnSync } from 'node:child_process';
+import { existsSync, mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join, resolve } from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { afterAll, beforeAll, describe, expect, test } from 'vitest';
+import { CHANNELS } from '../solver/index';
+
+// The CLI is driven exactly as interfaces.md describes it, through fourfold.mjs in a child process.
+
+const repoRoot = resolve(fileURLToPath(new URL('.', import.meta.url)), '..');
+
+interface Run {
+  status: number | null;
+  stdout: string;
+  stderr: string;
+}
+
+function fourfold(...args: string[]): Run {
+  const result = spawnSync(process.execPath, ['fourfold.mjs', ...args], {
+    cwd: repoRoot,
+    encoding: 'utf8',
+  });
+  return { status: result.status, stdout: result.stdout, stderr: result.stderr };
+}
+
+/** The model file of interfaces.md ("Model file (JSON)"). */
+const INTERFACES_EXAMPLE = {
+  filling: 0,
+  channels: {
+    x0: { hartree: -1.0, fock: -1.0 },
+    y0: { hartree: -1.0, fock: -1.0 },
+    z0: { hartree: 2.0, fock: 2.0 },
+  },
+  zeeman: 0.4,
+  valleyZeeman: 0.0,
+};
+
+/** The plane of interfaces.md (`map`), at 24 x 24. */
+const PLANE_24 = {
+  x: {
+    label: 'u_perp',
+    from: -2,
+    to: 2,
+    targets: { 'x0.fock': 1, 'y0.fock': 1, 'x0.hartree': 1, 'y0.hartree': 1 },
+  },
+  y: { label: 'u_z', from: -2, to: 2, targets: { 'z0.fock': 1, 'z0.hartree': 1 } },
+  resolution: [24, 24],
+};
+
+let dir = '';
+
+function file(name: string, content: unknown): string {
+  const path = join(dir, name);
+  writeFileSync(path, typeof content === 'string' ? content : JSON.stringify(content));
+  return path;
+}
+
+beforeAll(() => {
+  dir = mkdtempSync(join(tmpdir(), 'fourfold-cli-test-'));
+  // The first run bundles the CLI; do it once here so that each test only runs it.
+  fourfold('--help');
+});
+
+afterAll(() => {
+  if (dir !== '') rmSync(dir, { recursive: true, force: true });
+});
+
+/** One line on stderr, "fourfold: ..." naming the problem, no stack trace, non-zero exit. */
+function expectOneLineError(run: Run, mentions: string[]): void {
+  expect(run.status).not.toBe(0);
+  expect(run.status).not.toBeNull();
+  expect(run.stdout).toBe('');
+  expect(run.stderr.endsWith('\n')).toBe(true);
+  const lines = run.stderr.slice(0, -1).split('\n');
+  expect(lines).toHaveLength(1);
+  expect(lines[0]!.startsWith('fourfold:')).toBe(true);
+  expect(run.stderr).not.toContain('    at ');
+  for (const word of mentions) expect(lines[0]).toContain(word);
+}
+
+describe('fourfold CLI: bad input ends in one line naming the problem (interfaces.md)', () => {
+  test('a missing model file', () => {
+    const path = join(dir, 'no-such-model.json');
+    expectOneLineError(fourfold('solve', '--model', path), [path, 'no such file']);
+  });
+
+  test('a directory as the model file', () => {
+    const sub = join(dir, 'a-directory.json');
+    mkdirSync(sub, { recursive: true });
+    expectOneLineError(fourfold('solve', '--model', sub), [sub, 'directory']);
+  });
+
+  test('bad JSON', () => {
+    const path = file('bad.json', '{ "filling": 0, "channels": { "x0": -1, } ');
+    expectOneLineError(fourfold('solve', '--model', path), [path, 'JSON']);
+  });
+
+  test('an unknown channel "qq"', () => {
+    const path = file('qq.json', { ...INTERFACES_EXAMPLE, channels: { qq: 1 } });
+    expectOneLineError(fourfold('solve', '--model', path), ['channels.qq', 'unknown channel']);
+  });
+
+  test('NaN written as a string', () => {
+    const path = file('nan.json', { ...INTERFACES_EXAMPLE, channels: { x0: { fock: 'NaN' } } });
+    expectOneLineError(fourfold('solve', '--model', path), ['channels.x0.fock', 'NaN']);
+  });
+
+  test('filling 3', () => {
+    const path = file('filling.json', { ...INTERFACES_EXAMPLE, filling: 3 });
+    expectOneLineError(fourfold('solve', '--model', path), ['filling', '3']);
+  });
+
+  test('hartree alone', () => {
+    const path = file('hartree.json', { ...INTERFACES_EXAMPLE, channels: { z0: { hartree: 2 } } });
+    expectOneLineError(fourfold('solve', '--model', path), ['channels.z0.fock', 'hartree']);
+  });
+
+  test('a bad model inside an array is named by its index', () => {
+    const path = file('array-bad.json', [INTERFACES_EXAMPLE, { ...INTERFACES_EXAMPLE, zz: 1 }]);
+    expectOneLineError(fourfold('solve', '--model', path), ['[1].zz', 'unknown field']);
+  });
+
+  test('an unknown command', () => {
+    const path = file('good.json', INTERFACES_EXAMPLE);
+    expectOneLineError(fourfold('minimise', '--model', path), ['minimise', 'unknown command']);
+  });
+
+  test('a missing --model', () => {
+    expectOneLineError(fourfold('solve'), ['--model']);
+    expectOneLineError(fourfold('solve', '--model'), ['--model']);
+  });
+
+  test('map without --out', () => {
+    const path = file('map-no-out.json', { ...INTERFACES_EXAMPLE, plane: PLANE_24 });
+    expectOneLineError(fourfold('map', '--model', path), ['--out']);
+  });
+
+  test('map with --out x.txt', () => {
+    const path = file('map-txt.json', { ...INTERFACES_EXAMPLE, plane: PLANE_24 });
+    const out = join(dir, 'x.txt');
+    expectOneLineError(fourfold('map', '--model', path, '--out', out), ['--out', 'x.txt']);
+    expect(existsSync(out)).toBe(false);
+  });
+
+  test('map with a model that has no plane', () => {
+    const path = file('map-no-plane.json', INTERFACES_EXAMPLE);
+    const out = join(dir, 'no-plane.json');
+    expectOneLineError(fourfold('map', '--model', path, '--out', out), ['plane', 'missing']);
+    expect(existsSync(out)).toBe(false);
+  });
+
+  test('map with a bad resolution', () => {
+    for (const [name, resolution, field] of [
+      ['res-1.json', 1, 'plane.resolution'],
+      ['res-frac.json', [24, 2.5], 'plane.resolution[1]'],
+      ['res-big.json', [5000, 24], 'plane.resolution[0]'],
+    ] as const) {
+      const path = file(name, { ...INTERFACES_EXAMPLE, plane: { ...PLANE_24, resolution } });
+      const out = join(dir, `${name}.out.json`);
+      expectOneLineError(fourfold('map', '--model', path, '--out', out), [field]);
+      expect(existsSync(out)).toBe(false);
+    }
+  });
+
+  test('map with a bad target', () => {
+    const plane = { ...PLANE_24, y: { ...PLANE_24.y, targets: { 'z0.direct': 1 } } };
+    const path = file('bad-target.json', { ...INTERFACES_EXAMPLE, plane });
+    expectOneLineError(
+      fourfold('map', '--model', path, '--out', join(dir, 'bad-target.out.json')),
+      ['plane.y.targets.z0.direct'],
+    );
+  });
+});
+
+interface SolveOutput {
+  energy: number;
+  projector: { re: number[][]; im: number[][] };
+  order: Record<string, number>;
+  phase: string;
+  gap: number;
+  modes: number[];
+  goldstone: number;
+}
+
+function solveJson(content: unknown): unknown {
+  const run = fourfold('solve', '--model', file('solve.json', content));
+  expect(run.stderr).toBe('');
+  expect(run.status).toBe(0);
+  return JSON.parse(run.stdout) as unknown;
+}
+
+/** P^2 = P, P = P^dagger, tr P = Nf for the printed projector. */
+function expectProjector({ re, im }: SolveOutput['projector'], nf: number): void {
+  expect(re).toHaveLength(4);
+  expect(im).toHaveLength(4);
+  let trace = 0;
+  for (let r = 0; r < 4; r++) {
+    expect(re[r]).toHaveLength(4);
+    expect(im[r]).toHaveLength(4);
+    trace += re[r]![r]!;
+    for (let c = 0; c < 4; c++) {
+      expect(Math.abs(re[r]![c]! - re[c]![r]!)).toBeLessThan(1e-12);
+      expect(Math.abs(im[r]![c]! + im[c]![r]!)).toBeLessThan(1e-12);
+      let sr = 0;
+      let si = 0;
+      for (let k = 0; k < 4; k++) {
+        sr += re[r]![k]! * re[k]![c]! - im[r]![k]! * im[k]![c]!;
+        si += re[r]![k]! * im[k]![c]! + im[r]![k]! * re[k]![c]!;
+      }
+      expect(Math.abs(sr - re[r]![c]!)).toBeLessThan(1e-12);
+      expect(Math.abs(si - im[r]![c]!)).toBeLessThan(1e-12);
+    }
+  }
+  expect(Math.abs(trace - nf)).toBeLessThan(1e-12);
+}
+
+describe('fourfold solve (interfaces.md)', () => {
+  test('the interfaces.md example is CAF with E = -uZ_F - E_Z^2/(8|uPerp_F|) = -2.02 (model.md section 5, derived)', () => {
+    const result = solveJson(INTERFACES_EXAMPLE) as SolveOutput;
+    expect(Math.abs(result.energy - -2.02)).toBeLessThan(1e-12);
+    expect(result.phase).toBe('CAF');
+    expect(result.goldstone).toBe(1);
+    expect(Object.keys(result.order).sort()).toEqual([...CHANNELS].sort());
+    // cos(theta) = E_Z / (4 |uPerp_F|) = 0.1: total spin 2 cos(theta), in-plane Neel 2 sin(theta).
+    expect(result.order['0z']).toBeCloseTo(0.2, 12);
+    expect(Math.hypot(result.order.zx!, result.order.zy!)).toBeCloseTo(2 * Math.sqrt(0.99), 12);
+    for (const name of CHANNELS) {
+      if (!['0z', 'zx', 'zy'].includes(name))
+        expect(Math.abs(result.order[name]!)).toBeLessThan(1e-9);
+    }
+    expectProjector(result.projector, 2);
+    // One omega >= 0 per pair for the 2 Nf (4 - Nf) = 8 real tangent directions, ascending.
+    expect(result.modes).toHaveLength(4);
+    result.modes.forEach((w, k) => {
+      expect(w).toBeGreaterThanOrEqual(0);
+      if (k > 0) expect(w).toBeGreaterThanOrEqual(result.modes[k - 1]!);
+    });
+    expect(result.modes[0]).toBeLessThan(1e-6 * 2);
+    expect(result.gap).toBeGreaterThan(0);
+  });
+
+  test('an array of two models gives an array of two results in the same order', () => {
+    // E_Z = 5 > 4 |uPerp_F| puts the second model in F: E = -2 uPerp_F - uZ_F - E_Z = -5
+    // (model.md section 5, derived).
+    const ferromagnet = { ...INTERFACES_EXAMPLE, zeeman: 5 };
+    const results = solveJson([ferromagnet, INTERFACES_EXAMPLE]) as SolveOutput[];
+    expect(Array.isArray(results)).toBe(true);
+    expect(results).toHaveLength(2);
+    expect(results.map((r) => r.phase)).toEqual(['F', 'CAF']);
+    expect(Math.abs(results[0]!.energy - -5)).toBeLessThan(1e-12);
+    expect(Math.abs(results[1]!.energy - -2.02)).toBeLessThan(1e-12);
+    expect(results[0]!.order['0z']).toBeCloseTo(2, 12);
+    for (const r of results) expectProjector(r.projector, 2);
+  });
+
+  test('energies in another unit (the example times 1e-22, e.g. joules): every energy scales by 1e-22', () => {
+    // interfaces.md: "All energies in one unit of the user's choice". Energy, gap and modes are
+    // all energies, so each must scale with the unit.
+    const s = 1e-22;
+    const scaled = {
+      filling: 0,
+      channels: { x0: -1 * s, y0: -1 * s, z0: 2 * s },
+      zeeman: 0.4 * s,
+      valleyZeeman: 0,
+    };
+    const reference = solveJson(INTERFACES_EXAMPLE) as SolveOutput;
+    const result = solveJson(scaled) as SolveOutput;
+    expect(result.phase).toBe('CAF');
+    expect(result.goldstone).toBe(1);
+    expect(Math.abs(result.energy / s - reference.energy)).toBeLessThan(1e-12);
+    expect(Math.abs(result.gap / s - reference.gap)).toBeLessThan(1e-9);
+    result.modes.forEach((w, k) =>
+      expect(Math.abs(w / s - reference.modes[k]!)).toBeLessThan(1e-6),
+    );
+  });
+});
+
+/** A small check that every start tag has its end tag in order; returns the element names met. */
+function balancedTags(xml: string): string[] {
+  const stack: string[] = [];
+  const names: string[] = [];
+  const body = xml.replace(/<!--[\s\S]*?-->/g, '').replace(/<\?[\s\S]*?\?>/g, '');
+  for (const match of body.matchAll(/<(\/?)([A-Za-z][\w:-]*)((?:\s+[\w:-]+="[^"]*")*)\s*(\/?)>/g)) {
+    const [, closing, name, , selfClosing] = match;
+    if (closing) {
+      expect(stack.pop()).toBe(name);
+    } else {
+      names.push(name!);
+      if (!selfClosing) stack.push(name!);
+    }
+  }
+  expect(stack).toEqual([]);
+  // Every '<' opens a tag the pattern recognises, so the balance check skipped nothing.
+  expect([...body.matchAll(/<\/?[A-Za-z][\w:-]*(?:\s+[\w:-]+="[^"]*")*\s*\/?>/g)].length).toBe(
+    body.split('<').length - 1,
+  );
+  // No bare ampersands outside entities.
+  expect(body.replace(/&(?:amp|lt|gt|quot|apos|#\d+|#x[\da-fA-F]+);/g, '')).not.toContain('&');
+  return names;
+}
+
+describe('fourfold map on the interfaces.md plane at 24 x 24 (E_Z = 0.4)', () => {
+  const mapModel = { filling: 0, zeeman: 0.4, valleyZeeman: 0, plane: PLANE_24 };
+
+  function runMap(name: string): string {
+    const out = join(dir, name);
+    const run = fourfold('map', '--model', file(`${name}.model.json`, mapModel), '--out', out);
+    expect(run.stderr).toBe('');
+    expect(run.status).toBe(0);
+    return readFileSync(out, 'utf8');
+  }
+
+  test('.json holds x, y, phase, energy and boundaries of the stated shapes', () => {
+    const map = JSON.parse(runMap('map.json')) as {
+      x: number[];
+      y: number[];
+      phase: string[][];
+      energy: number[][];
+      boundaries: { between: [string, string]; order: string; points: [number, number][] }[];
+    };
+    const centres = Array.from({ length: 24 }, (_, i) => -2 + ((i + 0.5) * 4) / 24);
+    expect(map.x).toHaveLength(24);
+    expect(map.y).toHaveLength(24);
+    map.x.forEach((v, i) => expect(v).toBeCloseTo(centres[i]!, 12));
+    map.y.forEach((v, j) => expect(v).toBeCloseTo(centres[j]!, 12));
+    expect(map.phase).toHaveLength(24);
+    expect(map.energy).toHaveLength(24);
+    for (let j = 0; j < 24; j++) {
+      expect(map.phase[j]).toHaveLength(24);
+      expect(map.energy[j]).toHaveLength(24);
+      map.phase[j]!.forEach((label) => expect(label).toMatch(/^[A-Za-z0-9+]+$/));
+      map.energy[j]!.forEach((e) => expect(Number.isFinite(e)).toBe(true));
+    }
+    // phase[j][i] sits at (x[i], y[j]). Closed forms of model.md section 5 (derived), at points
+    // away from the boundaries of model.md section 10 (Phys. Rev. B 85, 155439 (2012)):
+    const at = (i: number, j: number) => ({ phase: map.phase[j]![i]!, energy: map.energy[j]![i]! });
+    // (uPerp, uZ) = (-13/12, 23/12): CAF, E = -uZ - E_Z^2 / (8 |uPerp|).
+    expect(at(5, 23).phase).toBe('CAF');
+    expect(at(5, 23).energy).toBeCloseTo(-23 / 12 - 0.16 / ((8 * 13) / 12), 12);
+    // (13/12, 23/12): F, E = -2 uPerp - uZ - E_Z.
+    expect(at(18, 23).phase).toBe('F');
+    expect(at(18, 23).energy).toBeCloseTo(-26 / 12 - 23 / 12 - 0.4, 12);
+    // (-23/12, 1/12): KD, E = 2 uPerp - uPerp = uPerp.
+    expect(at(0, 12).phase).toBe('KD');
+    expect(at(0, 12).energy).toBeCloseTo(-23 / 12, 12);
+    // (1/12, -23/12): CDW, E = 2 uZ - uZ = uZ.
+    expect(at(12, 0).phase).toBe('CDW');
+    expect(at(12, 0).energy).toBeCloseTo(-23 / 12, 12);
+
+    const labels = new Set(map.phase.flat());
+    expect(map.boundaries.length).toBeGreaterThan(0);
+    for (const b of map.boundaries) {
+      expect(b.between).toHaveLength(2);
+      expect(b.between[0]).not.toBe(b.between[1]);
+      b.between.forEach((label) => expect(labels.has(label)).toBe(true));
+      expect(['first', 'continuous']).toContain(b.order);
+      expect(b.points.length).toBeGreaterThanOrEqual(2);
+      for (const [x, y] of b.points) {
+        expect(x).toBeGreaterThanOrEqual(-2);
+        expect(x).toBeLessThanOrEqual(2);
+        expect(y).toBeGreaterThanOrEqual(-2);
+        expect(y).toBeLessThanOrEqual(2);
+      }
+    }
+    // F/CAF is continuous (model.md section 5, derived); CAF/KD is first order (Phys. Rev. B 85,
+    // 155439 (2012), recalled from memory).
+    const pairs = (a: string, b: string) =>
+      map.boundaries.filter((x) => [...x.between].sort().join('|') === [a, b].sort().join('|'));
+    expect(pairs('CAF', 'F').length).toBeGreaterThan(0);
+    pairs('CAF', 'F').forEach((b) => expect(b.order).toBe('continuous'));
+    expect(pairs('CAF', 'KD').length).toBeGreaterThan(0);
+    pairs('CAF', 'KD').forEach((b) => expect(b.order).toBe('first'));
+    // F/CAF sits at E_Z = 4 |uPerp|, i.e. uPerp = -0.1, located more finely than the 1/6 grid step.
+    for (const b of pairs('CAF', 'F')) {
+      for (const [x] of b.points) expect(Math.abs(x - -0.1)).toBeLessThan(1e-3);
+    }
+  });
+
+  test('.csv holds a header and 24 * 24 data rows of 20 fields', () => {
+    const lines = runMap('map.csv').trimEnd().split('\n');
+    const table = lines.filter((line) => !line.startsWith('#'));
+    expect(table[0]!.split(',')).toEqual(['u_perp', 'u_z', 'phase', 'energy', 'gap', ...CHANNELS]);
+    const rows = table.slice(1);
+    expect(rows).toHaveLength(24 * 24);
+    for (const row of rows) {
+      const fields = row.split(',');
+      expect(fields).toHaveLength(20);
+      [0, 1, 3, 4, ...CHANNELS.map((_, k) => 5 + k)].forEach((f) =>
+        expect(Number.isFinite(Number(fields[f]))).toBe(true),
+      );
+    }
+    // Row-major with x fastest: the second row is (x[1], y[0]).
+    const second = rows[1]!.split(',');
+    expect(Number(second[0])).toBeCloseTo(-2 + 1.5 / 6, 12);
+    expect(Number(second[1])).toBeCloseTo(-2 + 0.5 / 6, 12);
+  });
+
+  test('.svg is one balanced <svg> element', () => {
+    const svg = runMap('map.svg').trim();
+    expect(svg.startsWith('<svg')).toBe(true);
+    expect(svg.endsWith('</svg>')).toBe(true);
+    expect(svg).toContain('xmlns="http://www.w3.org/2000/svg"');
+    const names = balancedTags(svg);
+    expect(names[0]).toBe('svg');
+    expect(names.filter((n) => n === 'svg')).toHaveLength(1);
+    expect(names.filter((n) => n === 'rect').length).toBeGreaterThan(0);
+    // The labels of the map appear in the figure.
+    for (const label of ['CAF', 'F', 'KD', 'CDW']) expect(svg).toContain(`>${label}<`);
+  });
+});
