@@ -66,7 +66,7 @@ export class DescentWorkspace {
   readonly hamiltonian = new Float64Array(32);
   readonly hu = new Float64Array(32);
   readonly m = new Float64Array(32);
-  readonly gu = new Float64Array(32);
+  readonly outer = new Float64Array(128);
   readonly w = new Float64Array(8);
   readonly gradient = new Float64Array(8);
   readonly hessian = new Float64Array(64);
@@ -106,7 +106,7 @@ export function tangentModel(c: Couplings, frame: Float64Array, ws: DescentWorks
   const nf = c.nf;
   const ne = 4 - nf;
   const d = 2 * nf * ne;
-  const { hamiltonian: h, hu, m, gu, w, gradient: g, hessian: k } = ws;
+  const { hamiltonian: h, hu, m, w, gradient: g, hessian: k } = ws;
   hartreeFockOfOrder(c, ws.order, h);
   for (let v = 0; v < 4; v++) {
     for (let r = 0; r < 4; r++) {
@@ -150,37 +150,44 @@ export function tangentModel(c: Couplings, frame: Float64Array, ws: DescentWorks
     }
   }
   k.fill(0, 0, d * d);
+  // Outer products conj(u_a[r]) u_i[c] for every (empty a, occupied i) pair: then
+  // gamma^k_ai = sum_r g^k_r conj(u_a[r]) u_i[col^k_r] costs four products per channel.
+  const outer = ws.outer;
+  for (let a = 0; a < ne; a++) {
+    const oa = 8 * (nf + a);
+    for (let i = 0; i < nf; i++) {
+      const base = 32 * (a * nf + i);
+      for (let r = 0; r < 4; r++) {
+        const ar = frame[oa + 2 * r]!;
+        const ai = frame[oa + 2 * r + 1]!;
+        for (let col = 0; col < 4; col++) {
+          const br = frame[8 * i + 2 * col]!;
+          const bi = frame[8 * i + 2 * col + 1]!;
+          outer[base + 8 * r + 2 * col] = ar * br + ai * bi;
+          outer[base + 8 * r + 2 * col + 1] = ar * bi - ai * br;
+        }
+      }
+    }
+  }
+  const pairs = nf * ne;
   for (let ch = 1; ch < MATRIX_COUNT; ch++) {
     const kappa = c.kappa[ch]!;
     if (kappa === 0) continue;
-    for (let i = 0; i < nf; i++) {
+    for (let pair = 0; pair < pairs; pair++) {
+      const base = 32 * pair;
+      let sr = 0;
+      let si = 0;
       for (let r = 0; r < 4; r++) {
-        const col = G_COL[4 * ch + r]!;
         const gr = G_RE[4 * ch + r]!;
         const gi = G_IM[4 * ch + r]!;
-        const ur = frame[8 * i + 2 * col]!;
-        const ui = frame[8 * i + 2 * col + 1]!;
-        gu[8 * i + 2 * r] = gr * ur - gi * ui;
-        gu[8 * i + 2 * r + 1] = gr * ui + gi * ur;
+        const idx = base + 8 * r + 2 * G_COL[4 * ch + r]!;
+        const orr = outer[idx]!;
+        const oi = outer[idx + 1]!;
+        sr += gr * orr - gi * oi;
+        si += gr * oi + gi * orr;
       }
-    }
-    for (let a = 0; a < ne; a++) {
-      const oa = 8 * (nf + a);
-      for (let i = 0; i < nf; i++) {
-        let sr = 0;
-        let si = 0;
-        for (let r = 0; r < 8; r += 2) {
-          const ur = frame[oa + r]!;
-          const ui = frame[oa + r + 1]!;
-          const vr = gu[8 * i + r]!;
-          const vi = gu[8 * i + r + 1]!;
-          sr += ur * vr + ui * vi;
-          si += ur * vi - ui * vr;
-        }
-        const idx = 2 * (a * nf + i);
-        w[idx] = 2 * sr;
-        w[idx + 1] = 2 * si;
-      }
+      w[2 * pair] = 2 * sr;
+      w[2 * pair + 1] = 2 * si;
     }
     for (let p = 0; p < d; p++) {
       const wp = kappa * w[p]!;

@@ -1,6 +1,8 @@
 import { type Couplings } from './couplings';
 import { hermitianEigen4 } from './linalg';
-import { minimiseEnergy, DEFAULT_MINIMISE } from './minimise';
+import { DEFAULT_DESCENT, DescentWorkspace, descend } from './localMinimise';
+import { ABANDON_MARGIN, DEFAULT_MINIMISE, minimiseEnergy } from './minimise';
+import { presentGroupCount } from './orderParameters';
 import { ORDER_TOLERANCE, phaseLabel } from './phaseLabel';
 import { axisValue, PlaneCouplings, type MapInput } from './plane';
 import { hartreeFockOfOrder, orderOfProjector, projectorOf } from './state';
@@ -18,9 +20,9 @@ import { modelSymmetry } from './symmetry';
  *    parameters jump) or continuous.
  */
 
-/** Coarse node spacing: about 48 nodes along the longer side, at least every 2nd pixel. */
+/** Coarse node spacing: about 32 nodes along the longer side, at least every 2nd pixel. */
 export function coarseStride(nx: number, ny: number): number {
-  return Math.max(2, Math.ceil(Math.max(nx, ny) / 48));
+  return Math.max(2, Math.ceil(Math.max(nx, ny) / 32));
 }
 
 /** Pixel indices of coarse nodes along one side: 0, s, 2s, ... and n - 1. */
@@ -51,6 +53,7 @@ export function solveCoarseNodes(input: MapInput, first: number, count: number):
   const [nx, ny] = input.plane.resolution;
   const planeCouplings = new PlaneCouplings(input);
   const frames = new Float64Array(32 * count);
+  const ws = new DescentWorkspace();
   for (let n = 0; n < count; n++) {
     const node = first + n;
     const a = node % cols.length;
@@ -59,7 +62,10 @@ export function solveCoarseNodes(input: MapInput, first: number, count: number):
       axisValue(input.plane.x, nx, cols[a]!),
       axisValue(input.plane.y, ny, rows[b]!),
     );
-    frames.set(minimiseEnergy(c, DEFAULT_MINIMISE).frame, 32 * n);
+    // Polished to the last bit: pixels start from these frames and finish in fewer steps.
+    const frame = minimiseEnergy(c, DEFAULT_MINIMISE).frame;
+    descend(c, frame, DEFAULT_DESCENT, ws);
+    frames.set(frame, 32 * n);
   }
   return frames;
 }
@@ -104,32 +110,43 @@ function interval(line: Int32Array, i: number): number {
   return a;
 }
 
-/** Candidate warm starts for pixel (i, j): corner nodes, nearest first, one per phase. */
-function cornerCandidates(coarse: CoarseNodes, i: number, j: number): Float64Array[] {
+/**
+ * Candidate warm starts for pixel (i, j): the corner nodes, nearest first, one per phase.
+ * Writes node indices into `out` and returns how many.
+ */
+function cornerCandidates(coarse: CoarseNodes, i: number, j: number, out: Int32Array): number {
   const a = interval(coarse.cols, i);
   const b = interval(coarse.rows, j);
-  const corners: { node: number; d: number }[] = [];
-  for (const [da, db] of [
-    [0, 0],
-    [1, 0],
-    [0, 1],
-    [1, 1],
-  ] as const) {
-    const ci = coarse.cols[a + da]!;
-    const cj = coarse.rows[b + db]!;
-    corners.push({
-      node: (b + db) * coarse.cols.length + a + da,
-      d: (ci - i) ** 2 + (cj - j) ** 2,
-    });
+  const width = coarse.cols.length;
+  let count = 0;
+  // Corners ordered by distance (ties by node index): at most four, sorted by insertion.
+  const nodes = [0, 0, 0, 0];
+  const distances = [0, 0, 0, 0];
+  for (let corner = 0; corner < 4; corner++) {
+    const da = corner & 1;
+    const db = corner >> 1;
+    const node = (b + db) * width + a + da;
+    const d = (coarse.cols[a + da]! - i) ** 2 + (coarse.rows[b + db]! - j) ** 2;
+    let slot = corner;
+    while (
+      slot > 0 &&
+      (distances[slot - 1]! > d || (distances[slot - 1] === d && nodes[slot - 1]! > node))
+    ) {
+      nodes[slot] = nodes[slot - 1]!;
+      distances[slot] = distances[slot - 1]!;
+      slot--;
+    }
+    nodes[slot] = node;
+    distances[slot] = d;
   }
-  corners.sort((x, y) => x.d - y.d || x.node - y.node);
   // The nearest node of each distinct phase: one start inside a region, one per side of a
   // boundary that crosses the coarse cell.
-  const chosen: number[] = [];
-  for (const { node } of corners) {
-    if (!chosen.some((other) => coarse.labels[other] === coarse.labels[node])) chosen.push(node);
+  for (const node of nodes) {
+    let seen = false;
+    for (let k = 0; k < count; k++) if (coarse.labels[out[k]!] === coarse.labels[node]) seen = true;
+    if (!seen) out[count++] = node;
   }
-  return chosen.map((node) => coarse.frames.subarray(32 * node, 32 * node + 32));
+  return count;
 }
 
 /** Stage 2 for a block of pixels. */
@@ -152,19 +169,49 @@ export function solvePixels(
     labels: [],
   };
   const scratch = new PixelScratch();
+  const ws = new DescentWorkspace();
+  const candidates = new Int32Array(4);
+  const trial = new Float64Array(32);
+  const best = new Float64Array(32);
+  const bestOrder = new Float64Array(16);
+  const options = { ...DEFAULT_DESCENT, polishSteps: 0 };
   for (let n = 0; n < count; n++) {
     const pixel = start + n;
     const i = pixel % nx;
     const j = Math.floor(pixel / nx);
     const c = planeCouplings.at(axisValue(input.plane.x, nx, i), axisValue(input.plane.y, ny, j));
-    const result = minimiseEnergy(c, DEFAULT_MINIMISE, {
-      warmStarts: cornerCandidates(coarse, i, j),
-      coldSearch: false,
-      abandonWarm: true,
-      gradientTolerance: 1e-12,
-    });
-    block.frames.set(result.frame, 32 * n);
-    const summary = summarise(c, result.frame, nf, scratch);
+    // Descend from each candidate; later ones stop once they cannot beat the best.
+    const m = cornerCandidates(coarse, i, j, candidates);
+    let bestEnergy = Infinity;
+    let bestConverged = false;
+    for (let k = 0; k < m; k++) {
+      const offset = 32 * candidates[k]!;
+      for (let q = 0; q < 32; q++) trial[q] = coarse.frames[offset + q]!;
+      const guard = k > 0 && bestConverged;
+      options.abandonAbove = guard ? bestEnergy - ABANDON_MARGIN * c.scale : Infinity;
+      options.abandonNear = guard ? bestOrder : undefined;
+      const r = descend(c, trial, options, ws);
+      if (r.abandoned) continue;
+      // Among states degenerate to rounding (on lines of extra symmetry) keep the simplest.
+      const tie =
+        r.converged === bestConverged &&
+        Math.abs(r.energy - bestEnergy) <= 1e-12 * c.scale &&
+        presentGroupCount(ws.order, ORDER_TOLERANCE) <
+          presentGroupCount(bestOrder, ORDER_TOLERANCE);
+      if (
+        k === 0 ||
+        (r.converged && !bestConverged) ||
+        (r.converged === bestConverged && r.energy < bestEnergy - 1e-12 * c.scale) ||
+        tie
+      ) {
+        best.set(trial);
+        bestOrder.set(ws.order);
+        bestEnergy = r.energy;
+        bestConverged = r.converged;
+      }
+    }
+    block.frames.set(best, 32 * n);
+    const summary = summarise(c, best, nf, scratch);
     block.energy[n] = summary.energy;
     block.gap[n] = summary.gap;
     block.order.set(scratch.order.subarray(1, 16), 15 * n);
@@ -256,6 +303,14 @@ export function locateCrossings(
   const p = new Float64Array(32);
   const orderNear = new Float64Array(16);
   const orderFar = new Float64Array(16);
+  const ws = new DescentWorkspace();
+  const branchNear = new Float64Array(32);
+  const branchFar = new Float64Array(32);
+  const orderA = new Float64Array(16);
+  // Branches are continued without leaving saddles (a branch that has become a saddle is not
+  // the ground state), converged tightly and polished so that soft modes near a continuous
+  // transition do not blur the labels.
+  const branch = { ...DEFAULT_DESCENT, escapeSaddles: false, polishSteps: 1 };
   for (let e = 0; e < edges.length; e++) {
     const edge = edges[e]!;
     const pixel = edge >> 1;
@@ -266,35 +321,42 @@ export function locateCrossings(
     const y0 = axisValue(input.plane.y, ny, j);
     const x1 = vertical ? x0 : axisValue(input.plane.x, nx, i + 1);
     const y1 = vertical ? axisValue(input.plane.y, ny, j + 1) : y0;
-    const steps = Math.ceil(Math.log2(1 / (BISECTION_TOLERANCE * (vertical ? ny : nx))));
-    let lo = 0;
-    let hi = 1;
+    const tolerance = BISECTION_TOLERANCE * (vertical ? ny : nx);
     const near = endLabels[2 * e]!;
     const far = endLabels[2 * e + 1]!;
+    let lo = 0;
+    let hi = 1;
     let frameNear: Float64Array = endFrames.slice(64 * e, 64 * e + 32);
     let frameFar: Float64Array = endFrames.slice(64 * e + 32, 64 * e + 64);
-    for (let step = 0; step < steps; step++) {
-      const t = (lo + hi) / 2;
+    // Energy difference of the two branches (near minus far) at the bracket ends, when both
+    // are distinct local minima there: a first-order transition is its root.
+    let gapLo: number | undefined;
+    let gapHi: number | undefined;
+    const probe = (t: number): void => {
       const c = planeCouplings.at(x0 + t * (x1 - x0), y0 + t * (y1 - y0));
-      // Continue both branches without leaving saddles: a branch that has become a saddle is
-      // not the ground state; only if both have, search properly.
-      // Tight convergence and a polishing step keep soft modes near a continuous transition
-      // from blurring the labels.
-      const tight = { gradientTolerance: 1e-12, polishSteps: 1 };
-      let result = minimiseEnergy(c, DEFAULT_MINIMISE, {
-        warmStarts: [frameNear, frameFar],
-        coldSearch: false,
-        escapeSaddles: false,
-        ...tight,
-      });
-      if (!result.converged) {
-        result = minimiseEnergy(c, DEFAULT_MINIMISE, {
+      branchNear.set(frameNear);
+      branchFar.set(frameFar);
+      const a = descend(c, branchNear, branch, ws);
+      orderA.set(ws.order);
+      const b = descend(c, branchFar, branch, ws);
+      let frame: Float64Array;
+      let difference: number | undefined;
+      if (a.converged && b.converged) {
+        let distance = 0;
+        for (let k = 1; k < 16; k++)
+          distance = Math.max(distance, Math.abs(orderA[k]! - ws.order[k]!));
+        if (distance > FIRST_ORDER_JUMP) difference = a.energy - b.energy;
+        frame = a.energy <= b.energy ? branchNear : branchFar;
+      } else if (a.converged) frame = branchNear;
+      else if (b.converged) frame = branchFar;
+      else {
+        frame = minimiseEnergy(c, DEFAULT_MINIMISE, {
           warmStarts: [frameNear, frameFar],
-          ...tight,
-        });
+          gradientTolerance: 1e-12,
+          polishSteps: 1,
+        }).frame;
       }
-      projectorOf(result.frame, nf, p);
-      orderOfProjector(p, orderNear);
+      orderOfProjector(projectorOf(frame, nf, p), orderNear);
       let label = phaseLabel(orderNear, c, modelSymmetry(c));
       if (label !== near && label !== far) {
         // Within rounding of a line where the two end states are degenerate (for H = F,
@@ -305,10 +367,29 @@ export function locateCrossings(
       }
       if (label === near) {
         lo = t;
-        frameNear = result.frame;
+        frameNear = Float64Array.from(frame);
+        gapLo = difference !== undefined && difference < 0 ? difference : undefined;
       } else {
         hi = t;
-        frameFar = result.frame;
+        frameFar = Float64Array.from(frame);
+        gapHi = difference !== undefined && difference > 0 ? difference : undefined;
+      }
+    };
+    for (let guard = 0; hi - lo > tolerance && guard < 200; guard++) {
+      if (gapLo !== undefined && gapHi !== undefined) {
+        // Regula falsi on the branch energy difference, then two probes just either side of
+        // the estimate to close the bracket; fall back to bisection if it did not halve.
+        const width = hi - lo;
+        const estimate = lo + (width * gapLo) / (gapLo - gapHi);
+        const margin = 0.01 * tolerance;
+        probe(Math.min(hi - margin, Math.max(lo + margin, estimate - 0.4 * tolerance)));
+        if (hi - lo > tolerance) {
+          const second = Math.min(hi - margin, Math.max(lo + margin, estimate + 0.4 * tolerance));
+          if (second > lo && second < hi) probe(second);
+        }
+        if (hi - lo > width / 2) probe((lo + hi) / 2);
+      } else {
+        probe((lo + hi) / 2);
       }
     }
     orderOfProjector(projectorOf(frameNear, nf, p), orderNear);

@@ -19,9 +19,14 @@ export interface MinimiseOptions {
   readonly seedSpread?: number;
 }
 
+/**
+ * Six ranked library seeds (which include 64 Haar-random frames): on 6000 seeded generic models
+ * (all channels, H != F, nu = -1, 0, +1) no miss against 48 random starts polished by Newton;
+ * four seeds missed 5 of them, by up to 1.2 percent of the coupling scale.
+ */
 export const DEFAULT_MINIMISE: MinimiseOptions = {
-  rankedStarts: 4,
-  randomStarts: 1,
+  rankedStarts: 6,
+  randomStarts: 0,
   seed: 1,
   seedSpread: 0,
 };
@@ -84,22 +89,53 @@ function lowestSeeds(
   const n = library.length;
   for (let i = 0; i < n; i++) seedEnergies[i] = energyOfOrder(c, library[i]!.order);
   const chosen: number[] = [];
+  const signatures = new Map<number, string>();
   const near = (i: number, j: number): boolean => {
     const a = library[i]!.order;
     const b = library[j]!.order;
     for (let k = 1; k < 16; k++) if (Math.abs(a[k]! - b[k]!) > spread) return false;
     return true;
   };
+  const signature = (i: number): string => {
+    let s = signatures.get(i);
+    if (s === undefined) {
+      s = channelTerms(c, library[i]!.order);
+      signatures.set(i, s);
+    }
+    return s;
+  };
+  // Seeds with equal energy and the same multiset of per-channel energy terms are images of
+  // each other under a symmetry of the model (a permutation of channels with equal couplings):
+  // descending from both would find equivalent minima, so only the first is kept.
+  const copy = (i: number, j: number): boolean =>
+    Math.abs(seedEnergies[i]! - seedEnergies[j]!) <= 1e-9 * c.scale &&
+    signature(i) === signature(j);
+  const skipped = new Uint8Array(n);
   for (let pick = 0; pick < Math.min(count, n); pick++) {
     let best = -1;
     for (let i = 0; i < n; i++) {
-      if (chosen.includes(i) || chosen.some((j) => near(i, j))) continue;
+      if (skipped[i] === 1 || chosen.includes(i)) continue;
       if (best < 0 || seedEnergies[i]! < seedEnergies[best]!) best = i;
     }
     if (best < 0) break;
+    if (chosen.some((j) => copy(best, j) || (spread > 0 && near(best, j)))) {
+      skipped[best] = 1;
+      pick--;
+      continue;
+    }
     chosen.push(best);
   }
   return chosen;
+}
+
+/** Sorted per-channel energy terms eta_k o_k + kappa_k o_k^2 / 2, rounded, as a key. */
+function channelTerms(c: Couplings, order: Float64Array): string {
+  const terms: number[] = [];
+  for (let k = 1; k < 16; k++) {
+    const o = order[k]!;
+    terms.push(Math.round((c.eta[k]! * o + 0.5 * c.kappa[k]! * o * o) / (1e-9 * c.scale)));
+  }
+  return terms.sort((a, b) => a - b).join(',');
 }
 
 /** How to search: warm starts, cold library search, early abandonment, saddle escapes. */
@@ -163,8 +199,27 @@ export function minimiseEnergy(
   (plan.warmStarts ?? []).forEach((start, i) => run(start, i > 0 && (plan.abandonWarm ?? false)));
   if (plan.coldSearch ?? true) {
     const library = seedLibrary(c.nf);
+    let bestSeed: Seed | undefined;
     for (const index of lowestSeeds(c, library, options.rankedStarts, options.seedSpread ?? 0)) {
+      const before = best;
       run(library[index]!.frame, true);
+      if (best !== before) bestSeed = library[index];
+    }
+    // Where the winning seed's exact symmetric state is itself a minimum of the same energy
+    // (on lines of extra degeneracy, such as uZ = uPerp for H = F), report that state rather
+    // than the point of the flat family where the nudged descent happened to stop.
+    const exact = bestSeed?.exact;
+    if (exact !== undefined && best?.converged) {
+      const frame = Float64Array.from(exact);
+      descent.escapeSaddles = false;
+      descent.abandonAbove = Infinity;
+      descent.abandonNear = undefined;
+      const snap = descend(c, frame, descent, ws);
+      descent.escapeSaddles = plan.escapeSaddles ?? true;
+      if (snap.converged && snap.energy <= best.energy + 1e-10 * c.scale) {
+        best = { frame, energy: snap.energy, converged: true, order: Float64Array.from(ws.order) };
+        minima.push(best);
+      }
     }
     const random = seededRandom(options.seed);
     for (let i = 0; i < options.randomStarts; i++) run(randomFrame(random), true);

@@ -85,3 +85,17 @@ export function orderAngles(
   const bondPhase = bond > tol ? Math.atan2(order[8]!, order[4]!) : NaN;
   return { canting, bondPhase };
 }
+
+/**
+ * Number of order-parameter groups above `tol`: a measure of how mixed a state is, used to
+ * prefer the simplest state among exactly degenerate ones.
+ */
+export function presentGroupCount(order: ArrayLike<number>, tol: number): number {
+  let count = 0;
+  for (const indices of GROUP_INDICES) {
+    let sum = 0;
+    for (const k of indices) sum += order[k]! * order[k]!;
+    if (sum > tol * tol) count++;
+  }
+  return count;
+}

@@ -57,6 +57,34 @@ export function phaseLabel(
   c: Couplings,
   symmetry: ModelSymmetry,
 ): string {
+  if (c.nf % 2 === 1) return composeLabel(order, c, symmetry);
+  // At even filling the label depends only on which groups are present, which are induced and
+  // whether spin is isotropic: memoise on those bits (the Map calls this once per pixel).
+  let key = symmetry.spinIsotropic ? 1 << 16 : 0;
+  for (let g = 0; g < GROUP_INDICES.length; g++) {
+    let sum = 0;
+    let field = false;
+    for (const k of GROUP_INDICES[g]!) {
+      sum += order[k]! * order[k]!;
+      if (c.eta[k] !== 0) field = true;
+    }
+    if (sum > ORDER_TOLERANCE * ORDER_TOLERANCE) key |= 1 << g;
+    if (field) key |= 1 << (8 + g);
+  }
+  if (c.eta[3] !== 0 && c.eta[12] !== 0) key |= 1 << (8 + NEEL_ALONG_FIELD);
+  let label = labelMemo.get(key);
+  if (label === undefined) {
+    label = composeLabel(order, c, symmetry);
+    labelMemo.set(key, label);
+  }
+  return label;
+}
+
+const GROUP_INDICES = ORDER_GROUPS.map((g) => g.channels.map(channelSlot));
+const NEEL_ALONG_FIELD = ORDER_GROUPS.findIndex((g) => g.key === 'neelAlongField');
+const labelMemo = new Map<number, string>();
+
+function composeLabel(order: ArrayLike<number>, c: Couplings, symmetry: ModelSymmetry): string {
   const induced = inducedGroups(c);
   if (c.nf % 2 === 1) {
     const product = productStateLabel(order, c.nf, induced, symmetry);

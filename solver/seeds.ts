@@ -16,8 +16,12 @@ import { orderOfProjector, projectorOf } from './state';
  * - Random states: Haar-random frames from a fixed seed.
  */
 export interface Seed {
+  /** Frame to descend from (structured seeds nudged off their symmetric point). */
   readonly frame: Float64Array;
+  /** Order parameters of the un-nudged state: used to rank seeds and to spot symmetric copies. */
   readonly order: Float64Array;
+  /** The un-nudged frame of a structured seed (its exact symmetric state). */
+  readonly exact?: Float64Array;
   readonly kind: 'stabiliser' | 'canted' | 'random';
 }
 
@@ -181,7 +185,7 @@ export function seedLibrary(nf: number): readonly Seed[] {
       for (let p = 0; p < 8; p++) step[p] = NUDGE * gaussian(random);
       const frame = new Float64Array(32);
       retract(nf, seed.frame, step, frame, scratch);
-      return seedOf(frame, nf, seed.kind);
+      return { frame, order: seed.order, kind: seed.kind, exact: seed.frame };
     });
     library = nudged;
     libraries.set(nf, library);
@@ -192,7 +196,7 @@ export function seedLibrary(nf: number): readonly Seed[] {
 function dedupe(seeds: Seed[]): Seed[] {
   const seen = new Set<string>();
   return seeds.filter((s) => {
-    const key = Array.from(s.order, (x) => x.toFixed(6)).join(',');
+    const key = Array.from(s.order, (x) => Math.round(x * 1e6) + 0).join(',');
     if (seen.has(key)) return false;
     seen.add(key);
     return true;
