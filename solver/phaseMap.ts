@@ -65,7 +65,7 @@ export async function computePhaseMap(
   const { cols, rows } = coarseLayout(input);
   const nodeCount = cols.length * rows.length;
   const coarseChunks = await Promise.all(
-    split(nodeCount, parts * 2).map(([first, count]) => stages.coarse(input, first, count)),
+    split(nodeCount, parts * 8).map(([first, count]) => stages.coarse(input, first, count)),
   );
   const frames = new Float64Array(32 * nodeCount);
   let offset = 0;
@@ -76,7 +76,7 @@ export async function computePhaseMap(
   const coarse = coarseNodes(input, frames);
   const total = nx * ny;
   const blocks = await Promise.all(
-    split(total, parts * 4).map(([start, count]) => stages.pixels(input, coarse, start, count)),
+    split(total, parts * 16).map(([start, count]) => stages.pixels(input, coarse, start, count)),
   );
   const energy = new Float64Array(total);
   const order = new Float64Array(15 * total);
@@ -91,7 +91,7 @@ export async function computePhaseMap(
     for (let n = 0; n < b.count; n++) labels[b.start + n] = b.labels[n]!;
   }
   const edges = boundaryEdges(labels, nx, ny);
-  const edgeChunks = split(edges.length, parts * 4).map(([start, count]) => {
+  const edgeChunks = split(edges.length, parts * 16).map(([start, count]) => {
     const ids = edges.slice(start, start + count);
     const endFrames = new Float64Array(64 * count);
     const endLabels: string[] = [];
