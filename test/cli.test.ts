@@ -4,7 +4,8 @@ import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
-import { CHANNELS } from '../solver/index';
+import { INTERFACES_EXAMPLE, standardPlane } from './fixtures';
+import { CHANNELS, type SolveJson } from '../solver/index';
 
 // The CLI is driven exactly as interfaces.md describes it, through fourfold.mjs in a child process.
 
@@ -24,29 +25,8 @@ function fourfold(...args: string[]): Run {
   return { status: result.status, stdout: result.stdout, stderr: result.stderr };
 }
 
-/** The model file of interfaces.md ("Model file (JSON)"). */
-const INTERFACES_EXAMPLE = {
-  filling: 0,
-  channels: {
-    x0: { hartree: -1.0, fock: -1.0 },
-    y0: { hartree: -1.0, fock: -1.0 },
-    z0: { hartree: 2.0, fock: 2.0 },
-  },
-  zeeman: 0.4,
-  valleyZeeman: 0.0,
-};
-
 /** The plane of interfaces.md (`map`), at 24 x 24. */
-const PLANE_24 = {
-  x: {
-    label: 'u_perp',
-    from: -2,
-    to: 2,
-    targets: { 'x0.fock': 1, 'y0.fock': 1, 'x0.hartree': 1, 'y0.hartree': 1 },
-  },
-  y: { label: 'u_z', from: -2, to: 2, targets: { 'z0.fock': 1, 'z0.hartree': 1 } },
-  resolution: [24, 24],
-};
+const PLANE_24 = standardPlane(24, 24);
 
 let dir = '';
 
@@ -173,15 +153,11 @@ describe('fourfold CLI: bad input ends in one line naming the problem (interface
   });
 });
 
-interface SolveOutput {
-  energy: number;
-  projector: { re: number[][]; im: number[][] };
-  order: Record<string, number>;
-  phase: string;
-  gap: number;
-  modes: number[];
-  goldstone: number;
-}
+/** The documented fields of a `solve` result (interfaces.md), as the solver types them. */
+type SolveOutput = Pick<
+  SolveJson,
+  'energy' | 'projector' | 'order' | 'phase' | 'gap' | 'modes' | 'goldstone'
+>;
 
 function solveJson(content: unknown): unknown {
   const run = fourfold('solve', '--model', file('solve.json', content));

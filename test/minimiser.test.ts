@@ -1,4 +1,5 @@
 import { describe, expect, test } from 'vitest';
+import { genericModel } from './fixtures';
 import {
   CHANNELS,
   DEFAULT_DESCENT,
@@ -19,18 +20,6 @@ import {
   type Model,
   type RandomSource,
 } from '../solver/index';
-
-/** A generic model: all 15 channels, Hartree and Fock drawn independently (H != F). */
-function genericModel(random: RandomSource, filling: -1 | 0 | 1): Model {
-  const channels: Record<string, { hartree: number; fock: number }> = {};
-  for (const ch of CHANNELS) channels[ch] = { hartree: 2 * random() - 1, fock: 2 * random() - 1 };
-  return parseModel({
-    filling,
-    channels,
-    zeeman: 0.6 * random(),
-    valleyZeeman: 0.6 * random() - 0.3,
-  });
-}
 
 /** Brute force: the best of `starts` Haar-random projectors, each polished by local descent. */
 function bruteForce(c: Couplings, starts: number, random: RandomSource): number {

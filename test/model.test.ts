@@ -1,4 +1,5 @@
 import { describe, expect, test } from 'vitest';
+import { INTERFACES_EXAMPLE, standardPlane } from './fixtures';
 import {
   CHANNELS,
   ModelError,
@@ -15,29 +16,8 @@ import {
   type RandomSource,
 } from '../solver/index';
 
-/** The model file of interfaces.md ("Model file (JSON)"). */
-const INTERFACES_EXAMPLE = {
-  filling: 0,
-  channels: {
-    x0: { hartree: -1.0, fock: -1.0 },
-    y0: { hartree: -1.0, fock: -1.0 },
-    z0: { hartree: 2.0, fock: 2.0 },
-  },
-  zeeman: 0.4,
-  valleyZeeman: 0.0,
-};
-
 /** The plane of interfaces.md (`map`), at a small resolution. */
-const INTERFACES_PLANE = {
-  x: {
-    label: 'u_perp',
-    from: -2,
-    to: 2,
-    targets: { 'x0.fock': 1, 'y0.fock': 1, 'x0.hartree': 1, 'y0.hartree': 1 },
-  },
-  y: { label: 'u_z', from: -2, to: 2, targets: { 'z0.fock': 1, 'z0.hartree': 1 } },
-  resolution: [24, 16],
-};
+const INTERFACES_PLANE = standardPlane(24, 16);
 
 /** The ModelError message thrown by `run`; fails the test when nothing or something else is thrown. */
 function errorOf(run: () => unknown): string {

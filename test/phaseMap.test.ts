@@ -4,12 +4,13 @@ import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { describe, expect, test } from 'vitest';
+import { standardPlane } from './fixtures';
 import { computePhaseMap, localStages, parseMapInput, type PhaseMap } from '../solver/index';
 
 const repoRoot = resolve(fileURLToPath(new URL('.', import.meta.url)), '..');
 
 /** Standard model (H = F) on the (uPerp, uZ) plane of interfaces.md. */
-function standardPlane(
+function standardPlaneModel(
   zeeman: number,
   n: number,
   xRange: [number, number],
@@ -20,21 +21,7 @@ function standardPlane(
     channels: {},
     zeeman,
     valleyZeeman: 0,
-    plane: {
-      x: {
-        label: 'u_perp',
-        from: xRange[0],
-        to: xRange[1],
-        targets: { 'x0.fock': 1, 'y0.fock': 1, 'x0.hartree': 1, 'y0.hartree': 1 },
-      },
-      y: {
-        label: 'u_z',
-        from: yRange[0],
-        to: yRange[1],
-        targets: { 'z0.fock': 1, 'z0.hartree': 1 },
-      },
-      resolution: [n, n],
-    },
+    plane: standardPlane(n, n, xRange, yRange),
   };
 }
 
@@ -71,7 +58,9 @@ describe('Map of the standard model', () => {
       // states exactly degenerate (a valley-rotation family).
       const xRange: [number, number] = [-2, 2.03];
       const yRange: [number, number] = [-1.98, 2.01];
-      const map = await computePhaseMap(parseMapInput(standardPlane(zeeman, 80, xRange, yRange)));
+      const map = await computePhaseMap(
+        parseMapInput(standardPlaneModel(zeeman, 80, xRange, yRange)),
+      );
       const span = Math.max(xRange[1] - xRange[0], yRange[1] - yRange[0]);
       // Near the point where all four regions meet, (-E_Z/4, -E_Z/4), pixel edges may also see
       // F next to KD: the closed forms say nothing about those crossings.
@@ -96,7 +85,7 @@ describe('Map of the standard model', () => {
   }
 
   test('labels at points whose phase is known in closed form (model.md section 5)', async () => {
-    const map = await computePhaseMap(parseMapInput(standardPlane(0.4, 40, [-2, 2], [-2, 2])));
+    const map = await computePhaseMap(parseMapInput(standardPlaneModel(0.4, 40, [-2, 2], [-2, 2])));
     const at = (u: number, z: number): string => {
       const i = Math.floor(((u + 2) / 4) * 40);
       const j = Math.floor(((z + 2) / 4) * 40);
@@ -109,7 +98,7 @@ describe('Map of the standard model', () => {
   });
 
   test('deterministic bit for bit, whatever the split of the work', async () => {
-    const input = parseMapInput(standardPlane(0.3, 30, [-2, 2.03], [-1.98, 2.01]));
+    const input = parseMapInput(standardPlaneModel(0.3, 30, [-2, 2.03], [-1.98, 2.01]));
     const one = await computePhaseMap(input, localStages, 1);
     const many = await computePhaseMap(input, localStages, 5);
     const same = (a: PhaseMap, b: PhaseMap) => {
@@ -124,7 +113,10 @@ describe('Map of the standard model', () => {
   test('the CLI gives the same file with 1 and 2 worker threads', () => {
     const dir = mkdtempSync(join(tmpdir(), 'fourfold-'));
     const modelFile = join(dir, 'model.json');
-    writeFileSync(modelFile, JSON.stringify(standardPlane(0.3, 24, [-2, 2.03], [-1.98, 2.01])));
+    writeFileSync(
+      modelFile,
+      JSON.stringify(standardPlaneModel(0.3, 24, [-2, 2.03], [-1.98, 2.01])),
+    );
     const outputs = [1, 2].map((threads) => {
       const out = join(dir, `map${threads}.json`);
       const run = spawnSync(

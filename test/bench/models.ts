@@ -1,4 +1,5 @@
 import { CHANNELS, parseModel, seededRandom, type Filling, type Model } from '../../solver/index';
+import { standardPlane } from '../fixtures';
 
 /** A model document as the CLI reads it (interfaces.md). */
 export type ModelDocument = Record<string, unknown>;
@@ -77,17 +78,5 @@ export function standardModels(): ModelPair[] {
 
 /** The standard model with the plane of interfaces.md at the given resolution. */
 export function standardMapDocument(resolution: number): ModelDocument {
-  return {
-    ...standardDocument(-1, 2),
-    plane: {
-      x: {
-        label: 'u_perp',
-        from: -2,
-        to: 2,
-        targets: { 'x0.fock': 1, 'y0.fock': 1, 'x0.hartree': 1, 'y0.hartree': 1 },
-      },
-      y: { label: 'u_z', from: -2, to: 2, targets: { 'z0.fock': 1, 'z0.hartree': 1 } },
-      resolution: [resolution, resolution],
-    },
-  };
+  return { ...standardDocument(-1, 2), plane: standardPlane(resolution, resolution) };
 }

@@ -1,0 +1,59 @@
+import { CHANNELS, parseModel, type Model, type RandomSource } from '../solver/index';
+
+/** Shared test inputs (not a test file itself: vitest runs `*.test.ts` only). */
+
+/** The model file of interfaces.md ("Model file (JSON)"). */
+export const INTERFACES_EXAMPLE = {
+  filling: 0,
+  channels: {
+    x0: { hartree: -1.0, fock: -1.0 },
+    y0: { hartree: -1.0, fock: -1.0 },
+    z0: { hartree: 2.0, fock: 2.0 },
+  },
+  zeeman: 0.4,
+  valleyZeeman: 0.0,
+};
+
+/**
+ * The (uPerp, uZ) plane of interfaces.md (`map`) for the standard model (H = F), with its ranges
+ * and resolution free.
+ */
+export function standardPlane(
+  nx: number,
+  ny: number,
+  xRange: readonly [number, number] = [-2, 2],
+  yRange: readonly [number, number] = [-2, 2],
+) {
+  return {
+    x: {
+      label: 'u_perp',
+      from: xRange[0],
+      to: xRange[1],
+      targets: { 'x0.fock': 1, 'y0.fock': 1, 'x0.hartree': 1, 'y0.hartree': 1 },
+    },
+    y: {
+      label: 'u_z',
+      from: yRange[0],
+      to: yRange[1],
+      targets: { 'z0.fock': 1, 'z0.hartree': 1 },
+    },
+    resolution: [nx, ny] as [number, number],
+  };
+}
+
+/** A generic model: all 15 channels, Hartree and Fock drawn independently in [-1, 1]. */
+export function genericModel(
+  random: RandomSource,
+  filling: -1 | 0 | 1,
+  zeemanMax = 0.6,
+  valleyZeemanMax = 0.3,
+): Model {
+  const channels: Record<string, { hartree: number; fock: number }> = {};
+  for (const ch of CHANNELS) channels[ch] = { hartree: 2 * random() - 1, fock: 2 * random() - 1 };
+  return parseModel({
+    filling,
+    channels,
+    zeeman: zeemanMax * random(),
+    valleyZeeman: valleyZeemanMax * (2 * random() - 1),
+  });
+}
