@@ -75,6 +75,7 @@ function workspace(): DescentWorkspace {
 }
 
 const seedEnergies = new Float64Array(512);
+const scratchFrame = new Float64Array(32);
 
 /** Indices of the `count` library seeds of lowest energy, lowest first (ties by index). */
 function lowestSeeds(c: Couplings, library: readonly Seed[], count: number): number[] {
@@ -132,15 +133,15 @@ export function minimiseEnergy(
     (a.converged && !b.converged) ||
     (a.converged === b.converged && a.energy < b.energy);
   const run = (start: Float64Array, abandon: boolean): DescentResult => {
-    const frame = Float64Array.from(start);
+    scratchFrame.set(start);
     descent.abandonAbove =
       abandon && best?.converged ? best.energy - ABANDON_MARGIN * c.scale : Infinity;
     descent.abandonNear = abandon && best?.converged ? best.order : undefined;
-    const result = descend(c, frame, descent, ws);
+    const result = descend(c, scratchFrame, descent, ws);
     descents++;
     if (!result.abandoned) {
       const found = {
-        frame,
+        frame: Float64Array.from(scratchFrame),
         energy: result.energy,
         converged: result.converged,
         order: Float64Array.from(ws.order),
