@@ -36,7 +36,7 @@ export function mapFigureSvg(map: PhaseMap, title = ''): string {
   const top = title ? 40 : 20;
   const legendWidth = 220;
   const width = left + plot + 20 + legendWidth;
-  const height = top + plot + 90;
+  const height = top + plot + 100;
   const sx = (v: number) => left + ((v - ax.from) / (ax.to - ax.from)) * plot;
   const sy = (v: number) => top + plot - ((v - ay.from) / (ay.to - ay.from)) * plot;
   const cw = plot / nx;
@@ -134,7 +134,20 @@ export function mapFigureSvg(map: PhaseMap, title = ''): string {
   parts.push(
     `<text x="${left + plot + 20}" y="${ly + 14}" font-size="10">solid: first order; dashed: continuous</text>`,
   );
-  parts.push(`<text x="10" y="${height - 12}" font-size="9">${esc(MEAN_FIELD_CAUTION)}</text>`);
+  // The caution, wrapped to the figure width (about 6 px per character at 10 px).
+  const lines: string[] = [];
+  let line = '';
+  for (const word of MEAN_FIELD_CAUTION.split(' ')) {
+    if ((line + ' ' + word).length * 5 > width - 20 && line !== '') {
+      lines.push(line);
+      line = word;
+    } else line = line === '' ? word : `${line} ${word}`;
+  }
+  lines.push(line);
+  lines.forEach((text, n) => {
+    const y = height - 12 - 12 * (lines.length - 1 - n);
+    parts.push(`<text x="10" y="${y}" font-size="9">${esc(text)}</text>`);
+  });
   parts.push('</svg>');
   return parts.join('\n') + '\n';
 }
