@@ -184,6 +184,20 @@ describe('global minimiser', () => {
     expect(worst).toBeLessThanOrEqual(1e-10);
   });
 
+  test('with strong fields (E_Z up to 3, |Delta_V| up to 1) on 300 generic models at nu = 0 it is never above the best of 64 polished random projectors', () => {
+    // Strong one-body terms favour canted states that no symmetric seed sits near: with four
+    // ranked seeds instead of six, this family showed misses of up to 7 percent of the scale.
+    const random = seededRandom(777);
+    let worst = -Infinity;
+    for (let n = 0; n < 300; n++) {
+      const model = genericModel(random, 0, 3, 1);
+      const c = couplingsOf(model);
+      const reference = bruteForce(c, 64, seededRandom(70000 + n));
+      worst = Math.max(worst, (solve(model).energy - reference) / c.scale);
+    }
+    expect(worst).toBeLessThanOrEqual(1e-10);
+  });
+
   test('returned states are projectors of rank Nf, self-consistent, and pass the swap test of a global minimum', () => {
     const random = seededRandom(7);
     let aufbauChecked = 0;
