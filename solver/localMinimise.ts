@@ -279,8 +279,11 @@ export function descend(
   let gmax = Infinity;
   let lastRatio = 0;
   let polished = 0;
+  // After a rejected step the frame is unchanged, and so are its gradient and Hessian.
+  let fresh = false;
   for (let iteration = 0; iteration < options.maxIterations; iteration++) {
-    tangentModel(c, frame, ws);
+    if (!fresh) tangentModel(c, frame, ws);
+    fresh = true;
     gmax = 0;
     for (let p = 0; p < d; p++) gmax = Math.max(gmax, Math.abs(g[p]!));
     if (gmax <= tolerance) {
@@ -312,6 +315,7 @@ export function descend(
           };
         }
         escapes++;
+        fresh = false;
         energy = frameEnergy(c, frame, ws, ws.order);
         lambda = 1e-3 * scale;
         lastRatio = 0;
@@ -378,6 +382,7 @@ export function descend(
       decrease >= 1e-4 * predicted || (predicted <= roundoff && -decrease <= roundoff);
     if (accepted) {
       frame.set(ws.trial);
+      fresh = false;
       ws.order.set(ws.trialOrder);
       energy = trialEnergy;
       // Below rounding the measured decrease is noise: trust the quadratic model there.
