@@ -1,4 +1,4 @@
-import type { Crossing } from './mapTiling';
+import type { Crossing } from './crossings';
 
 /** A boundary polyline between two labelled regions (interfaces.md `map` output). */
 export interface Boundary {

@@ -1,6 +1,6 @@
 import type { Couplings } from './couplings';
 import { symmetricEigen } from './linalg';
-import { DescentWorkspace, frameEnergy, tangentDimension, tangentModel } from './localMinimise';
+import { DescentWorkspace, frameEnergy, tangentDimension, tangentModel } from './tangentSpace';
 
 /** q = 0 collective modes of a stationary state (model.md section 8). */
 export interface CollectiveModes {

@@ -1,7 +1,8 @@
 import { couplingsOf, type Couplings } from './couplings';
 import { collectiveModes, type CollectiveModes } from './collectiveModes';
 import { hermitianEigen4 } from './linalg';
-import { DEFAULT_DESCENT, DescentWorkspace, descend } from './localMinimise';
+import { DEFAULT_DESCENT, descend } from './localMinimise';
+import { DescentWorkspace } from './tangentSpace';
 import { DEFAULT_MINIMISE, minimiseEnergy, type MinimiseOptions } from './minimise';
 import type { Model } from './model';
 import { canonicaliseOrbit } from './orbitGauge';

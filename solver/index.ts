@@ -20,15 +20,8 @@ export { hermitianEigen4, symmetricEigen } from './linalg';
 export { seededRandom, type RandomSource } from './random';
 export { randomFrame } from './seeds';
 export { orderOfProjector, projectorOf, hartreeFockOfOrder } from './state';
-export {
-  DEFAULT_DESCENT,
-  DescentWorkspace,
-  descend,
-  frameEnergy,
-  tangentDimension,
-  type DescentOptions,
-  type DescentResult,
-} from './localMinimise';
+export { DEFAULT_DESCENT, descend, type DescentOptions, type DescentResult } from './localMinimise';
+export { DescentWorkspace, frameEnergy, tangentDimension, tangentModel } from './tangentSpace';
 export {
   DEFAULT_MINIMISE,
   minimiseEnergy,
@@ -62,19 +55,15 @@ export {
   type MapInput,
   type Plane,
 } from './plane';
+export { coarseLayout, coarseNodes, solveCoarseNodes, type CoarseNodes } from './coarseNodes';
+export { solvePixels, type PixelBlock } from './pixelBlock';
 export {
   BISECTION_TOLERANCE,
   FIRST_ORDER_JUMP,
   boundaryEdges,
-  coarseLayout,
-  coarseNodes,
   locateCrossings,
-  solveCoarseNodes,
-  solvePixels,
-  type CoarseNodes,
   type Crossing,
-  type PixelBlock,
-} from './mapTiling';
+} from './crossings';
 export { joinBoundaries, type Boundary } from './boundaries';
 export { computePhaseMap, localStages, type MapStages, type PhaseMap } from './phaseMap';
 export { legendOf, mapToCsv, mapToJson } from './mapExport';

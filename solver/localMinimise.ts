@@ -1,23 +1,17 @@
-import { G_COL, G_IM, G_RE, MATRIX_COUNT } from './channels';
-import { energyOfOrder, type Couplings } from './couplings';
-import { choleskySolve, completeFrame, orthonormaliseFrame, symmetricEigen } from './linalg';
-import { hartreeFockOfOrder, orderOfProjector, projectorOf } from './state';
+import type { Couplings } from './couplings';
+import { choleskySolve, symmetricEigen } from './linalg';
+import {
+  DescentWorkspace,
+  frameEnergy,
+  retract,
+  tangentDimension,
+  tangentModel,
+} from './tangentSpace';
 
 /**
  * Riemannian Newton descent with a Levenberg-Marquardt trust region on the Grassmannian
  * Gr(Nf, 4) (Absil, Mahony and Sepulchre, Optimization Algorithms on Matrix Manifolds, Princeton
- * University Press (2008), chapters 6 and 7).
- *
- * Tangent coordinates at a frame U: a complex (4 - Nf) x Nf block Z moves occupied vector i to
- * u_i + sum_a Z_ai u_(Nf+a), then the frame is re-orthonormalised (a second-order retraction is
- * not needed for Newton's quadratic convergence). Real coordinates are ordered
- * (Re Z_ai, Im Z_ai) with index 2 (a Nf + i).
- *
- * With M = U^dagger H_HF U and gamma^k_ai = u_a^dagger G_k u_i (derived here from section 4):
- *   gradient  g = (2 Re M_ai, 2 Im M_ai),
- *   Hessian   K_kl = 2 Re[conj(alpha) beta (delta_ij M_ab - delta_ab M_ji)] + sum_k kappa_k w^k_k w^k_l,
- *   with w^k = (2 Re gamma^k_ai, 2 Im gamma^k_ai) and alpha, beta = 1 or i for the real or
- *   imaginary part of each coordinate.
+ * University Press (2008), chapters 6 and 7), in the tangent coordinates of `tangentSpace.ts`.
  */
 
 export interface DescentOptions {
@@ -57,197 +51,6 @@ export interface DescentResult {
   /** The gradient reached the tolerance and the Hessian is positive semidefinite. */
   converged: boolean;
   abandoned: boolean;
-}
-
-/** Scratch arrays for one descent; reuse one per thread to avoid allocation in hot loops. */
-export class DescentWorkspace {
-  readonly projector = new Float64Array(32);
-  readonly order = new Float64Array(MATRIX_COUNT);
-  readonly hamiltonian = new Float64Array(32);
-  readonly hu = new Float64Array(32);
-  readonly m = new Float64Array(32);
-  readonly outer = new Float64Array(128);
-  readonly w = new Float64Array(8);
-  readonly gradient = new Float64Array(8);
-  readonly hessian = new Float64Array(64);
-  readonly step = new Float64Array(8);
-  readonly rhs = new Float64Array(8);
-  readonly chol = new Float64Array(64);
-  readonly eigValues = new Float64Array(8);
-  readonly eigVectors = new Float64Array(64);
-  readonly eigScratch = new Float64Array(64);
-  readonly trial = new Float64Array(32);
-  readonly trialOrder = new Float64Array(MATRIX_COUNT);
-  readonly scratch = new Float64Array(8);
-}
-
-/** Real dimension of Gr(nf, 4). */
-export function tangentDimension(nf: number): number {
-  return 2 * nf * (4 - nf);
-}
-
-/** Energy of a frame; fills ws.projector and the given order array. */
-export function frameEnergy(
-  c: Couplings,
-  frame: Float64Array,
-  ws: DescentWorkspace,
-  order: Float64Array,
-): number {
-  projectorOf(frame, c.nf, ws.projector);
-  orderOfProjector(ws.projector, order);
-  return energyOfOrder(c, order);
-}
-
-/**
- * Gradient and Hessian in tangent coordinates at `frame` (ws.gradient, ws.hessian), given its
- * order parameters in ws.order. Also leaves M = U^dagger H_HF U in ws.m.
- */
-export function tangentModel(c: Couplings, frame: Float64Array, ws: DescentWorkspace): void {
-  const nf = c.nf;
-  const ne = 4 - nf;
-  const d = 2 * nf * ne;
-  const { hamiltonian: h, hu, m, w, gradient: g, hessian: k } = ws;
-  hartreeFockOfOrder(c, ws.order, h);
-  for (let v = 0; v < 4; v++) {
-    for (let r = 0; r < 4; r++) {
-      let sr = 0;
-      let si = 0;
-      for (let col = 0; col < 4; col++) {
-        const hr = h[2 * (4 * r + col)]!;
-        const hi = h[2 * (4 * r + col) + 1]!;
-        const ur = frame[8 * v + 2 * col]!;
-        const ui = frame[8 * v + 2 * col + 1]!;
-        sr += hr * ur - hi * ui;
-        si += hr * ui + hi * ur;
-      }
-      hu[8 * v + 2 * r] = sr;
-      hu[8 * v + 2 * r + 1] = si;
-    }
-  }
-  // m[2 (4 a + b)] = u_a^dagger H u_b
-  for (let a = 0; a < 4; a++) {
-    for (let b = 0; b < 4; b++) {
-      let sr = 0;
-      let si = 0;
-      for (let r = 0; r < 8; r += 2) {
-        const ur = frame[8 * a + r]!;
-        const ui = frame[8 * a + r + 1]!;
-        const vr = hu[8 * b + r]!;
-        const vi = hu[8 * b + r + 1]!;
-        sr += ur * vr + ui * vi;
-        si += ur * vi - ui * vr;
-      }
-      m[2 * (4 * a + b)] = sr;
-      m[2 * (4 * a + b) + 1] = si;
-    }
-  }
-  for (let a = 0; a < ne; a++) {
-    for (let i = 0; i < nf; i++) {
-      const idx = 2 * (a * nf + i);
-      const mi = 2 * (4 * (nf + a) + i);
-      g[idx] = 2 * m[mi]!;
-      g[idx + 1] = 2 * m[mi + 1]!;
-    }
-  }
-  k.fill(0, 0, d * d);
-  // Outer products conj(u_a[r]) u_i[c] for every (empty a, occupied i) pair: then
-  // gamma^k_ai = sum_r g^k_r conj(u_a[r]) u_i[col^k_r] costs four products per channel.
-  const outer = ws.outer;
-  for (let a = 0; a < ne; a++) {
-    const oa = 8 * (nf + a);
-    for (let i = 0; i < nf; i++) {
-      const base = 32 * (a * nf + i);
-      for (let r = 0; r < 4; r++) {
-        const ar = frame[oa + 2 * r]!;
-        const ai = frame[oa + 2 * r + 1]!;
-        for (let col = 0; col < 4; col++) {
-          const br = frame[8 * i + 2 * col]!;
-          const bi = frame[8 * i + 2 * col + 1]!;
-          outer[base + 8 * r + 2 * col] = ar * br + ai * bi;
-          outer[base + 8 * r + 2 * col + 1] = ar * bi - ai * br;
-        }
-      }
-    }
-  }
-  const pairs = nf * ne;
-  for (let ch = 1; ch < MATRIX_COUNT; ch++) {
-    const kappa = c.kappa[ch]!;
-    if (kappa === 0) continue;
-    for (let pair = 0; pair < pairs; pair++) {
-      const base = 32 * pair;
-      let sr = 0;
-      let si = 0;
-      for (let r = 0; r < 4; r++) {
-        const gr = G_RE[4 * ch + r]!;
-        const gi = G_IM[4 * ch + r]!;
-        const idx = base + 8 * r + 2 * G_COL[4 * ch + r]!;
-        const orr = outer[idx]!;
-        const oi = outer[idx + 1]!;
-        sr += gr * orr - gi * oi;
-        si += gr * oi + gi * orr;
-      }
-      w[2 * pair] = 2 * sr;
-      w[2 * pair + 1] = 2 * si;
-    }
-    for (let p = 0; p < d; p++) {
-      const wp = kappa * w[p]!;
-      for (let q = p; q < d; q++) k[p * d + q] = k[p * d + q]! + wp * w[q]!;
-    }
-  }
-  for (let a = 0; a < ne; a++) {
-    for (let i = 0; i < nf; i++) {
-      for (let b = 0; b < ne; b++) {
-        for (let j = 0; j < nf; j++) {
-          let xr = 0;
-          let xi = 0;
-          if (i === j) {
-            xr += m[2 * (4 * (nf + a) + nf + b)]!;
-            xi += m[2 * (4 * (nf + a) + nf + b) + 1]!;
-          }
-          if (a === b) {
-            xr -= m[2 * (4 * j + i)]!;
-            xi -= m[2 * (4 * j + i) + 1]!;
-          }
-          const p = 2 * (a * nf + i);
-          const q = 2 * (b * nf + j);
-          if (q >= p) {
-            k[p * d + q] = k[p * d + q]! + 2 * xr;
-            k[(p + 1) * d + q + 1] = k[(p + 1) * d + q + 1]! + 2 * xr;
-            k[p * d + q + 1] = k[p * d + q + 1]! - 2 * xi;
-            if (q > p) k[(p + 1) * d + q] = k[(p + 1) * d + q]! + 2 * xi;
-          }
-        }
-      }
-    }
-  }
-  for (let p = 0; p < d; p++) for (let q = 0; q < p; q++) k[p * d + q] = k[q * d + p]!;
-}
-
-/** Moves `frame` along tangent coordinates `z` into `out` (orthonormalised, completed). */
-export function retract(
-  nf: number,
-  frame: Float64Array,
-  z: Float64Array,
-  out: Float64Array,
-  scratch: Float64Array,
-): void {
-  out.set(frame);
-  const ne = 4 - nf;
-  for (let i = 0; i < nf; i++) {
-    for (let a = 0; a < ne; a++) {
-      const zr = z[2 * (a * nf + i)]!;
-      const zi = z[2 * (a * nf + i) + 1]!;
-      const oa = 8 * (nf + a);
-      for (let r = 0; r < 8; r += 2) {
-        const ur = frame[oa + r]!;
-        const ui = frame[oa + r + 1]!;
-        out[8 * i + r] = out[8 * i + r]! + zr * ur - zi * ui;
-        out[8 * i + r + 1] = out[8 * i + r + 1]! + zr * ui + zi * ur;
-      }
-    }
-  }
-  orthonormaliseFrame(out, nf);
-  completeFrame(out, nf, scratch);
 }
 
 const MAX_STEP = 1;

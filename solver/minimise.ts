@@ -1,5 +1,6 @@
 import { energyOfOrder, type Couplings } from './couplings';
-import { DEFAULT_DESCENT, DescentWorkspace, descend, type DescentResult } from './localMinimise';
+import { DEFAULT_DESCENT, descend, type DescentResult } from './localMinimise';
+import { DescentWorkspace } from './tangentSpace';
 import { seededRandom } from './random';
 import { randomFrame, seedLibrary, type Seed } from './seeds';
 

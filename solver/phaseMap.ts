@@ -1,15 +1,7 @@
 import { joinBoundaries, type Boundary } from './boundaries';
-import {
-  boundaryEdges,
-  coarseLayout,
-  coarseNodes,
-  locateCrossings,
-  solveCoarseNodes,
-  solvePixels,
-  type CoarseNodes,
-  type Crossing,
-  type PixelBlock,
-} from './mapTiling';
+import { coarseLayout, coarseNodes, solveCoarseNodes, type CoarseNodes } from './coarseNodes';
+import { boundaryEdges, locateCrossings, type Crossing } from './crossings';
+import { solvePixels, type PixelBlock } from './pixelBlock';
 import { axisValue, type MapInput } from './plane';
 
 /** A computed Map: grids are flat row-major arrays, `values[j nx + i]` at (x[i], y[j]). */

@@ -1,6 +1,6 @@
 import { COMMUTATION_SIGN, MATRIX_COUNT, denseMatrix, productIndex } from './channels';
 import { hermitianEigen4, orthonormaliseFrame } from './linalg';
-import { retract } from './localMinimise';
+import { retract } from './tangentSpace';
 import { gaussian, seededRandom, type RandomSource } from './random';
 import { orderOfProjector, projectorOf } from './state';
 

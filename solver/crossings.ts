@@ -1,0 +1,175 @@
+import { DEFAULT_DESCENT, descend } from './localMinimise';
+import { DescentWorkspace } from './tangentSpace';
+import { DEFAULT_MINIMISE, minimiseEnergy } from './minimise';
+import { phaseLabel } from './phaseLabel';
+import { axisValue, PlaneCouplings, type MapInput } from './plane';
+import { orderOfProjector, projectorOf } from './state';
+import { modelSymmetry } from './symmetry';
+
+/** A located transition on one pixel edge. */
+export interface Crossing {
+  /** Edge id: 2 p for the edge from pixel p to p + 1, 2 p + 1 from p to p + nx. */
+  readonly edge: number;
+  readonly x: number;
+  readonly y: number;
+  /** Labels on the near (p) and far side of the crossing. */
+  readonly near: string;
+  readonly far: string;
+  readonly order: 'first' | 'continuous';
+}
+
+/** Order-parameter jump above which a transition counts as first order. */
+export const FIRST_ORDER_JUMP = 1e-2;
+
+/** Relative bracket width (of the axis span) at which bisection stops. */
+export const BISECTION_TOLERANCE = 1e-9;
+
+/**
+ * Stage 3: locate the transitions on the given edges. `endFrames` holds, per edge, the frames of
+ * its near and far pixel (64 numbers); `endLabels` their labels.
+ */
+export function locateCrossings(
+  input: MapInput,
+  edges: Int32Array,
+  endFrames: Float64Array,
+  endLabels: readonly string[],
+): Crossing[] {
+  const [nx, ny] = input.plane.resolution;
+  const nf = input.model.filling + 2;
+  const planeCouplings = new PlaneCouplings(input);
+  const out: Crossing[] = [];
+  const p = new Float64Array(32);
+  const orderNear = new Float64Array(16);
+  const orderFar = new Float64Array(16);
+  const ws = new DescentWorkspace();
+  const branchNear = new Float64Array(32);
+  const branchFar = new Float64Array(32);
+  const orderA = new Float64Array(16);
+  // Branches are continued without leaving saddles (a branch that has become a saddle is not
+  // the ground state), converged tightly and polished so that soft modes near a continuous
+  // transition do not blur the labels.
+  const branch = { ...DEFAULT_DESCENT, escapeSaddles: false, polishSteps: 1 };
+  for (let e = 0; e < edges.length; e++) {
+    const edge = edges[e]!;
+    const pixel = edge >> 1;
+    const vertical = (edge & 1) === 1;
+    const i = pixel % nx;
+    const j = Math.floor(pixel / nx);
+    const x0 = axisValue(input.plane.x, nx, i);
+    const y0 = axisValue(input.plane.y, ny, j);
+    const x1 = vertical ? x0 : axisValue(input.plane.x, nx, i + 1);
+    const y1 = vertical ? axisValue(input.plane.y, ny, j + 1) : y0;
+    const tolerance = BISECTION_TOLERANCE * (vertical ? ny : nx);
+    const near = endLabels[2 * e]!;
+    const far = endLabels[2 * e + 1]!;
+    let lo = 0;
+    let hi = 1;
+    let frameNear: Float64Array = endFrames.slice(64 * e, 64 * e + 32);
+    let frameFar: Float64Array = endFrames.slice(64 * e + 32, 64 * e + 64);
+    // Energy difference of the two branches (near minus far) at the bracket ends, when both
+    // are distinct local minima there: a first-order transition is its root.
+    let gapLo: number | undefined;
+    let gapHi: number | undefined;
+    const probe = (t: number): void => {
+      const c = planeCouplings.at(x0 + t * (x1 - x0), y0 + t * (y1 - y0));
+      branchNear.set(frameNear);
+      branchFar.set(frameFar);
+      const a = descend(c, branchNear, branch, ws);
+      orderA.set(ws.order);
+      const b = descend(c, branchFar, branch, ws);
+      let frame: Float64Array;
+      let difference: number | undefined;
+      if (a.converged && b.converged) {
+        let distance = 0;
+        for (let k = 1; k < 16; k++)
+          distance = Math.max(distance, Math.abs(orderA[k]! - ws.order[k]!));
+        if (distance > FIRST_ORDER_JUMP) difference = a.energy - b.energy;
+        frame = a.energy <= b.energy ? branchNear : branchFar;
+      } else if (a.converged) frame = branchNear;
+      else if (b.converged) frame = branchFar;
+      else {
+        frame = minimiseEnergy(c, DEFAULT_MINIMISE, {
+          warmStarts: [frameNear, frameFar],
+          gradientTolerance: 1e-12,
+          polishSteps: 1,
+        }).frame;
+      }
+      orderOfProjector(projectorOf(frame, nf, p), orderNear);
+      let label = phaseLabel(orderNear, c, modelSymmetry(c));
+      if (label !== near && label !== far) {
+        // Within rounding of a line where the two end states are degenerate (for H = F,
+        // uZ = uPerp joins KD and CDW by a valley rotation) a descent may stop part-way along
+        // the flat direction: the state belongs to the end it is closer to. (A genuine third
+        // phase narrower than one pixel edge is not resolved.)
+        label = closerEnd(orderNear, frameNear, frameFar, nf) ? near : far;
+      }
+      if (label === near) {
+        lo = t;
+        frameNear = Float64Array.from(frame);
+        gapLo = difference !== undefined && difference < 0 ? difference : undefined;
+      } else {
+        hi = t;
+        frameFar = Float64Array.from(frame);
+        gapHi = difference !== undefined && difference > 0 ? difference : undefined;
+      }
+    };
+    for (let guard = 0; hi - lo > tolerance && guard < 200; guard++) {
+      if (gapLo !== undefined && gapHi !== undefined) {
+        // Regula falsi on the branch energy difference, then two probes just either side of
+        // the estimate to close the bracket; fall back to bisection if it did not halve.
+        const width = hi - lo;
+        const estimate = lo + (width * gapLo) / (gapLo - gapHi);
+        const margin = 0.01 * tolerance;
+        probe(Math.min(hi - margin, Math.max(lo + margin, estimate - 0.4 * tolerance)));
+        if (hi - lo > tolerance) {
+          const second = Math.min(hi - margin, Math.max(lo + margin, estimate + 0.4 * tolerance));
+          if (second > lo && second < hi) probe(second);
+        }
+        if (hi - lo > width / 2) probe((lo + hi) / 2);
+      } else {
+        probe((lo + hi) / 2);
+      }
+    }
+    orderOfProjector(projectorOf(frameNear, nf, p), orderNear);
+    orderOfProjector(projectorOf(frameFar, nf, p), orderFar);
+    let jump = 0;
+    for (let k = 1; k < 16; k++) jump = Math.max(jump, Math.abs(orderNear[k]! - orderFar[k]!));
+    const t = (lo + hi) / 2;
+    out.push({
+      edge,
+      x: x0 + t * (x1 - x0),
+      y: y0 + t * (y1 - y0),
+      near,
+      far,
+      order: jump > FIRST_ORDER_JUMP ? 'first' : 'continuous',
+    });
+  }
+  return out;
+}
+
+/** Whether `order` lies closer (max norm) to the state of frame `a` than to that of `b`. */
+function closerEnd(order: Float64Array, a: Float64Array, b: Float64Array, nf: number): boolean {
+  const p = new Float64Array(32);
+  const oa = orderOfProjector(projectorOf(a, nf, p), new Float64Array(16));
+  const ob = orderOfProjector(projectorOf(b, nf, p), new Float64Array(16));
+  let da = 0;
+  let db = 0;
+  for (let k = 1; k < 16; k++) {
+    da = Math.max(da, Math.abs(order[k]! - oa[k]!));
+    db = Math.max(db, Math.abs(order[k]! - ob[k]!));
+  }
+  return da <= db;
+}
+
+/** Edges (ids as in Crossing) between differently labelled neighbours, ascending. */
+export function boundaryEdges(labels: readonly string[], nx: number, ny: number): Int32Array {
+  const out: number[] = [];
+  for (let j = 0; j < ny; j++) {
+    for (let i = 0; i < nx; i++) {
+      const p = j * nx + i;
+      if (i + 1 < nx && labels[p] !== labels[p + 1]) out.push(2 * p);
+      if (j + 1 < ny && labels[p] !== labels[p + nx]) out.push(2 * p + 1);
+    }
+  }
+  return Int32Array.from(out);
+}
