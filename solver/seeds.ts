@@ -25,7 +25,7 @@ export interface Seed {
   readonly order: Float64Array;
   /** The un-nudged frame of a structured seed (its exact symmetric state). */
   readonly exact?: Float64Array;
-  readonly kind: 'stabiliser' | 'canted' | 'random';
+  readonly kind: 'stabiliser' | 'rotated' | 'canted' | 'random';
 }
 
 const RANDOM_SEEDS = 64;
@@ -81,6 +81,45 @@ function stabiliserSeeds(nf: number): Seed[] {
     }
   }
   return seeds;
+}
+
+/**
+ * Stabiliser states turned by exp(-i (theta / 2) G_k) for every matrix G_k and theta = +-pi/4:
+ * canted states halfway between a stabiliser state and its image under a quarter turn, such
+ * as a ferromagnet tilted 45 degrees off the field towards an in-plane moment or towards spin
+ * bond order. Strong fields favour such canted states.
+ */
+function rotatedSeeds(stabiliser: readonly Seed[], nf: number): Seed[] {
+  const out: Seed[] = [];
+  const cos = Math.cos(Math.PI / 8);
+  for (const seed of stabiliser) {
+    for (let k = 1; k < MATRIX_COUNT; k++) {
+      const g = denseMatrix(k);
+      for (const sign of [1, -1]) {
+        const sin = sign * Math.sin(Math.PI / 8);
+        const frame = new Float64Array(32);
+        for (let v = 0; v < 4; v++) {
+          for (let r = 0; r < 4; r++) {
+            // (G u)_r, then u' = cos u - i sin G u
+            let gr = 0;
+            let gi = 0;
+            for (let col = 0; col < 4; col++) {
+              const ar = g[2 * (4 * r + col)]!;
+              const ai = g[2 * (4 * r + col) + 1]!;
+              const ur = seed.frame[8 * v + 2 * col]!;
+              const ui = seed.frame[8 * v + 2 * col + 1]!;
+              gr += ar * ur - ai * ui;
+              gi += ar * ui + ai * ur;
+            }
+            frame[8 * v + 2 * r] = cos * seed.frame[8 * v + 2 * r]! + sin * gi;
+            frame[8 * v + 2 * r + 1] = cos * seed.frame[8 * v + 2 * r + 1]! - sin * gr;
+          }
+        }
+        out.push(seedOf(frame, nf, 'rotated'));
+      }
+    }
+  }
+  return out;
 }
 
 /** Spinor chi (x) xi with valley Bloch angles (beta, phiV) and spin angles (theta, phiS). */
@@ -176,7 +215,8 @@ export function seedLibrary(nf: number): readonly Seed[] {
   let library = libraries.get(nf);
   if (library === undefined) {
     const random = seededRandom(LIBRARY_SEED + nf);
-    const seeds = [...stabiliserSeeds(nf), ...cantedSeeds(nf, random)];
+    const stabiliser = dedupe(stabiliserSeeds(nf));
+    const seeds = [...stabiliser, ...cantedSeeds(nf, random), ...rotatedSeeds(stabiliser, nf)];
     for (let i = 0; i < RANDOM_SEEDS; i++) seeds.push(seedOf(randomFrame(random), nf, 'random'));
     // Nudge every structured seed off its symmetric point: exact critical points would need a
     // saddle escape (an eigen-decomposition); a small fixed rotation lets Newton's shifted
