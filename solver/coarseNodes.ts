@@ -1,6 +1,6 @@
 import { DEFAULT_DESCENT, descend } from './localMinimise';
 import { DescentWorkspace } from './tangentSpace';
-import { DEFAULT_MINIMISE, minimiseEnergy } from './minimise';
+import { DEFAULT_MINIMISE, minimiseEnergy, type MinimiseOptions } from './minimise';
 import { phaseLabel } from './phaseLabel';
 import { axisValue, PlaneCouplings, type MapInput } from './plane';
 import { orderOfProjector, projectorOf } from './state';
@@ -18,6 +18,17 @@ import { modelSymmetry } from './symmetry';
  *    transition along the edge to 1e-9 of the axis span, warm-started from both ends, and typed
  *    first order (the order parameters jump) or continuous.
  */
+
+/**
+ * Search at coarse nodes: lighter than a single point's DEFAULT_MINIMISE, because every pixel
+ * then compares the states of its four corner nodes, so a node that missed the global minimum
+ * is outvoted wherever a neighbour found it.
+ */
+export const COARSE_SEARCH: MinimiseOptions = {
+  ...DEFAULT_MINIMISE,
+  rankedStarts: 4,
+  rankedStartsOddFilling: 4,
+};
 
 /** Coarse node spacing: about 32 nodes along the longer side, at least every 2nd pixel. */
 export function coarseStride(nx: number, ny: number): number {
@@ -62,7 +73,7 @@ export function solveCoarseNodes(input: MapInput, first: number, count: number):
       axisValue(input.plane.y, ny, rows[b]!),
     );
     // Polished to the last bit: pixels start from these frames and finish in fewer steps.
-    const frame = minimiseEnergy(c, DEFAULT_MINIMISE).frame;
+    const frame = minimiseEnergy(c, COARSE_SEARCH).frame;
     descend(c, frame, DEFAULT_DESCENT, ws);
     frames.set(frame, 32 * n);
   }

@@ -85,28 +85,39 @@ const seedEnergies = new Float64Array(1024);
 const scratchFrame = new Float64Array(32);
 
 /**
- * Indices of the `count` library seeds of lowest energy among those of kind `rotated` when
- * `rotated` is true, among all others otherwise; lowest first, ties by index.
+ * Indices of the `plain` lowest-energy library seeds that are not of kind `rotated`, then of the
+ * `rotated` lowest-energy ones that are; each group lowest first, ties by index.
  */
 function lowestSeeds(
   c: Couplings,
   library: readonly Seed[],
-  count: number,
-  rotated: boolean,
+  plain: number,
+  rotated: number,
 ): number[] {
   const n = library.length;
   for (let i = 0; i < n; i++) seedEnergies[i] = energyOfOrder(c, library[i]!.order);
-  const chosen: number[] = [];
-  for (let pick = 0; pick < Math.min(count, n); pick++) {
-    let best = -1;
-    for (let i = 0; i < n; i++) {
-      if ((library[i]!.kind === 'rotated') !== rotated || chosen.includes(i)) continue;
-      if (best < 0 || seedEnergies[i]! < seedEnergies[best]!) best = i;
+  const pick = (count: number, wantRotated: boolean, out: number[]): void => {
+    const first = out.length;
+    for (let picked = 0; picked < count; picked++) {
+      let best = -1;
+      let bestEnergy = Infinity;
+      for (let i = 0; i < n; i++) {
+        const e = seedEnergies[i]!;
+        if (e >= bestEnergy || (library[i]!.kind === 'rotated') !== wantRotated) continue;
+        let taken = false;
+        for (let k = first; k < out.length; k++) if (out[k] === i) taken = true;
+        if (taken) continue;
+        best = i;
+        bestEnergy = e;
+      }
+      if (best < 0) return;
+      out.push(best);
     }
-    if (best < 0) break;
-    chosen.push(best);
-  }
-  return chosen;
+  };
+  const out: number[] = [];
+  pick(plain, false, out);
+  pick(rotated, true, out);
+  return out;
 }
 
 /** How to search: warm starts, cold library search, early abandonment, saddle escapes. */
@@ -174,10 +185,7 @@ export function minimiseEnergy(
     const starts =
       c.nf === 2 ? options.rankedStarts : (options.rankedStartsOddFilling ?? options.rankedStarts);
     const rotatedStarts = options.rotatedStarts ?? 0;
-    const indices = [
-      ...lowestSeeds(c, library, starts, false),
-      ...lowestSeeds(c, library, rotatedStarts, true),
-    ];
+    const indices = lowestSeeds(c, library, starts, rotatedStarts);
     for (const index of indices) {
       const before = best;
       run(library[index]!.frame, true);
