@@ -4,7 +4,9 @@
  * from the exact SI definitions of 2019.
  */
 export const ELEMENTARY_CHARGE = 1.602176634e-19; // C, exact
-export const REDUCED_PLANCK = 1.054571817e-34; // J s, exact to the digits shown
+/** Planck constant h, exact in the SI since 2019. */
+export const PLANCK = 6.62607015e-34; // J s
+export const REDUCED_PLANCK = PLANCK / (2 * Math.PI); // J s
 export const BOHR_MAGNETON = 9.2740100783e-24; // J / T
 export const VACUUM_PERMITTIVITY = 8.8541878128e-12; // F / m
 /** Joules per milli-electronvolt. */

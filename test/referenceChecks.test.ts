@@ -1,6 +1,11 @@
+import * as mathjs from 'mathjs';
 import { describe, expect, test } from 'vitest';
 import {
+  BOHR_MAGNETON,
   CHANNELS,
+  ELEMENTARY_CHARGE,
+  REDUCED_PLANCK,
+  VACUUM_PERMITTIVITY,
   DescentWorkspace,
   couplingsOf,
   exchangeEnergyMeV,
@@ -131,6 +136,19 @@ describe('reference checks of model.md section 10', () => {
     expect(exchangeEnergyMeV(1, 1) / coulombScaleMeV(1, 1)).toBeCloseTo(1.2533141373155, 12);
     // Scales as sqrt(B_perp) and 1/eps_r (model.md section 9).
     expect(exchangeEnergyMeV(4, 5) / exchangeEnergyMeV(1, 1)).toBeCloseTo(2 / 5, 12);
+  });
+
+  test('CODATA 2018 constants agree with the mathjs 15.2.0 physical constants (a general-purpose units library)', () => {
+    const si = (u: { toNumber(unit: string): number }, unit: string) => u.toNumber(unit);
+    expect(BOHR_MAGNETON / si(mathjs.bohrMagneton, 'J/T')).toBeCloseTo(1, 12);
+    expect(REDUCED_PLANCK / si(mathjs.reducedPlanckConstant, 'J s')).toBeCloseTo(1, 12);
+    expect(ELEMENTARY_CHARGE / si(mathjs.elementaryCharge, 'C')).toBeCloseTo(1, 12);
+    expect(VACUUM_PERMITTIVITY / si(mathjs.electricConstant, 'F/m')).toBeCloseTo(1, 12);
+    // l_B from the library's constants: sqrt(hbar / (e * 1 T)).
+    const lB = Math.sqrt(
+      si(mathjs.reducedPlanckConstant, 'J s') / si(mathjs.elementaryCharge, 'C'),
+    );
+    expect(magneticLength(1) / lB).toBeCloseTo(1, 12);
   });
 
   test('l_B = 25.6556 nm at 1 T from CODATA 2018 constants (model.md section 10)', () => {
