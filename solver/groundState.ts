@@ -1,4 +1,4 @@
-import { couplingsOf, type Couplings } from './couplings';
+import { couplingsOf, energyOfOrder, type Couplings } from './couplings';
 import { collectiveModes, type CollectiveModes } from './collectiveModes';
 import { hermitianEigen4 } from './linalg';
 import { DEFAULT_DESCENT, descend } from './localMinimise';
@@ -11,7 +11,6 @@ import { phaseLabel } from './phaseLabel';
 import { occupiedSpinors } from './spinors';
 import { hartreeFockOfOrder, orderOfProjector, projectorOf } from './state';
 import { modelSymmetry } from './symmetry';
-import { energyOfOrder } from './couplings';
 
 /** Everything Fourfold reports about the ground state of one model. */
 export interface SolveResult {

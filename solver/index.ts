@@ -16,7 +16,13 @@ export {
   type CouplingArrays,
   type Couplings,
 } from './couplings';
-export { hermitianEigen4, symmetricEigen } from './linalg';
+export {
+  hermitianEigen4,
+  multiplyFrame,
+  orthonormaliseFrame,
+  projectOut,
+  symmetricEigen,
+} from './linalg';
 export { seededRandom, type RandomSource } from './random';
 export { randomFrame } from './seeds';
 export { orderOfProjector, projectorOf, hartreeFockOfOrder } from './state';

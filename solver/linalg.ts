@@ -242,6 +242,58 @@ export function choleskySolve(
   return true;
 }
 
+/** out vector k = M u_k for the first `count` vectors of a frame (M 4x4 complex, row-major). */
+export function multiplyFrame(
+  m: Float64Array,
+  frame: Float64Array,
+  count: number,
+  out: Float64Array,
+): Float64Array {
+  for (let v = 0; v < count; v++) {
+    for (let r = 0; r < 4; r++) {
+      let sr = 0;
+      let si = 0;
+      for (let col = 0; col < 4; col++) {
+        const mr = m[2 * (4 * r + col)]!;
+        const mi = m[2 * (4 * r + col) + 1]!;
+        const ur = frame[8 * v + 2 * col]!;
+        const ui = frame[8 * v + 2 * col + 1]!;
+        sr += mr * ur - mi * ui;
+        si += mr * ui + mi * ur;
+      }
+      out[8 * v + 2 * r] = sr;
+      out[8 * v + 2 * r + 1] = si;
+    }
+  }
+  return out;
+}
+
+/**
+ * Removes from the 4-vector at target[offset..offset + 8) its component along frame vector j
+ * (assumed normalised): t <- t - <u_j, t> u_j.
+ */
+export function projectOut(
+  frame: Float64Array,
+  j: number,
+  target: Float64Array,
+  offset: number,
+): void {
+  const oj = 8 * j;
+  let dr = 0;
+  let di = 0;
+  for (let r = 0; r < 8; r += 2) {
+    // <u_j, t> = sum conj(u_j) t
+    dr += frame[oj + r]! * target[offset + r]! + frame[oj + r + 1]! * target[offset + r + 1]!;
+    di += frame[oj + r]! * target[offset + r + 1]! - frame[oj + r + 1]! * target[offset + r]!;
+  }
+  for (let r = 0; r < 8; r += 2) {
+    const vr = frame[oj + r]!;
+    const vi = frame[oj + r + 1]!;
+    target[offset + r] = target[offset + r]! - (dr * vr - di * vi);
+    target[offset + r + 1] = target[offset + r + 1]! - (dr * vi + di * vr);
+  }
+}
+
 /**
  * Orthonormalises vectors 0..count-1 of a frame in place by modified Gram-Schmidt.
  * Returns the smallest norm met before normalisation (a measure of how independent they were).
@@ -250,22 +302,7 @@ export function orthonormaliseFrame(frame: Float64Array, count: number): number 
   let smallest = Infinity;
   for (let k = 0; k < count; k++) {
     const ok = 8 * k;
-    for (let j = 0; j < k; j++) {
-      const oj = 8 * j;
-      let dr = 0;
-      let di = 0;
-      for (let r = 0; r < 8; r += 2) {
-        // <v_j, v_k> = sum conj(v_j) v_k
-        dr += frame[oj + r]! * frame[ok + r]! + frame[oj + r + 1]! * frame[ok + r + 1]!;
-        di += frame[oj + r]! * frame[ok + r + 1]! - frame[oj + r + 1]! * frame[ok + r]!;
-      }
-      for (let r = 0; r < 8; r += 2) {
-        const vr = frame[oj + r]!;
-        const vi = frame[oj + r + 1]!;
-        frame[ok + r] = frame[ok + r]! - (dr * vr - di * vi);
-        frame[ok + r + 1] = frame[ok + r + 1]! - (dr * vi + di * vr);
-      }
-    }
+    for (let j = 0; j < k; j++) projectOut(frame, j, frame, ok);
     let norm = 0;
     for (let r = 0; r < 8; r++) norm += frame[ok + r]! * frame[ok + r]!;
     norm = Math.sqrt(norm);
@@ -291,21 +328,7 @@ export function completeFrame(frame: Float64Array, count: number, scratch: Float
       scratch.fill(0, 0, 8);
       scratch[2 * (c - (4 - count))] = 1;
     }
-    for (let j = 0; j < filled; j++) {
-      const oj = 8 * j;
-      let dr = 0;
-      let di = 0;
-      for (let r = 0; r < 8; r += 2) {
-        dr += frame[oj + r]! * scratch[r]! + frame[oj + r + 1]! * scratch[r + 1]!;
-        di += frame[oj + r]! * scratch[r + 1]! - frame[oj + r + 1]! * scratch[r]!;
-      }
-      for (let r = 0; r < 8; r += 2) {
-        const vr = frame[oj + r]!;
-        const vi = frame[oj + r + 1]!;
-        scratch[r] = scratch[r]! - (dr * vr - di * vi);
-        scratch[r + 1] = scratch[r + 1]! - (dr * vi + di * vr);
-      }
-    }
+    for (let j = 0; j < filled; j++) projectOut(frame, j, scratch, 0);
     let norm = 0;
     for (let r = 0; r < 8; r++) norm += scratch[r]! * scratch[r]!;
     norm = Math.sqrt(norm);

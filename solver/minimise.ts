@@ -71,15 +71,7 @@ export const ABANDON_MARGIN = 1e-8;
  */
 export const SEARCH_TOLERANCE = 1e-10;
 
-const workspaces: DescentWorkspace[] = [];
-function workspace(): DescentWorkspace {
-  let ws = workspaces[0];
-  if (ws === undefined) {
-    ws = new DescentWorkspace();
-    workspaces.push(ws);
-  }
-  return ws;
-}
+let sharedWorkspace: DescentWorkspace | undefined;
 
 const seedEnergies = new Float64Array(1024);
 const scratchFrame = new Float64Array(32);
@@ -126,10 +118,6 @@ export interface SearchPlan {
   readonly warmStarts?: readonly Float64Array[];
   /** Also descend from the ranked library seeds and random frames (default true). */
   readonly coldSearch?: boolean;
-  /** Let warm starts after the first stop once they cannot beat the best (default false). */
-  readonly abandonWarm?: boolean;
-  /** Leave saddle points along negative curvature (default true). */
-  readonly escapeSaddles?: boolean;
   /** Newton steps after the gradient tolerance is met (default 0: callers polish the winner). */
   readonly polishSteps?: number;
   /** Gradient tolerance relative to the coupling scale (default 1e-10; Newton squares it). */
@@ -145,13 +133,12 @@ export function minimiseEnergy(
   options: MinimiseOptions = DEFAULT_MINIMISE,
   plan: SearchPlan = {},
 ): MinimiseResult {
-  const ws = workspace();
+  const ws = (sharedWorkspace ??= new DescentWorkspace());
   const minima: LocalMinimum[] = [];
   let best: LocalMinimum | undefined;
   let descents = 0;
   const descent = {
     ...DEFAULT_DESCENT,
-    escapeSaddles: plan.escapeSaddles ?? true,
     polishSteps: plan.polishSteps ?? 0,
     gradientTolerance: plan.gradientTolerance ?? SEARCH_TOLERANCE,
   };
@@ -178,7 +165,7 @@ export function minimiseEnergy(
     }
     return result;
   };
-  (plan.warmStarts ?? []).forEach((start, i) => run(start, i > 0 && (plan.abandonWarm ?? false)));
+  for (const start of plan.warmStarts ?? []) run(start, false);
   if (plan.coldSearch ?? true) {
     const library = seedLibrary(c.nf);
     let bestSeed: Seed | undefined;
@@ -197,11 +184,13 @@ export function minimiseEnergy(
     const exact = bestSeed?.exact;
     if (exact !== undefined && best?.converged) {
       const frame = Float64Array.from(exact);
-      descent.escapeSaddles = false;
-      descent.abandonAbove = Infinity;
-      descent.abandonNear = undefined;
-      const snap = descend(c, frame, descent, ws);
-      descent.escapeSaddles = plan.escapeSaddles ?? true;
+      const stay = {
+        ...descent,
+        escapeSaddles: false,
+        abandonAbove: Infinity,
+        abandonNear: undefined,
+      };
+      const snap = descend(c, frame, stay, ws);
       if (snap.converged && snap.energy <= best.energy + 1e-10 * c.scale) {
         best = { frame, energy: snap.energy, converged: true, order: Float64Array.from(ws.order) };
         minima.push(best);

@@ -1,5 +1,5 @@
 import { COMMUTATION_SIGN, MATRIX_COUNT, denseMatrix, productIndex } from './channels';
-import { hermitianEigen4, orthonormaliseFrame } from './linalg';
+import { hermitianEigen4, multiplyFrame, orthonormaliseFrame } from './linalg';
 import { retract } from './tangentSpace';
 import { gaussian, seededRandom, type RandomSource } from './random';
 import { orderOfProjector, projectorOf } from './state';
@@ -94,26 +94,14 @@ function rotatedSeeds(stabiliser: readonly Seed[], nf: number): Seed[] {
   const cos = Math.cos(Math.PI / 8);
   for (const seed of stabiliser) {
     for (let k = 1; k < MATRIX_COUNT; k++) {
-      const g = denseMatrix(k);
+      const gu = multiplyFrame(denseMatrix(k), seed.frame, 4, new Float64Array(32));
       for (const sign of [1, -1]) {
+        // u' = cos u - i sin G u
         const sin = sign * Math.sin(Math.PI / 8);
         const frame = new Float64Array(32);
-        for (let v = 0; v < 4; v++) {
-          for (let r = 0; r < 4; r++) {
-            // (G u)_r, then u' = cos u - i sin G u
-            let gr = 0;
-            let gi = 0;
-            for (let col = 0; col < 4; col++) {
-              const ar = g[2 * (4 * r + col)]!;
-              const ai = g[2 * (4 * r + col) + 1]!;
-              const ur = seed.frame[8 * v + 2 * col]!;
-              const ui = seed.frame[8 * v + 2 * col + 1]!;
-              gr += ar * ur - ai * ui;
-              gi += ar * ui + ai * ur;
-            }
-            frame[8 * v + 2 * r] = cos * seed.frame[8 * v + 2 * r]! + sin * gi;
-            frame[8 * v + 2 * r + 1] = cos * seed.frame[8 * v + 2 * r + 1]! - sin * gr;
-          }
+        for (let q = 0; q < 32; q += 2) {
+          frame[q] = cos * seed.frame[q]! + sin * gu[q + 1]!;
+          frame[q + 1] = cos * seed.frame[q + 1]! - sin * gu[q]!;
         }
         out.push(seedOf(frame, nf, 'rotated'));
       }

@@ -1,4 +1,4 @@
-import { hermitianEigen4 } from './linalg';
+import { hermitianEigen4, multiplyFrame, orthonormaliseFrame } from './linalg';
 
 /**
  * The occupied spinors of a state in a canonical gauge: eigenvectors of H_HF inside the occupied
@@ -16,33 +16,19 @@ export function occupiedSpinors(
 ): { spinors: Float64Array; levels: number[] } {
   // M_oo = U_occ^dagger H U_occ, padded to 4x4 with a large diagonal so padding sorts last.
   const m = new Float64Array(32);
-  const hu = new Float64Array(8);
+  const hu = multiplyFrame(hamiltonian, frame, nf, new Float64Array(32));
   let pad = 0;
   for (let i = 0; i < 32; i++) pad = Math.max(pad, Math.abs(hamiltonian[i]!));
   pad = 10 * pad + 1;
   for (let j = 0; j < nf; j++) {
-    for (let r = 0; r < 4; r++) {
-      let sr = 0;
-      let si = 0;
-      for (let c = 0; c < 4; c++) {
-        const hr = hamiltonian[2 * (4 * r + c)]!;
-        const hi = hamiltonian[2 * (4 * r + c) + 1]!;
-        const ur = frame[8 * j + 2 * c]!;
-        const ui = frame[8 * j + 2 * c + 1]!;
-        sr += hr * ur - hi * ui;
-        si += hr * ui + hi * ur;
-      }
-      hu[2 * r] = sr;
-      hu[2 * r + 1] = si;
-    }
     for (let i = 0; i < nf; i++) {
       let sr = 0;
       let si = 0;
       for (let r = 0; r < 8; r += 2) {
         const ur = frame[8 * i + r]!;
         const ui = frame[8 * i + r + 1]!;
-        sr += ur * hu[r]! + ui * hu[r + 1]!;
-        si += ur * hu[r + 1]! - ui * hu[r]!;
+        sr += ur * hu[8 * j + r]! + ui * hu[8 * j + r + 1]!;
+        si += ur * hu[8 * j + r + 1]! - ui * hu[8 * j + r]!;
       }
       m[2 * (4 * i + j)] = sr;
       m[2 * (4 * i + j) + 1] = si;
@@ -126,26 +112,7 @@ function echelonCluster(v: Float64Array, start: number, end: number): void {
     row++;
   }
   // Gram-Schmidt in order keeps the echelon shape.
-  for (let k = start; k < end; k++) {
-    for (let j = start; j < k; j++) {
-      let dr = 0;
-      let di = 0;
-      for (let r = 0; r < 8; r += 2) {
-        dr += v[8 * j + r]! * v[8 * k + r]! + v[8 * j + r + 1]! * v[8 * k + r + 1]!;
-        di += v[8 * j + r]! * v[8 * k + r + 1]! - v[8 * j + r + 1]! * v[8 * k + r]!;
-      }
-      for (let r = 0; r < 8; r += 2) {
-        const jr = v[8 * j + r]!;
-        const ji = v[8 * j + r + 1]!;
-        v[8 * k + r] = v[8 * k + r]! - (dr * jr - di * ji);
-        v[8 * k + r + 1] = v[8 * k + r + 1]! - (dr * ji + di * jr);
-      }
-    }
-    let norm = 0;
-    for (let r = 0; r < 8; r++) norm += v[8 * k + r]! * v[8 * k + r]!;
-    norm = Math.sqrt(norm);
-    for (let r = 0; r < 8; r++) v[8 * k + r] = v[8 * k + r]! / norm;
-  }
+  orthonormaliseFrame(v.subarray(8 * start, 8 * end), end - start);
 }
 
 function fixPhase(v: Float64Array, k: number): void {

@@ -1,6 +1,6 @@
 import { G_COL, G_IM, G_RE, MATRIX_COUNT } from './channels';
 import { energyOfOrder, type Couplings } from './couplings';
-import { completeFrame, orthonormaliseFrame } from './linalg';
+import { completeFrame, multiplyFrame, orthonormaliseFrame } from './linalg';
 import { hartreeFockOfOrder, orderOfProjector, projectorOf } from './state';
 
 /**
@@ -67,22 +67,7 @@ export function tangentModel(c: Couplings, frame: Float64Array, ws: DescentWorks
   const d = 2 * nf * ne;
   const { hamiltonian: h, hu, m, w, gradient: g, hessian: k } = ws;
   hartreeFockOfOrder(c, ws.order, h);
-  for (let v = 0; v < 4; v++) {
-    for (let r = 0; r < 4; r++) {
-      let sr = 0;
-      let si = 0;
-      for (let col = 0; col < 4; col++) {
-        const hr = h[2 * (4 * r + col)]!;
-        const hi = h[2 * (4 * r + col) + 1]!;
-        const ur = frame[8 * v + 2 * col]!;
-        const ui = frame[8 * v + 2 * col + 1]!;
-        sr += hr * ur - hi * ui;
-        si += hr * ui + hi * ur;
-      }
-      hu[8 * v + 2 * r] = sr;
-      hu[8 * v + 2 * r + 1] = si;
-    }
-  }
+  multiplyFrame(h, frame, 4, hu);
   // m[2 (4 a + b)] = u_a^dagger H u_b
   for (let a = 0; a < 4; a++) {
     for (let b = 0; b < 4; b++) {

@@ -2,6 +2,9 @@ import {
   DescentWorkspace,
   frameEnergy,
   hartreeFockOfOrder,
+  multiplyFrame,
+  orthonormaliseFrame,
+  projectOut,
   randomFrame,
   seededRandom,
   type Couplings,
@@ -58,84 +61,17 @@ export interface NaiveDescent {
   readonly converged: boolean;
 }
 
-/** Gram-Schmidt on the first `count` vectors of a frame (layout of solver/linalg.ts). */
-function orthonormalise(frame: Float64Array, count: number): void {
-  for (let i = 0; i < count; i++) {
-    const oi = 8 * i;
-    for (let j = 0; j < i; j++) {
-      const oj = 8 * j;
-      let sr = 0;
-      let si = 0;
-      for (let r = 0; r < 8; r += 2) {
-        const ar = frame[oj + r]!;
-        const ai = frame[oj + r + 1]!;
-        const br = frame[oi + r]!;
-        const bi = frame[oi + r + 1]!;
-        sr += ar * br + ai * bi;
-        si += ar * bi - ai * br;
-      }
-      for (let r = 0; r < 8; r += 2) {
-        const ar = frame[oj + r]!;
-        const ai = frame[oj + r + 1]!;
-        frame[oi + r] = frame[oi + r]! - (sr * ar - si * ai);
-        frame[oi + r + 1] = frame[oi + r + 1]! - (sr * ai + si * ar);
-      }
-    }
-    let norm = 0;
-    for (let r = 0; r < 8; r++) norm += frame[oi + r]! * frame[oi + r]!;
-    norm = 1 / Math.sqrt(norm);
-    for (let r = 0; r < 8; r++) frame[oi + r] = frame[oi + r]! * norm;
-  }
-}
-
 /**
  * d_i = (1 - P) H u_i for the occupied vectors into ws.direction; returns sum_i |d_i|^2.
  * H is ws.hamiltonian (4x4 complex, row-major, interleaved).
  */
 function steepestDirection(nf: number, frame: Float64Array, ws: NaiveWorkspace): number {
-  const h = ws.hamiltonian;
-  const d = ws.direction;
-  for (let i = 0; i < nf; i++) {
-    const oi = 8 * i;
-    for (let r = 0; r < 4; r++) {
-      let sr = 0;
-      let si = 0;
-      for (let col = 0; col < 4; col++) {
-        const hr = h[2 * (4 * r + col)]!;
-        const hi = h[2 * (4 * r + col) + 1]!;
-        const ur = frame[oi + 2 * col]!;
-        const ui = frame[oi + 2 * col + 1]!;
-        sr += hr * ur - hi * ui;
-        si += hr * ui + hi * ur;
-      }
-      d[oi + 2 * r] = sr;
-      d[oi + 2 * r + 1] = si;
-    }
-  }
+  const d = multiplyFrame(ws.hamiltonian, frame, nf, ws.direction);
   let norm2 = 0;
   for (let i = 0; i < nf; i++) {
-    const oi = 8 * i;
     // Project out every occupied vector: (1 - P) H u_i.
-    for (let j = 0; j < nf; j++) {
-      const oj = 8 * j;
-      let sr = 0;
-      let si = 0;
-      for (let r = 0; r < 8; r += 2) {
-        const ar = frame[oj + r]!;
-        const ai = frame[oj + r + 1]!;
-        const br = d[oi + r]!;
-        const bi = d[oi + r + 1]!;
-        sr += ar * br + ai * bi;
-        si += ar * bi - ai * br;
-      }
-      for (let r = 0; r < 8; r += 2) {
-        const ar = frame[oj + r]!;
-        const ai = frame[oj + r + 1]!;
-        d[oi + r] = d[oi + r]! - (sr * ar - si * ai);
-        d[oi + r + 1] = d[oi + r + 1]! - (sr * ai + si * ar);
-      }
-    }
-    for (let r = 0; r < 8; r++) norm2 += d[oi + r]! * d[oi + r]!;
+    for (let j = 0; j < nf; j++) projectOut(frame, j, d, 8 * i);
+    for (let r = 0; r < 8; r++) norm2 += d[8 * i + r]! * d[8 * i + r]!;
   }
   return norm2;
 }
@@ -170,7 +106,7 @@ export function naiveDescent(
     while (t * 2 * norm2 >= roundoff) {
       const trial = ws.trial;
       for (let k = 0; k < 8 * nf; k++) trial[k] = frame[k]! - t * ws.direction[k]!;
-      orthonormalise(trial, nf);
+      orthonormaliseFrame(trial, nf);
       const e = frameEnergy(c, trial, ws.descent, ws.trialOrder);
       if (e < energy && e <= energy - ARMIJO * t * 2 * norm2) {
         frame.set(trial.subarray(0, 8 * nf));
