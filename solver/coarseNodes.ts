@@ -1,10 +1,8 @@
 import { DEFAULT_DESCENT, descend } from './localMinimise';
 import { DescentWorkspace } from './tangentSpace';
 import { DEFAULT_MINIMISE, minimiseEnergy, type MinimiseOptions } from './minimise';
-import { phaseLabel } from './phaseLabel';
+import { PixelScratch, summarise } from './stateSummary';
 import { axisValue, PlaneCouplings, type MapInput } from './plane';
-import { orderOfProjector, projectorOf } from './state';
-import { modelSymmetry } from './symmetry';
 
 /**
  * The Map in three stages, each a pure function of its inputs so that any split of the work
@@ -57,15 +55,37 @@ export function coarseLayout(input: MapInput): { cols: Int32Array; rows: Int32Ar
   return { cols: coarseLine(nx, stride), rows: coarseLine(ny, stride) };
 }
 
-/** Stage 1 for coarse nodes `first .. first + count - 1` (row-major over the coarse grid). */
-export function solveCoarseNodes(input: MapInput, first: number, count: number): Float64Array {
+/** Stage 1 results for a list of coarse nodes (same layout as a PixelBlock, one entry per node). */
+export interface CoarseBlock {
+  /** Node indices, row-major over the coarse grid. */
+  readonly nodes: Int32Array;
+  readonly frames: Float64Array;
+  readonly energy: Float64Array;
+  /** o_k, k = 1..15, at [15 n + k - 1]. */
+  readonly order: Float64Array;
+  readonly gap: Float64Array;
+  readonly labels: string[];
+}
+
+/** Stage 1 for the given coarse nodes (indices row-major over the coarse grid). */
+export function solveCoarseNodes(input: MapInput, nodes: ArrayLike<number>): CoarseBlock {
   const { cols, rows } = coarseLayout(input);
   const [nx, ny] = input.plane.resolution;
+  const nf = input.model.filling + 2;
   const planeCouplings = new PlaneCouplings(input);
-  const frames = new Float64Array(32 * count);
+  const count = nodes.length;
+  const block: CoarseBlock = {
+    nodes: Int32Array.from(nodes),
+    frames: new Float64Array(32 * count),
+    energy: new Float64Array(count),
+    order: new Float64Array(15 * count),
+    gap: new Float64Array(count),
+    labels: [],
+  };
   const ws = new DescentWorkspace();
+  const scratch = new PixelScratch();
   for (let n = 0; n < count; n++) {
-    const node = first + n;
+    const node = nodes[n]!;
     const a = node % cols.length;
     const b = Math.floor(node / cols.length);
     const c = planeCouplings.at(
@@ -75,29 +95,23 @@ export function solveCoarseNodes(input: MapInput, first: number, count: number):
     // Polished to the last bit: pixels start from these frames and finish in fewer steps.
     const frame = minimiseEnergy(c, COARSE_SEARCH).frame;
     descend(c, frame, DEFAULT_DESCENT, ws);
-    frames.set(frame, 32 * n);
+    block.frames.set(frame, 32 * n);
+    const summary = summarise(c, frame, nf, scratch);
+    block.energy[n] = summary.energy;
+    block.gap[n] = summary.gap;
+    block.order.set(scratch.order.subarray(1, 16), 15 * n);
+    block.labels.push(summary.label);
   }
-  return frames;
+  return block;
 }
 
-export function coarseNodes(input: MapInput, frames: Float64Array): CoarseNodes {
+/** Node indices first .. first + count - 1. */
+export function nodeRange(first: number, count: number): Int32Array {
+  return Int32Array.from({ length: count }, (_, n) => first + n);
+}
+
+/** The coarse grid from all nodes' frames and labels (row-major over the coarse grid). */
+export function coarseNodes(input: MapInput, frames: Float64Array, labels: string[]): CoarseNodes {
   const { cols, rows } = coarseLayout(input);
-  const [nx, ny] = input.plane.resolution;
-  const nf = input.model.filling + 2;
-  const planeCouplings = new PlaneCouplings(input);
-  const labels: string[] = [];
-  const p = new Float64Array(32);
-  const order = new Float64Array(16);
-  for (let b = 0; b < rows.length; b++) {
-    for (let a = 0; a < cols.length; a++) {
-      const n = b * cols.length + a;
-      const c = planeCouplings.at(
-        axisValue(input.plane.x, nx, cols[a]!),
-        axisValue(input.plane.y, ny, rows[b]!),
-      );
-      projectorOf(frames.subarray(32 * n, 32 * n + 32), nf, p);
-      labels.push(phaseLabel(orderOfProjector(p, order), c, modelSymmetry(c)));
-    }
-  }
   return { cols, rows, frames, labels };
 }

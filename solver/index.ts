@@ -61,8 +61,18 @@ export {
   type MapInput,
   type Plane,
 } from './plane';
-export { coarseLayout, coarseNodes, solveCoarseNodes, type CoarseNodes } from './coarseNodes';
-export { solvePixels, type PixelBlock } from './pixelBlock';
+export {
+  COARSE_SEARCH,
+  coarseLayout,
+  coarseNodes,
+  coarseStride,
+  nodeRange,
+  solveCoarseNodes,
+  type CoarseBlock,
+  type CoarseNodes,
+} from './coarseNodes';
+export { cellIsUniform, cellSpan, solveCells, type PixelBlock } from './pixelBlock';
+export { PIXEL_EMPTY, PIXEL_PREVIEW, PIXEL_SOLVED, MapGrid, type PhaseMap } from './mapGrid';
 export {
   BISECTION_TOLERANCE,
   FIRST_ORDER_JUMP,
@@ -71,7 +81,7 @@ export {
   type Crossing,
 } from './crossings';
 export { joinBoundaries, type Boundary } from './boundaries';
-export { computePhaseMap, localStages, type MapStages, type PhaseMap } from './phaseMap';
+export { computePhaseMap, localStages, splitRange, type MapStages } from './phaseMap';
 export { legendOf, mapToCsv, mapToJson } from './mapExport';
 export {
   BOHR_MAGNETON,

@@ -1,7 +1,7 @@
 import { CHANNELS } from './channels';
 import { modelToJson } from './model';
 import { TOKEN_MEANINGS } from './phaseLabel';
-import type { PhaseMap } from './phaseMap';
+import type { PhaseMap } from './mapGrid';
 import { MEAN_FIELD_CAUTION, SOFTWARE_VERSION } from './version';
 
 function rows(

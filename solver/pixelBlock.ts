@@ -1,110 +1,212 @@
 import { type Couplings } from './couplings';
 import type { CoarseNodes } from './coarseNodes';
-import { hermitianEigen4 } from './linalg';
-import { DEFAULT_DESCENT, descend } from './localMinimise';
+import { DEFAULT_DESCENT, descend, type DescentOptions } from './localMinimise';
 import { DescentWorkspace } from './tangentSpace';
 import { ABANDON_MARGIN } from './minimise';
 import { presentGroupCount } from './orderParameters';
-import { ORDER_TOLERANCE, phaseLabel } from './phaseLabel';
+import { ORDER_TOLERANCE } from './phaseLabel';
 import { axisValue, PlaneCouplings, type MapInput } from './plane';
-import { hartreeFockOfOrder, orderOfProjector, projectorOf } from './state';
-import { modelSymmetry } from './symmetry';
+import { PixelScratch, summarise } from './stateSummary';
 
-/** Per-pixel results of stage 2 for pixels `start .. start + count - 1` (row-major). */
+/**
+ * Per-pixel results for the pixel rectangle [i0, i0 + width) x [j0, j0 + height), row-major
+ * inside the rectangle: pixel (i, j) at n = (j - j0) width + (i - i0).
+ */
 export interface PixelBlock {
-  readonly start: number;
-  readonly count: number;
+  readonly i0: number;
+  readonly j0: number;
+  readonly width: number;
+  readonly height: number;
   readonly energy: Float64Array;
   /** o_k, k = 1..15, at [15 n + k - 1]. */
   readonly order: Float64Array;
   readonly gap: Float64Array;
+  /** Occupied frames, 32 numbers each. */
   readonly frames: Float64Array;
   readonly labels: string[];
 }
 
-function interval(line: Int32Array, i: number): number {
-  let a = 0;
-  while (a < line.length - 2 && line[a + 1]! <= i) a++;
-  return a;
+/**
+ * Pixel range [first, end) owned by coarse cell `a` along one side: from its own node up to the
+ * next node, which belongs to the next cell, except after the last node (the grid's far edge).
+ */
+export function cellSpan(line: Int32Array, a: number, n: number): [number, number] {
+  const end = line[a + 1]!;
+  return [line[a]!, end === n - 1 ? n : end];
+}
+
+/** Whether the four corner nodes of cell (a, b) carry one label. */
+export function cellIsUniform(coarse: CoarseNodes, a: number, b: number): boolean {
+  const w = coarse.cols.length;
+  const label = coarse.labels[b * w + a];
+  return (
+    coarse.labels[b * w + a + 1] === label &&
+    coarse.labels[(b + 1) * w + a] === label &&
+    coarse.labels[(b + 1) * w + a + 1] === label
+  );
 }
 
 /**
- * Candidate warm starts for pixel (i, j): the corner nodes, nearest first, one per phase.
- * Writes node indices into `out` and returns how many.
+ * Stage 2 for the coarse cells [a0, a1) x [b0, b1) (cell (a, b) spans nodes a, a + 1 and
+ * b, b + 1 of `coarse`, whose cols and rows are pixel indices of the full grid). Adaptive:
+ *
+ * - a cell whose four corners share a label is inside one region: each pixel takes a single
+ *   descent from its already-solved neighbour (left, or below at the start of a row), so it
+ *   costs about one Newton step and still gets its own converged state;
+ * - a cell with different corner labels holds a boundary: each pixel descends from a state of
+ *   every phase present (its neighbour's first, then the latest pixel of each other phase in
+ *   the cell, or the nearest corner of that phase) and keeps the lowest minimum.
+ *
+ * Every cell depends only on its own corners, so any grouping of cells into calls gives the same
+ * numbers bit for bit.
  */
-function cornerCandidates(coarse: CoarseNodes, i: number, j: number, out: Int32Array): number {
-  const a = interval(coarse.cols, i);
-  const b = interval(coarse.rows, j);
-  const width = coarse.cols.length;
-  let count = 0;
-  // Corners ordered by distance (ties by node index): at most four, sorted by insertion.
-  const nodes = [0, 0, 0, 0];
-  const distances = [0, 0, 0, 0];
-  for (let corner = 0; corner < 4; corner++) {
-    const da = corner & 1;
-    const db = corner >> 1;
-    const node = (b + db) * width + a + da;
-    const d = (coarse.cols[a + da]! - i) ** 2 + (coarse.rows[b + db]! - j) ** 2;
-    let slot = corner;
-    while (
-      slot > 0 &&
-      (distances[slot - 1]! > d || (distances[slot - 1] === d && nodes[slot - 1]! > node))
-    ) {
-      nodes[slot] = nodes[slot - 1]!;
-      distances[slot] = distances[slot - 1]!;
-      slot--;
-    }
-    nodes[slot] = node;
-    distances[slot] = d;
-  }
-  // The nearest node of each distinct phase: one start inside a region, one per side of a
-  // boundary that crosses the coarse cell.
-  for (const node of nodes) {
-    let seen = false;
-    for (let k = 0; k < count; k++) if (coarse.labels[out[k]!] === coarse.labels[node]) seen = true;
-    if (!seen) out[count++] = node;
-  }
-  return count;
-}
-
-/** Stage 2 for a block of pixels. */
-export function solvePixels(
+export function solveCells(
   input: MapInput,
   coarse: CoarseNodes,
-  start: number,
-  count: number,
+  a0: number,
+  b0: number,
+  a1: number,
+  b1: number,
 ): PixelBlock {
   const [nx, ny] = input.plane.resolution;
-  const nf = input.model.filling + 2;
-  const planeCouplings = new PlaneCouplings(input);
+  const [i0, iEnd] = [cellSpan(coarse.cols, a0, nx)[0], cellSpan(coarse.cols, a1 - 1, nx)[1]];
+  const [j0, jEnd] = [cellSpan(coarse.rows, b0, ny)[0], cellSpan(coarse.rows, b1 - 1, ny)[1]];
+  const width = iEnd - i0;
+  const height = jEnd - j0;
+  const count = width * height;
   const block: PixelBlock = {
-    start,
-    count,
+    i0,
+    j0,
+    width,
+    height,
     energy: new Float64Array(count),
     order: new Float64Array(15 * count),
     gap: new Float64Array(count),
     frames: new Float64Array(32 * count),
-    labels: [],
+    labels: new Array<string>(count),
   };
-  const scratch = new PixelScratch();
-  const ws = new DescentWorkspace();
-  const candidates = new Int32Array(4);
-  const trial = new Float64Array(32);
-  const best = new Float64Array(32);
-  const bestOrder = new Float64Array(16);
-  const options = { ...DEFAULT_DESCENT, polishSteps: 0 };
-  for (let n = 0; n < count; n++) {
-    const pixel = start + n;
-    const i = pixel % nx;
-    const j = Math.floor(pixel / nx);
-    const c = planeCouplings.at(axisValue(input.plane.x, nx, i), axisValue(input.plane.y, ny, j));
-    // Descend from each candidate; later ones stop once they cannot beat the best.
-    const m = cornerCandidates(coarse, i, j, candidates);
+  const solver = new PixelSolver(input, coarse);
+  for (let b = b0; b < b1; b++) {
+    const [jFirst, jLast] = cellSpan(coarse.rows, b, ny);
+    for (let a = a0; a < a1; a++) {
+      const [iFirst, iLast] = cellSpan(coarse.cols, a, nx);
+      const uniform = cellIsUniform(coarse, a, b);
+      solver.startCell(uniform);
+      for (let j = jFirst; j < jLast; j++) {
+        for (let i = iFirst; i < iLast; i++) {
+          const n = (j - j0) * width + (i - i0);
+          // The neighbour solved just before: left, or below at the start of the cell's row
+          // (the cell's first pixel is its corner node).
+          const neighbour =
+            i > iFirst
+              ? block.frames.subarray(32 * (n - 1), 32 * n)
+              : j > jFirst
+                ? block.frames.subarray(32 * (n - width), 32 * (n - width) + 32)
+                : coarse.frames.subarray(
+                    32 * (b * coarse.cols.length + a),
+                    32 * (b * coarse.cols.length + a) + 32,
+                  );
+          const neighbourLabel =
+            i > iFirst
+              ? block.labels[n - 1]!
+              : j > jFirst
+                ? block.labels[n - width]!
+                : coarse.labels[b * coarse.cols.length + a]!;
+          if (uniform) solver.fromNeighbour(i, j, neighbour);
+          else solver.fromPhases(a, b, i, j, neighbour, neighbourLabel);
+          solver.store(block, n);
+        }
+      }
+    }
+  }
+  return block;
+}
+
+/** The allocation-free per-pixel work of stage 2. */
+class PixelSolver {
+  private readonly nf: number;
+  private readonly planeCouplings: PlaneCouplings;
+  private readonly ws = new DescentWorkspace();
+  private readonly trial = new Float64Array(32);
+  private readonly best = new Float64Array(32);
+  private readonly bestOrder = new Float64Array(16);
+  private readonly options: DescentOptions = { ...DEFAULT_DESCENT, polishSteps: 0 };
+  private readonly scratch = new PixelScratch();
+  private couplings: Couplings | undefined;
+  /** Latest solved frame of each phase in the current cell. */
+  private readonly latest = new Map<string, Float64Array>();
+  private tracking = false;
+
+  constructor(
+    private readonly input: MapInput,
+    private readonly coarse: CoarseNodes,
+  ) {
+    this.nf = input.model.filling + 2;
+    this.planeCouplings = new PlaneCouplings(input);
+  }
+
+  private at(i: number, j: number): Couplings {
+    const [nx, ny] = this.input.plane.resolution;
+    this.couplings = this.planeCouplings.at(
+      axisValue(this.input.plane.x, nx, i),
+      axisValue(this.input.plane.y, ny, j),
+    );
+    return this.couplings;
+  }
+
+  fromNeighbour(i: number, j: number, from: Float64Array): void {
+    const c = this.at(i, j);
+    this.best.set(from);
+    this.options.abandonAbove = Infinity;
+    this.options.abandonNear = undefined;
+    descend(c, this.best, this.options, this.ws);
+  }
+
+  /** Starts a cell; the latest state of each phase is tracked in cells that hold a boundary. */
+  startCell(uniform: boolean): void {
+    this.latest.clear();
+    this.tracking = !uniform;
+  }
+
+  /**
+   * Descends from `neighbour`, then from one state of every other phase at the cell's corners or
+   * met in the cell so far (the latest pixel of that phase, else its nearest corner); later
+   * descents stop once they cannot beat the best. Keeps the lowest minimum.
+   */
+  fromPhases(
+    a: number,
+    b: number,
+    i: number,
+    j: number,
+    neighbour: Float64Array,
+    neighbourLabel: string,
+  ): void {
+    const c = this.at(i, j);
+    const { coarse, ws, trial, best, bestOrder, options, latest } = this;
+    const width = coarse.cols.length;
+    const starts: Float64Array[] = [neighbour];
+    const labels: string[] = [neighbourLabel];
+    const consider = (label: string, frame: () => Float64Array): void => {
+      if (labels.includes(label)) return;
+      labels.push(label);
+      starts.push(latest.get(label) ?? frame());
+    };
+    // Corners nearest first.
+    const corners = [0, 1, 2, 3]
+      .map((corner) => {
+        const node = (b + (corner >> 1)) * width + a + (corner & 1);
+        const d =
+          (coarse.cols[a + (corner & 1)]! - i) ** 2 + (coarse.rows[b + (corner >> 1)]! - j) ** 2;
+        return { node, d };
+      })
+      .sort((p, q) => p.d - q.d || p.node - q.node);
+    for (const { node } of corners)
+      consider(coarse.labels[node]!, () => coarse.frames.subarray(32 * node, 32 * node + 32));
+    for (const [label, frame] of latest) consider(label, () => frame);
     let bestEnergy = Infinity;
     let bestConverged = false;
-    for (let k = 0; k < m; k++) {
-      const offset = 32 * candidates[k]!;
-      for (let q = 0; q < 32; q++) trial[q] = coarse.frames[offset + q]!;
+    for (let k = 0; k < starts.length; k++) {
+      trial.set(starts[k]!);
       const guard = k > 0 && bestConverged;
       options.abandonAbove = guard ? bestEnergy - ABANDON_MARGIN * c.scale : Infinity;
       options.abandonNear = guard ? bestOrder : undefined;
@@ -128,60 +230,21 @@ export function solvePixels(
         bestConverged = r.converged;
       }
     }
-    block.frames.set(best, 32 * n);
-    const summary = summarise(c, best, nf, scratch);
+  }
+
+  /** Writes the state just solved into slot n of the block. */
+  store(block: PixelBlock, n: number): void {
+    const s = this.scratch;
+    const summary = summarise(this.couplings!, this.best, this.nf, s);
+    block.frames.set(this.best, 32 * n);
     block.energy[n] = summary.energy;
     block.gap[n] = summary.gap;
-    block.order.set(scratch.order.subarray(1, 16), 15 * n);
-    block.labels.push(summary.label);
-  }
-  return block;
-}
-
-class PixelScratch {
-  readonly projector = new Float64Array(32);
-  readonly order = new Float64Array(16);
-  readonly hamiltonian = new Float64Array(32);
-  readonly values = new Float64Array(4);
-  readonly vectors = new Float64Array(32);
-}
-
-/** Energy, label and quasiparticle gap of a frame (gap without E_X unless the model sets it). */
-function summarise(
-  c: Couplings,
-  frame: Float64Array,
-  nf: number,
-  s: PixelScratch,
-): { energy: number; gap: number; label: string } {
-  projectorOf(frame, nf, s.projector);
-  orderOfProjector(s.projector, s.order);
-  let energy = c.c0 + c.eta[0]! * nf;
-  for (let k = 1; k < 16; k++)
-    energy += s.order[k]! * (c.eta[k]! + 0.5 * c.kappa[k]! * s.order[k]!);
-  hartreeFockOfOrder(c, s.order, s.hamiltonian);
-  hermitianEigen4(s.hamiltonian, s.values, s.vectors);
-  // Classify eigenvectors as occupied (v^dagger P v near 1) or empty.
-  let highestOccupied = -Infinity;
-  let lowestEmpty = Infinity;
-  for (let k = 0; k < 4; k++) {
-    let weight = 0;
-    for (let r = 0; r < 4; r++) {
-      for (let col = 0; col < 4; col++) {
-        const vr = s.vectors[8 * k + 2 * r]!;
-        const vi = s.vectors[8 * k + 2 * r + 1]!;
-        const wr = s.vectors[8 * k + 2 * col]!;
-        const wi = s.vectors[8 * k + 2 * col + 1]!;
-        const pr = s.projector[2 * (4 * r + col)]!;
-        const pi = s.projector[2 * (4 * r + col) + 1]!;
-        // conj(v_r) P_rc w_c, real part
-        const ar = vr * pr + vi * pi;
-        const ai = vr * pi - vi * pr;
-        weight += ar * wr - ai * wi;
-      }
+    block.order.set(s.order.subarray(1, 16), 15 * n);
+    block.labels[n] = summary.label;
+    if (this.tracking) {
+      const kept = this.latest.get(summary.label);
+      if (kept) kept.set(this.best);
+      else this.latest.set(summary.label, Float64Array.from(this.best));
     }
-    if (weight > 0.5) highestOccupied = Math.max(highestOccupied, s.values[k]!);
-    else lowestEmpty = Math.min(lowestEmpty, s.values[k]!);
   }
-  const gap = lowestEmpty - highestOccupied + c.exchange;
-  return { energy, gap, label: phaseLabel(s.order, c, modelSymmetry(c)) };
 }

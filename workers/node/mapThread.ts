@@ -1,17 +1,24 @@
 import { parentPort } from 'node:worker_threads';
 import { expose, transfer } from 'comlink';
 import nodeEndpoint from 'comlink/dist/esm/node-adapter.mjs';
-import { locateCrossings, solveCoarseNodes, solvePixels } from '../../solver/index';
-import type { CoarseNodes, Crossing, MapInput, PixelBlock } from '../../solver/index';
+import { locateCrossings, solveCells, solveCoarseNodes } from '../../solver/index';
+import type { CoarseBlock, CoarseNodes, Crossing, MapInput, PixelBlock } from '../../solver/index';
 
 /** The Map stages, exposed to the CLI's thread pool; all logic lives in solver/. */
 const mapThreadApi = {
-  coarse(input: MapInput, first: number, count: number): Float64Array {
-    const frames = solveCoarseNodes(input, first, count);
-    return transfer(frames, [frames.buffer]);
+  coarse(input: MapInput, nodes: Int32Array): CoarseBlock {
+    const b = solveCoarseNodes(input, nodes);
+    return transfer(b, [b.frames.buffer, b.energy.buffer, b.order.buffer, b.gap.buffer]);
   },
-  pixels(input: MapInput, coarse: CoarseNodes, start: number, count: number): PixelBlock {
-    const b = solvePixels(input, coarse, start, count);
+  cells(
+    input: MapInput,
+    coarse: CoarseNodes,
+    a0: number,
+    b0: number,
+    a1: number,
+    b1: number,
+  ): PixelBlock {
+    const b = solveCells(input, coarse, a0, b0, a1, b1);
     return transfer(b, [b.energy.buffer, b.order.buffer, b.gap.buffer, b.frames.buffer]);
   },
   crossings(

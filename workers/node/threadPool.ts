@@ -49,8 +49,9 @@ export class ThreadPool {
   }
 
   readonly stages: MapStages = {
-    coarse: (input, first, count) => this.run((r) => r.coarse(input, first, count)),
-    pixels: (input, coarse, start, count) => this.run((r) => r.pixels(input, coarse, start, count)),
+    coarse: (input, nodes) => this.run((r) => r.coarse(input, nodes)),
+    cells: (input, coarse, a0, b0, a1, b1) =>
+      this.run((r) => r.cells(input, coarse, a0, b0, a1, b1)),
     crossings: (input, edges, frames, labels) =>
       this.run((r) => r.crossings(input, edges, frames, labels)),
   };
