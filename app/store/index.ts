@@ -1,0 +1,48 @@
+import { create } from 'zustand';
+import { createJSONStorage, persist } from 'zustand/middleware';
+import { scenarioToSetup, setupToScenario } from '../scenario/scenario';
+import { createMapSlice, type MapSlice } from './mapSlice';
+import { createSetupSlice, type SetupSlice } from './setupSlice';
+import { createViewSlice, type ViewSlice } from './viewSlice';
+
+export type FourfoldState = SetupSlice & MapSlice & ViewSlice;
+
+/**
+ * What survives a reload, in one table: each persisted key with how it is written and read
+ * back. Only these are stored; everything else (map results, hover) is recomputed.
+ */
+export const PERSISTED = {
+  setup: {
+    save: (s: FourfoldState) => setupToScenario(s.setup),
+    // A stored scenario that no longer validates is ignored (the default stays).
+    load: (json: unknown) => scenarioToSetup(json),
+  },
+} as const;
+
+export const STORAGE_KEY = 'fourfold.autosave.v1';
+
+export const useFourfold = create<FourfoldState>()(
+  persist(
+    (...a) => ({ ...createSetupSlice(...a), ...createMapSlice(...a), ...createViewSlice(...a) }),
+    {
+      name: STORAGE_KEY,
+      version: 1,
+      storage: createJSONStorage(() => localStorage),
+      partialize: (s) =>
+        Object.fromEntries(
+          Object.entries(PERSISTED).map(([key, entry]) => [key, entry.save(s)]),
+        ) as unknown as FourfoldState,
+      merge: (persisted, current) => {
+        const out: FourfoldState = { ...current };
+        if (persisted && typeof persisted === 'object' && 'setup' in persisted) {
+          try {
+            Object.assign(out, { setup: PERSISTED.setup.load(persisted.setup) });
+          } catch {
+            // Keep the default setup; the stored one came from an older or edited copy.
+          }
+        }
+        return out;
+      },
+    },
+  ),
+);
