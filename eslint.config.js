@@ -48,6 +48,23 @@ export default defineConfig(
     },
   },
   {
+    // Node code that also hands functions to the page through Playwright.
+    files: ['test/bench/browser.mjs'],
+    languageOptions: {
+      globals: Object.fromEntries(
+        [
+          'Buffer',
+          'fetch',
+          'setTimeout',
+          'performance',
+          'window',
+          'navigator',
+          'PerformanceObserver',
+        ].map((name) => [name, 'readonly']),
+      ),
+    },
+  },
+  {
     files: ['solver/**'],
     rules: {
       'no-restricted-imports': ['error', solverBoundary],

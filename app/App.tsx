@@ -1,104 +1,47 @@
-import { useEffect, useRef, useState } from 'react';
-import { createSolveClient, type SolveClient, type SolveJson } from '../workers/solveClient';
-import { EXAMPLE_MODEL_TEXT } from './exampleModel';
+import { useEffect } from 'react';
+import { startMapDriver } from './mapDriver';
+import { Legend } from './map/Legend';
+import { MapView } from './map/MapView';
 import { MeanFieldCautions } from './probe/MeanFieldCautions';
-import { ProbeResult } from './probe/ProbeResult';
+import { Readout } from './readout/Readout';
+import { NoticeLine } from './scenario/NoticeLine';
+import { ScenarioBar } from './scenario/ScenarioBar';
+import { useScenarioSync } from './scenario/useScenarioSync';
+import { SetupPanel } from './setup/SetupPanel';
+import { MapStatus } from './status/MapStatus';
 
-function oneLine(message: string): string {
-  return message.split('\n', 1)[0]?.trim() || 'Unknown error';
-}
-
-function errorMessage(error: unknown): string {
-  return oneLine(error instanceof Error ? error.message : String(error));
+/** `?baseline=cold` maps with one full search per pixel (the benchmark's baseline). */
+function mapMode(): 'staged' | 'cold' {
+  return new URLSearchParams(window.location.search).get('baseline') === 'cold' ? 'cold' : 'staged';
 }
 
 export function App() {
-  const [modelText, setModelText] = useState(EXAMPLE_MODEL_TEXT);
-  const [result, setResult] = useState<SolveJson | null>(null);
-  const [error, setError] = useState<string | null>(null);
-  const [solving, setSolving] = useState(false);
-  const clientRef = useRef<SolveClient | null>(null);
-  const latestRequest = useRef(0);
-
-  useEffect(() => {
-    const client = createSolveClient();
-    clientRef.current = client;
-    return () => {
-      clientRef.current = null;
-      client.dispose();
-    };
-  }, []);
-
-  async function handleSolve() {
-    const client = clientRef.current;
-    if (!client) return;
-    const request = ++latestRequest.current;
-
-    let modelJson: unknown;
-    try {
-      modelJson = JSON.parse(modelText);
-    } catch (parseError) {
-      setError(`The model is not valid JSON: ${errorMessage(parseError)}`);
-      return;
-    }
-
-    setSolving(true);
-    try {
-      const solved = await client.solvePoint(modelJson);
-      if (request !== latestRequest.current) return;
-      setResult(solved);
-      setError(null);
-    } catch (solveError) {
-      if (request !== latestRequest.current) return;
-      setError(errorMessage(solveError));
-    } finally {
-      if (request === latestRequest.current) setSolving(false);
-    }
-  }
-
+  useScenarioSync();
+  useEffect(() => startMapDriver(mapMode()), []);
   return (
     <div className="page">
       <header className="masthead">
-        <h1>Fourfold</h1>
-        <p>Hartree-Fock ground states of graphene&rsquo;s zero-energy Landau level</p>
+        <div className="title">
+          <h1>Fourfold</h1>
+          <p>Hartree-Fock ground states of graphene&rsquo;s zero-energy Landau level</p>
+        </div>
+        <ScenarioBar />
       </header>
-      <main className="panels">
-        <section className="panel" aria-labelledby="setup-heading">
+      <NoticeLine />
+      <main className="workspace">
+        <section className="panel setup-column" aria-labelledby="setup-heading">
           <h2 id="setup-heading">Setup</h2>
-          <label htmlFor="model-text">Model (JSON)</label>
-          <textarea
-            id="model-text"
-            data-testid="model"
-            value={modelText}
-            spellCheck={false}
-            rows={14}
-            onChange={(event) => setModelText(event.target.value)}
-            onKeyDown={(event) => {
-              if (event.key === 'Enter' && (event.ctrlKey || event.metaKey)) void handleSolve();
-            }}
-          />
-          <div className="actions">
-            <button type="button" data-testid="solve" onClick={() => void handleSolve()}>
-              Solve
-            </button>
-            <span className="hint">{solving ? 'Solving…' : 'Ctrl + Enter also solves'}</span>
-          </div>
-          {error !== null && (
-            <p className="error" role="alert" data-testid="error">
-              {error}
-            </p>
-          )}
-          {error !== null && result !== null && (
-            <p className="hint">The Probe still shows the last model that solved.</p>
-          )}
+          <SetupPanel />
         </section>
-        <section className="panel" aria-labelledby="probe-heading">
-          <h2 id="probe-heading">Probe</h2>
-          {result ? (
-            <ProbeResult result={result} />
-          ) : (
-            <p className="placeholder">Solve the model to see its ground state here.</p>
-          )}
+        <section className="panel map-column" aria-labelledby="map-heading">
+          <h2 id="map-heading">Map</h2>
+          <MapView />
+          <MapStatus />
+          <Legend />
+        </section>
+        <section className="panel readout-column" aria-labelledby="readout-heading">
+          <h2 id="readout-heading">State under the pointer</h2>
+          <Readout />
           <MeanFieldCautions />
         </section>
       </main>

@@ -26,13 +26,15 @@ export const BISECTION_TOLERANCE = 1e-9;
 
 /**
  * Stage 3: locate the transitions on the given edges. `endFrames` holds, per edge, the frames of
- * its near and far pixel (64 numbers); `endLabels` their labels.
+ * its near and far pixel (64 numbers); `endLabels` their labels. Bisection stops when the
+ * bracket is narrower than `relativeTolerance` times the axis span.
  */
 export function locateCrossings(
   input: MapInput,
   edges: Int32Array,
   endFrames: Float64Array,
   endLabels: readonly string[],
+  relativeTolerance = BISECTION_TOLERANCE,
 ): Crossing[] {
   const [nx, ny] = input.plane.resolution;
   const nf = input.model.filling + 2;
@@ -59,7 +61,7 @@ export function locateCrossings(
     const y0 = axisValue(input.plane.y, ny, j);
     const x1 = vertical ? x0 : axisValue(input.plane.x, nx, i + 1);
     const y1 = vertical ? axisValue(input.plane.y, ny, j + 1) : y0;
-    const tolerance = BISECTION_TOLERANCE * (vertical ? ny : nx);
+    const tolerance = relativeTolerance * (vertical ? ny : nx);
     const near = endLabels[2 * e]!;
     const far = endLabels[2 * e + 1]!;
     let lo = 0;

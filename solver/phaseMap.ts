@@ -20,13 +20,15 @@ export interface MapStages {
     edges: Int32Array,
     endFrames: Float64Array,
     endLabels: string[],
+    relativeTolerance?: number,
   ): Promise<Crossing[]>;
 }
 
 export const localStages: MapStages = {
   coarse: async (input, nodes) => solveCoarseNodes(input, nodes),
   cells: async (input, coarse, a0, b0, a1, b1) => solveCells(input, coarse, a0, b0, a1, b1),
-  crossings: async (input, edges, frames, labels) => locateCrossings(input, edges, frames, labels),
+  crossings: async (input, edges, frames, labels, tolerance) =>
+    locateCrossings(input, edges, frames, labels, tolerance),
 };
 
 /** Splits `total` items into about `parts` consecutive [start, count] ranges. */

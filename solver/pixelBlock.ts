@@ -2,7 +2,7 @@ import { type Couplings } from './couplings';
 import type { CoarseNodes } from './coarseNodes';
 import { DEFAULT_DESCENT, descend, type DescentOptions } from './localMinimise';
 import { DescentWorkspace } from './tangentSpace';
-import { ABANDON_MARGIN } from './minimise';
+import { DEFAULT_MINIMISE, minimiseEnergy } from './minimise';
 import { presentGroupCount } from './orderParameters';
 import { ORDER_TOLERANCE } from './phaseLabel';
 import { axisValue, PlaneCouplings, type MapInput } from './plane';
@@ -90,8 +90,10 @@ export function solveCells(
     const [jFirst, jLast] = cellSpan(coarse.rows, b, ny);
     for (let a = a0; a < a1; a++) {
       const [iFirst, iLast] = cellSpan(coarse.cols, a, nx);
-      const uniform = cellIsUniform(coarse, a, b);
-      solver.startCell(uniform);
+      if (!cellIsUniform(coarse, a, b)) {
+        solver.solveBranches(block, a, b, iFirst, iLast, jFirst, jLast);
+        continue;
+      }
       for (let j = jFirst; j < jLast; j++) {
         for (let i = iFirst; i < iLast; i++) {
           const n = (j - j0) * width + (i - i0);
@@ -106,14 +108,7 @@ export function solveCells(
                     32 * (b * coarse.cols.length + a),
                     32 * (b * coarse.cols.length + a) + 32,
                   );
-          const neighbourLabel =
-            i > iFirst
-              ? block.labels[n - 1]!
-              : j > jFirst
-                ? block.labels[n - width]!
-                : coarse.labels[b * coarse.cols.length + a]!;
-          if (uniform) solver.fromNeighbour(i, j, neighbour);
-          else solver.fromPhases(a, b, i, j, neighbour, neighbourLabel);
+          solver.fromNeighbour(i, j, neighbour);
           solver.store(block, n);
         }
       }
@@ -122,20 +117,24 @@ export function solveCells(
   return block;
 }
 
+/** Per-pixel results of every branch of a cell (slot = branch * pixels + pixel). */
+interface BranchStore {
+  frames: Float64Array;
+  energy: Float64Array;
+  converged: Uint8Array;
+  groups: Uint8Array;
+}
+
 /** The allocation-free per-pixel work of stage 2. */
 class PixelSolver {
   private readonly nf: number;
   private readonly planeCouplings: PlaneCouplings;
   private readonly ws = new DescentWorkspace();
-  private readonly trial = new Float64Array(32);
   private readonly best = new Float64Array(32);
-  private readonly bestOrder = new Float64Array(16);
   private readonly options: DescentOptions = { ...DEFAULT_DESCENT, polishSteps: 0 };
   private readonly scratch = new PixelScratch();
   private couplings: Couplings | undefined;
-  /** Latest solved frame of each phase in the current cell. */
-  private readonly latest = new Map<string, Float64Array>();
-  private tracking = false;
+  private branchBuffers: BranchStore | undefined;
 
   constructor(
     private readonly input: MapInput,
@@ -162,74 +161,103 @@ class PixelSolver {
     descend(c, this.best, this.options, this.ws);
   }
 
-  /** Starts a cell; the latest state of each phase is tracked in cells that hold a boundary. */
-  startCell(uniform: boolean): void {
-    this.latest.clear();
-    this.tracking = !uniform;
-  }
-
   /**
-   * Descends from `neighbour`, then from one state of every other phase at the cell's corners or
-   * met in the cell so far (the latest pixel of that phase, else its nearest corner); later
-   * descents stop once they cannot beat the best. Keeps the lowest minimum.
+   * A cell that holds a boundary: the state of each phase at its corners is continued over the
+   * whole cell, pixel by pixel outwards from that corner (each step one warm descent, so a
+   * metastable branch costs little), and each pixel keeps the lowest branch that converged.
+   * Among branches degenerate to rounding (lines of extra symmetry) the simplest state wins.
    */
-  fromPhases(
+  solveBranches(
+    block: PixelBlock,
     a: number,
     b: number,
-    i: number,
-    j: number,
-    neighbour: Float64Array,
-    neighbourLabel: string,
+    iFirst: number,
+    iLast: number,
+    jFirst: number,
+    jLast: number,
   ): void {
-    const c = this.at(i, j);
-    const { coarse, ws, trial, best, bestOrder, options, latest } = this;
+    const { coarse, ws, options } = this;
     const width = coarse.cols.length;
-    const starts: Float64Array[] = [neighbour];
-    const labels: string[] = [neighbourLabel];
-    const consider = (label: string, frame: () => Float64Array): void => {
-      if (labels.includes(label)) return;
-      labels.push(label);
-      starts.push(latest.get(label) ?? frame());
-    };
-    // Corners nearest first.
-    const corners = [0, 1, 2, 3]
-      .map((corner) => {
-        const node = (b + (corner >> 1)) * width + a + (corner & 1);
-        const d =
-          (coarse.cols[a + (corner & 1)]! - i) ** 2 + (coarse.rows[b + (corner >> 1)]! - j) ** 2;
-        return { node, d };
-      })
-      .sort((p, q) => p.d - q.d || p.node - q.node);
-    for (const { node } of corners)
-      consider(coarse.labels[node]!, () => coarse.frames.subarray(32 * node, 32 * node + 32));
-    for (const [label, frame] of latest) consider(label, () => frame);
-    let bestEnergy = Infinity;
-    let bestConverged = false;
-    for (let k = 0; k < starts.length; k++) {
-      trial.set(starts[k]!);
-      const guard = k > 0 && bestConverged;
-      options.abandonAbove = guard ? bestEnergy - ABANDON_MARGIN * c.scale : Infinity;
-      options.abandonNear = guard ? bestOrder : undefined;
-      const r = descend(c, trial, options, ws);
-      if (r.abandoned) continue;
-      // Among states degenerate to rounding (on lines of extra symmetry) keep the simplest.
-      const tie =
-        r.converged === bestConverged &&
-        Math.abs(r.energy - bestEnergy) <= 1e-12 * c.scale &&
-        presentGroupCount(ws.order, ORDER_TOLERANCE) <
-          presentGroupCount(bestOrder, ORDER_TOLERANCE);
-      if (
-        k === 0 ||
-        (r.converged && !bestConverged) ||
-        (r.converged === bestConverged && r.energy < bestEnergy - 1e-12 * c.scale) ||
-        tie
-      ) {
-        best.set(trial);
-        bestOrder.set(ws.order);
-        bestEnergy = r.energy;
-        bestConverged = r.converged;
+    const w = iLast - iFirst;
+    const h = jLast - jFirst;
+    const size = w * h;
+    const branchCorners: number[] = [];
+    const seen: string[] = [];
+    for (let corner = 0; corner < 4; corner++) {
+      const node = (b + (corner >> 1)) * width + a + (corner & 1);
+      if (seen.includes(coarse.labels[node]!)) continue;
+      seen.push(coarse.labels[node]!);
+      branchCorners.push(corner);
+    }
+    const branches = branchCorners.length;
+    const store = this.branchStore(branches * size);
+    options.abandonAbove = Infinity;
+    options.abandonNear = undefined;
+    for (let k = 0; k < branches; k++) {
+      const corner = branchCorners[k]!;
+      const node = (b + (corner >> 1)) * width + a + (corner & 1);
+      // Scan away from the branch's corner: rows nearest it first, each row from its side.
+      const right = (corner & 1) === 1;
+      const top = corner >> 1 === 1;
+      for (let r = 0; r < h; r++) {
+        const j = top ? jLast - 1 - r : jFirst + r;
+        for (let q = 0; q < w; q++) {
+          const i = right ? iLast - 1 - q : iFirst + q;
+          const slot = k * size + (j - jFirst) * w + (i - iFirst);
+          const frame = store.frames.subarray(32 * slot, 32 * slot + 32);
+          const from =
+            q > 0
+              ? store.frames.subarray(
+                  32 * (slot + (right ? 1 : -1)),
+                  32 * (slot + (right ? 1 : -1)) + 32,
+                )
+              : r > 0
+                ? store.frames.subarray(
+                    32 * (slot + (top ? w : -w)),
+                    32 * (slot + (top ? w : -w)) + 32,
+                  )
+                : coarse.frames.subarray(32 * node, 32 * node + 32);
+          frame.set(from);
+          const result = descend(this.at(i, j), frame, options, ws);
+          store.energy[slot] = result.energy;
+          store.converged[slot] = result.converged ? 1 : 0;
+          store.groups[slot] = presentGroupCount(ws.order, ORDER_TOLERANCE);
+        }
       }
     }
+    const blockWidth = block.width;
+    for (let j = jFirst; j < jLast; j++) {
+      for (let i = iFirst; i < iLast; i++) {
+        const local = (j - jFirst) * w + (i - iFirst);
+        let pick = local;
+        for (let k = 1; k < branches; k++) {
+          const slot = k * size + local;
+          const scale = this.at(i, j).scale;
+          const better =
+            store.converged[slot]! > store.converged[pick]! ||
+            (store.converged[slot] === store.converged[pick] &&
+              (store.energy[slot]! < store.energy[pick]! - 1e-12 * scale ||
+                (Math.abs(store.energy[slot]! - store.energy[pick]!) <= 1e-12 * scale &&
+                  store.groups[slot]! < store.groups[pick]!)));
+          if (better) pick = slot;
+        }
+        this.at(i, j);
+        this.best.set(store.frames.subarray(32 * pick, 32 * pick + 32));
+        this.store(block, (j - block.j0) * blockWidth + (i - block.i0));
+      }
+    }
+  }
+
+  private branchStore(count: number): BranchStore {
+    if (this.branchBuffers === undefined || this.branchBuffers.energy.length < count) {
+      this.branchBuffers = {
+        frames: new Float64Array(32 * count),
+        energy: new Float64Array(count),
+        converged: new Uint8Array(count),
+        groups: new Uint8Array(count),
+      };
+    }
+    return this.branchBuffers;
   }
 
   /** Writes the state just solved into slot n of the block. */
@@ -241,10 +269,41 @@ class PixelSolver {
     block.gap[n] = summary.gap;
     block.order.set(s.order.subarray(1, 16), 15 * n);
     block.labels[n] = summary.label;
-    if (this.tracking) {
-      const kept = this.latest.get(summary.label);
-      if (kept) kept.set(this.best);
-      else this.latest.set(summary.label, Float64Array.from(this.best));
-    }
   }
+}
+
+/**
+ * Rows [j0, j0 + rows) with a full cold search at every pixel: no coarse grid, no warm starts,
+ * no adaptivity. The baseline that the Map's staged computation is measured against.
+ */
+export function solveRowsCold(input: MapInput, j0: number, rows: number): PixelBlock {
+  const [nx, ny] = input.plane.resolution;
+  const nf = input.model.filling + 2;
+  const planeCouplings = new PlaneCouplings(input);
+  const count = nx * rows;
+  const block: PixelBlock = {
+    i0: 0,
+    j0,
+    width: nx,
+    height: rows,
+    energy: new Float64Array(count),
+    order: new Float64Array(15 * count),
+    gap: new Float64Array(count),
+    frames: new Float64Array(32 * count),
+    labels: new Array<string>(count),
+  };
+  const scratch = new PixelScratch();
+  for (let n = 0; n < count; n++) {
+    const i = n % nx;
+    const j = j0 + Math.floor(n / nx);
+    const c = planeCouplings.at(axisValue(input.plane.x, nx, i), axisValue(input.plane.y, ny, j));
+    const frame = minimiseEnergy(c, DEFAULT_MINIMISE).frame;
+    const summary = summarise(c, frame, nf, scratch);
+    block.frames.set(frame, 32 * n);
+    block.energy[n] = summary.energy;
+    block.gap[n] = summary.gap;
+    block.order.set(scratch.order.subarray(1, 16), 15 * n);
+    block.labels[n] = summary.label;
+  }
+  return block;
 }

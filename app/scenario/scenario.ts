@@ -93,8 +93,7 @@ function axisFromPlane(
   const base = { from: axis.from, to: axis.to, hartreeRatio: 1 };
   const only = (keys: string[]) =>
     Object.keys(t).every((k) => keys.includes(k)) && keys.every((k) => k in t);
-  if (only(['zeeman']) && t.zeeman === 1)
-    return { axis: { ...base, quantity: 'zeeman' }, ratios };
+  if (only(['zeeman']) && t.zeeman === 1) return { axis: { ...base, quantity: 'zeeman' }, ratios };
   if (only(['valleyZeeman']) && t.valleyZeeman === 1)
     return { axis: { ...base, quantity: 'valleyZeeman' }, ratios };
   const r = t['x0.hartree'] ?? 0;

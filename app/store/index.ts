@@ -1,5 +1,5 @@
 import { create } from 'zustand';
-import { createJSONStorage, persist } from 'zustand/middleware';
+import { createJSONStorage, persist, type StateStorage } from 'zustand/middleware';
 import { scenarioToSetup, setupToScenario } from '../scenario/scenario';
 import { createMapSlice, type MapSlice } from './mapSlice';
 import { createSetupSlice, type SetupSlice } from './setupSlice';
@@ -21,13 +21,30 @@ export const PERSISTED = {
 
 export const STORAGE_KEY = 'fourfold.autosave.v1';
 
+/**
+ * localStorage that skips writing a value it wrote last: the store changes on every hover and
+ * map update, the persisted setup only when the user edits it.
+ */
+function unchangedSkippingStorage(): StateStorage {
+  let last: string | null = null;
+  return {
+    getItem: (name) => localStorage.getItem(name),
+    setItem: (name, value) => {
+      if (value === last) return;
+      last = value;
+      localStorage.setItem(name, value);
+    },
+    removeItem: (name) => localStorage.removeItem(name),
+  };
+}
+
 export const useFourfold = create<FourfoldState>()(
   persist(
     (...a) => ({ ...createSetupSlice(...a), ...createMapSlice(...a), ...createViewSlice(...a) }),
     {
       name: STORAGE_KEY,
       version: 1,
-      storage: createJSONStorage(() => localStorage),
+      storage: createJSONStorage(unchangedSkippingStorage),
       partialize: (s) =>
         Object.fromEntries(
           Object.entries(PERSISTED).map(([key, entry]) => [key, entry.save(s)]),

@@ -1,0 +1,82 @@
+import {
+  useCallback,
+  useLayoutEffect,
+  useRef,
+  useState,
+  type PointerEvent,
+  type RefObject,
+} from 'react';
+import { useFourfold } from '../store/index';
+import './map.css';
+import { Overlay } from './Overlay';
+import { PLOT_MARGIN, plotSide } from './plotFrame';
+import { pixelAtFraction } from './plotPixels';
+import { RegionLayer } from './RegionLayer';
+
+/** Width available to the view, followed as the layout changes (0 before the first measure). */
+function useContentWidth(): [RefObject<HTMLDivElement | null>, number] {
+  const ref = useRef<HTMLDivElement>(null);
+  const [width, setWidth] = useState(0);
+  useLayoutEffect(() => {
+    const element = ref.current;
+    if (!element) return;
+    setWidth(element.clientWidth);
+    const observer = new ResizeObserver((entries) => {
+      for (const entry of entries) setWidth(entry.contentRect.width);
+    });
+    observer.observe(element);
+    return () => observer.disconnect();
+  }, []);
+  return [ref, width];
+}
+
+/**
+ * The Map: the region canvas with its vector overlay (axes, boundaries, crosshair) in a square
+ * plot that fits the available width. Moving the pointer over the plot sets the hovered pixel.
+ */
+export function MapView() {
+  const hasGrid = useFourfold((s) => s.map.grid !== null);
+  const [ref, width] = useContentWidth();
+  const side = plotSide(width);
+
+  const onPointerMove = useCallback((event: PointerEvent<HTMLCanvasElement>) => {
+    const { map, view, setHover } = useFourfold.getState();
+    if (map.grid === null) return;
+    const box = event.currentTarget.getBoundingClientRect();
+    const pixel = pixelAtFraction(
+      (event.clientX - box.left) / box.width,
+      (event.clientY - box.top) / box.height,
+      map.grid.nx,
+      map.grid.ny,
+    );
+    const current = view.hover;
+    if (pixel === null) {
+      if (current !== null) setHover(null);
+    } else if (current === null || current.i !== pixel.i || current.j !== pixel.j) {
+      setHover(pixel);
+    }
+  }, []);
+  const onPointerLeave = useCallback(() => {
+    const { view, setHover } = useFourfold.getState();
+    if (view.hover !== null) setHover(null);
+  }, []);
+
+  return (
+    <div className="map-view" data-testid="map" ref={ref}>
+      {hasGrid ? (
+        <div
+          className="map-figure"
+          style={{
+            width: PLOT_MARGIN.left + side + PLOT_MARGIN.right,
+            height: PLOT_MARGIN.top + side + PLOT_MARGIN.bottom,
+          }}
+        >
+          <RegionLayer side={side} onPointerMove={onPointerMove} onPointerLeave={onPointerLeave} />
+          <Overlay side={side} />
+        </div>
+      ) : (
+        <p className="map-placeholder">The Map appears here once the Setup has been mapped.</p>
+      )}
+    </div>
+  );
+}

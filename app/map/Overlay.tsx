@@ -1,0 +1,166 @@
+import { axisBottom, axisLeft, axisRight, axisTop, line, scaleLinear, select } from 'd3';
+import type { ScaleLinear } from 'd3';
+import { memo, useEffect, useId, useMemo, useRef } from 'react';
+import type { Boundary, Plane } from '../../solver/index';
+import { useFourfold } from '../store/index';
+import { axisTitle } from './axisTitle';
+import { PLOT_MARGIN } from './plotFrame';
+
+type Scale = ScaleLinear<number, number>;
+
+export interface OverlayProps {
+  /** Side of the square plot, CSS pixels. */
+  readonly side: number;
+}
+
+/** Axis scales of the plot: x.from at the left edge, y.from at the bottom edge. */
+function planeScales(plane: Plane, side: number): { x: Scale; y: Scale } {
+  return {
+    x: scaleLinear().domain([plane.x.from, plane.x.to]).range([0, side]),
+    y: scaleLinear().domain([plane.y.from, plane.y.to]).range([side, 0]),
+  };
+}
+
+/**
+ * The vector layer over the region canvas: the plot frame, ticks on all four sides (numbers on
+ * the left and bottom), typeset axis titles, the boundaries and the hover crosshair. It takes no
+ * pointer events; the canvas underneath does.
+ */
+export function Overlay({ side }: OverlayProps) {
+  const plane = useFourfold((s) => s.map.grid?.input.plane ?? null);
+  const scales = useMemo(() => (plane ? planeScales(plane, side) : null), [plane, side]);
+  const clipId = `map-clip-${useId().replace(/[^A-Za-z0-9_-]/g, '')}`;
+  if (plane === null || scales === null) return null;
+  const width = PLOT_MARGIN.left + side + PLOT_MARGIN.right;
+  const height = PLOT_MARGIN.top + side + PLOT_MARGIN.bottom;
+  return (
+    <svg className="map-overlay" width={width} height={height} aria-hidden="true">
+      <defs>
+        <clipPath id={clipId}>
+          <rect width={side} height={side} />
+        </clipPath>
+      </defs>
+      <g transform={`translate(${PLOT_MARGIN.left},${PLOT_MARGIN.top})`}>
+        <g clipPath={`url(#${clipId})`}>
+          <Boundaries x={scales.x} y={scales.y} />
+          <Crosshair x={scales.x} y={scales.y} side={side} />
+        </g>
+        <rect className="map-frame" width={side} height={side} />
+        <Axes x={scales.x} y={scales.y} side={side} />
+        <AxisTitleText
+          label={plane.x.label}
+          fallback="x"
+          transform={`translate(${side / 2},${side + PLOT_MARGIN.bottom - 8})`}
+        />
+        <AxisTitleText
+          label={plane.y.label}
+          fallback="y"
+          transform={`translate(${-PLOT_MARGIN.left + 15},${side / 2}) rotate(-90)`}
+        />
+      </g>
+    </svg>
+  );
+}
+
+/** d3 axes drawn into their groups; tick count follows the plot size. */
+function Axes({ x, y, side }: { x: Scale; y: Scale; side: number }) {
+  const bottom = useRef<SVGGElement>(null);
+  const left = useRef<SVGGElement>(null);
+  const top = useRef<SVGGElement>(null);
+  const right = useRef<SVGGElement>(null);
+  useEffect(() => {
+    const count = Math.max(4, Math.round(side / 80));
+    const blank = (): string => '';
+    select(bottom.current!).call(axisBottom(x).ticks(count).tickSizeOuter(0));
+    select(left.current!).call(axisLeft(y).ticks(count).tickSizeOuter(0));
+    select(top.current!).call(axisTop(x).ticks(count).tickSizeOuter(0).tickFormat(blank));
+    select(right.current!).call(axisRight(y).ticks(count).tickSizeOuter(0).tickFormat(blank));
+  }, [x, y, side]);
+  return (
+    <g className="map-axes">
+      <g ref={bottom} className="map-axis" transform={`translate(0,${side})`} />
+      <g ref={left} className="map-axis" />
+      <g ref={top} className="map-axis map-axis-mirror" />
+      <g ref={right} className="map-axis map-axis-mirror" transform={`translate(${side},0)`} />
+    </g>
+  );
+}
+
+/** An axis title as SVG text: the symbol (italic when a single Latin letter), its subscript. */
+function AxisTitleText({
+  label,
+  fallback,
+  transform,
+}: {
+  label: string;
+  fallback: string;
+  transform: string;
+}) {
+  const { symbol, subscript } = axisTitle(label, fallback);
+  const italic = /^[A-Za-z]$/.test(symbol);
+  return (
+    <text className="map-axis-title" transform={transform} textAnchor="middle">
+      <tspan fontStyle={italic ? 'italic' : undefined}>{symbol}</tspan>
+      {subscript !== '' && (
+        <tspan className="map-axis-subscript" dy="0.32em" fontSize="0.72em">
+          {subscript}
+        </tspan>
+      )}
+    </text>
+  );
+}
+
+/** Boundaries in axis coordinates: first order solid, continuous dashed, each over a halo. */
+const Boundaries = memo(function Boundaries({ x, y }: { x: Scale; y: Scale }) {
+  const boundaries = useFourfold((s) => s.map.boundaries);
+  const path = useMemo(
+    () =>
+      line<readonly [number, number]>()
+        .x((p) => x(p[0]))
+        .y((p) => y(p[1])),
+    [x, y],
+  );
+  return (
+    <g className="map-boundaries">
+      {boundaries.map((b: Boundary, n) => {
+        const d = b.points.length >= 2 ? path(b.points) : null;
+        if (d === null) return null;
+        const kind = b.order === 'first' ? 'map-boundary-first' : 'map-boundary-continuous';
+        return (
+          <g key={n} className={kind} data-order={b.order} data-between={b.between.join('|')}>
+            <path className="map-boundary-halo" d={d} />
+            <path className="map-boundary-line" d={d} />
+          </g>
+        );
+      })}
+    </g>
+  );
+});
+
+/** Thin lines through the centre of the hovered pixel, and the pixel's outline. */
+function Crosshair({ x, y, side }: { x: Scale; y: Scale; side: number }) {
+  const hover = useFourfold((s) => s.view.hover);
+  const grid = useFourfold((s) => s.map.grid);
+  if (hover === null || grid === null || hover.i >= grid.nx || hover.j >= grid.ny) return null;
+  const cx = x(grid.x[hover.i]!);
+  const cy = y(grid.y[hover.j]!);
+  const w = Math.max(6, side / grid.nx);
+  const h = Math.max(6, side / grid.ny);
+  return (
+    <g className="map-crosshair" data-testid="map-crosshair" data-i={hover.i} data-j={hover.j}>
+      {(
+        [
+          ['across', `M${cx},0V${cy - h}M${cx},${cy + h}V${side}`],
+          ['along', `M0,${cy}H${cx - w}M${cx + w},${cy}H${side}`],
+        ] as const
+      ).map(([key, d]) => (
+        <g key={key}>
+          <path className="map-crosshair-halo" d={d} />
+          <path className="map-crosshair-line" d={d} />
+        </g>
+      ))}
+      <rect className="map-crosshair-halo" x={cx - w / 2} y={cy - h / 2} width={w} height={h} />
+      <rect className="map-crosshair-line" x={cx - w / 2} y={cy - h / 2} width={w} height={h} />
+    </g>
+  );
+}

@@ -1,0 +1,37 @@
+import { legendOf, TOKEN_MEANINGS } from '../../solver/index';
+import { labelColours } from '../figure/palette';
+
+export interface LegendEntry {
+  readonly label: string;
+  /** Colours of the label's tokens (several for a composite: drawn as stripes). */
+  readonly colours: readonly string[];
+  /** What the tokens stand for, '; '-separated. */
+  readonly meaning: string;
+  /** Fraction of all grid pixels (pixels not computed yet count in the total). */
+  readonly share: number;
+}
+
+/** The solver names a state with no broken symmetry 'sym'; it has no TOKEN_MEANINGS entry. */
+function tokenMeaning(token: string): string {
+  return token === 'sym' ? 'no broken symmetry' : (TOKEN_MEANINGS[token] ?? token);
+}
+
+/** One entry per computed label, largest area first (ties by name, as legendOf orders them). */
+export function legendEntries(labels: readonly string[]): LegendEntry[] {
+  const total = labels.length;
+  return legendOf(labels)
+    .filter((entry) => entry.label !== '')
+    .map((entry) => ({
+      label: entry.label,
+      colours: labelColours(entry.label),
+      meaning: entry.label.split('+').map(tokenMeaning).join('; '),
+      share: total > 0 ? entry.pixels / total : 0,
+    }));
+}
+
+/** A share as a short percentage: '37%', '4.2%', '<0.1%'. */
+export function formatShare(share: number): string {
+  const percent = 100 * share;
+  if (percent > 0 && percent < 0.1) return '<0.1%';
+  return `${percent >= 10 ? Math.round(percent) : Number(percent.toFixed(1))}%`;
+}

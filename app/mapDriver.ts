@@ -1,0 +1,160 @@
+import { ModelError, type MapInput } from '../solver/index';
+import { createMapScheduler } from '../workers/mapClient';
+import type { MapMode, MapScheduler } from '../workers/mapScheduler';
+import { setupToMapInput, setupToScenario } from './scenario/scenario';
+import type { Setup } from './scenario/setup';
+import { useFourfold, type FourfoldState } from './store/index';
+
+/** Performance-timeline names (read by the benchmark through Playwright). */
+export const MARK_COARSE = 'fourfold:coarse';
+export const MARK_DONE = 'fourfold:done';
+
+/** Progressive redraws while a map refines, at most one per this many milliseconds. */
+const REDRAW_MS = 100;
+
+/** Runs `then` once the next frame's drawing (requestAnimationFrame callbacks) is done. */
+function afterPaint(then: () => void): void {
+  requestAnimationFrame(() => setTimeout(then, 0));
+}
+
+type MapPatch = Parameters<FourfoldState['setMap']>[0];
+
+function oneLine(error: unknown): string {
+  const text = error instanceof Error ? error.message : String(error);
+  return text.split('\n', 1)[0]!;
+}
+
+/**
+ * Keeps the Map in step with the Setup: every setup change that validates starts a new job (the
+ * old one is dropped); one that does not is reported and the last valid map stays. While a job
+ * has not yet shown its first coarse frame, a newer change waits for it (only the latest waits),
+ * so dragging a slider keeps the map moving instead of restarting it on every input event.
+ * Returns a function that stops the driver.
+ */
+export function startMapDriver(mode: MapMode = 'staged'): () => void {
+  const store = useFourfold;
+  let scheduler: MapScheduler | null = null;
+  let stopped = false;
+  let awaitingCoarse = false;
+  let pending: { setup: Setup; changedAt: number } | null = null;
+
+  const launch = (setup: Setup, changedAt: number): void => {
+    if (!scheduler) {
+      pending = { setup, changedAt };
+      return;
+    }
+    let input: MapInput;
+    let json: string;
+    try {
+      input = setupToMapInput(setup);
+      json = JSON.stringify(setupToScenario(setup));
+    } catch (error) {
+      store
+        .getState()
+        .setSetupProblem(
+          error instanceof ModelError
+            ? `${oneLine(error)}. The map shows the last valid setup.`
+            : oneLine(error),
+        );
+      return;
+    }
+    store.getState().setSetupProblem(null);
+    awaitingCoarse = true;
+    // Results arrive in bursts of many small tasks: the store (and so React and the canvas)
+    // hears of them at most every REDRAW_MS, leaving the cores to the workers.
+    let queued: MapPatch | null = null;
+    const publish = () => {
+      if (queued === null) return;
+      const patch = queued;
+      queued = null;
+      store.getState().setMap({ ...patch, version: store.getState().map.version + 1 });
+    };
+    const bump = (patch: MapPatch, now = false) => {
+      const first = queued === null;
+      queued = { ...queued, ...patch };
+      if (now) publish();
+      else if (first) setTimeout(publish, REDRAW_MS);
+    };
+    const job = scheduler.start(
+      input,
+      json,
+      {
+        update: (grid, phase) => {
+          if (job !== scheduler?.current) return;
+          bump({ grid, phase });
+        },
+        coarse: () => {
+          if (job !== scheduler?.current) return;
+          const ms = performance.now() - changedAt;
+          afterPaint(() =>
+            performance.measure(MARK_COARSE, { start: changedAt, detail: { job, mode } }),
+          );
+          bump({ coarseMs: ms }, true);
+          awaitingCoarse = false;
+          flush();
+        },
+        done: (grid, boundaries) => {
+          if (job !== scheduler?.current) return;
+          const ms = performance.now() - changedAt;
+          afterPaint(() =>
+            performance.measure(MARK_DONE, { start: changedAt, detail: { job, mode } }),
+          );
+          bump({ grid, boundaries, phase: 'done', doneMs: ms }, true);
+        },
+        problem: (text) => {
+          if (job !== scheduler?.current) return;
+          awaitingCoarse = false;
+          bump({ problem: text }, true);
+          flush();
+        },
+      },
+      mode,
+    );
+    // A new job keeps showing the previous grid until its own first results arrive.
+    bump(
+      { job, phase: 'coarse', boundaries: [], coarseMs: null, doneMs: null, problem: null },
+      true,
+    );
+  };
+
+  const flush = (): void => {
+    if (pending && !awaitingCoarse && !stopped) {
+      const next = pending;
+      pending = null;
+      launch(next.setup, next.changedAt);
+    }
+  };
+
+  const changed = (setup: Setup): void => {
+    const changedAt = performance.now();
+    if (awaitingCoarse || !scheduler) pending = { setup, changedAt };
+    else launch(setup, changedAt);
+  };
+
+  const unsubscribe = store.subscribe((state, previous) => {
+    if (state.setup !== previous.setup) changed(state.setup);
+  });
+  changed(store.getState().setup);
+
+  let pool: { close(): void } | null = null;
+  createMapScheduler()
+    .then((created) => {
+      if (stopped) {
+        created.pool.close();
+        return;
+      }
+      scheduler = created.scheduler;
+      pool = created.pool;
+      flush();
+    })
+    .catch((error: unknown) => {
+      store.getState().setMap({ problem: `The map workers could not start: ${oneLine(error)}` });
+    });
+
+  return () => {
+    stopped = true;
+    unsubscribe();
+    scheduler?.stop();
+    pool?.close();
+  };
+}

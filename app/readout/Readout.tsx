@@ -1,0 +1,143 @@
+import {
+  CHANNELS,
+  ORDER_GROUPS,
+  ORDER_TOLERANCE,
+  PIXEL_SOLVED,
+  TOKEN_MEANINGS,
+  groupMagnitudes,
+  orderAngles,
+} from '../../solver/index';
+import { formatFixed } from '../format';
+import { useFourfold } from '../store/index';
+import { AxisName } from './AxisName';
+
+const DEGREES = 180 / Math.PI;
+
+/**
+ * The state under the pointer: position, phase label, energy, gap, and the order parameters
+ * grouped as in model.md section 6 with the angles that mean something (canting, bond phase).
+ */
+export function Readout() {
+  const hover = useFourfold((s) => s.view.hover);
+  const grid = useFourfold((s) => s.map.grid);
+  // Redraw when the grid under the pointer is refined.
+  useFourfold((s) => s.map.version);
+  if (!grid || !hover || hover.i >= grid.nx || hover.j >= grid.ny) {
+    return (
+      <section className="readout" data-testid="readout" aria-live="polite">
+        <p className="placeholder">Point at the map to read the state there.</p>
+      </section>
+    );
+  }
+  const p = hover.j * grid.nx + hover.i;
+  const { x: ax, y: ay } = grid.input.plane;
+  const label = grid.labels[p] ?? '';
+  const solved = grid.status[p] === PIXEL_SOLVED;
+  const order = new Float64Array(16);
+  for (let k = 1; k < 16; k++) order[k] = grid.order[15 * p + k - 1]!;
+  const magnitudes = groupMagnitudes(order);
+  const angles = orderAngles(order, ORDER_TOLERANCE);
+  const neelInPlane = magnitudes[ORDER_GROUPS.findIndex((g) => g.key === 'neelInPlane')]!;
+  const bond = magnitudes[ORDER_GROUPS.findIndex((g) => g.key === 'bondOrder')]!;
+  return (
+    <section className="readout" data-testid="readout" aria-live="polite">
+      <dl className="readout-position">
+        <div>
+          <dt>
+            <AxisName label={ax.label} />
+          </dt>
+          <dd data-testid="readout-x" data-value={grid.x[hover.i]}>
+            {formatFixed(grid.x[hover.i]!, 4)}
+          </dd>
+        </div>
+        <div>
+          <dt>
+            <AxisName label={ay.label} />
+          </dt>
+          <dd data-testid="readout-y" data-value={grid.y[hover.j]}>
+            {formatFixed(grid.y[hover.j]!, 4)}
+          </dd>
+        </div>
+      </dl>
+      <p className="readout-phase">
+        <strong data-testid="readout-phase">{label || '…'}</strong>
+        <span className="readout-meaning">
+          {label
+            .split('+')
+            .map((t) => TOKEN_MEANINGS[t] ?? (t === 'sym' ? 'no broken symmetry' : t))
+            .join('; ')}
+        </span>
+      </p>
+      {!solved ? (
+        <p className="placeholder">Coarse preview: this pixel is still being solved.</p>
+      ) : (
+        <>
+          <dl className="figures">
+            <div>
+              <dt>Energy per flux quantum</dt>
+              <dd data-testid="readout-energy" data-value={grid.energy[p]}>
+                {formatFixed(grid.energy[p]!, 6)}
+              </dd>
+            </div>
+            <div>
+              <dt title="Lowest empty minus highest occupied Hartree-Fock level; an upper estimate of transport gaps">
+                Quasiparticle gap*
+              </dt>
+              <dd data-testid="readout-gap" data-value={grid.gap[p]}>
+                {formatFixed(grid.gap[p]!, 6)}
+              </dd>
+            </div>
+            {neelInPlane > ORDER_TOLERANCE && (
+              <div>
+                <dt>Canting angle θ from the field</dt>
+                <dd data-testid="readout-canting">
+                  {formatFixed(angles.canting * DEGREES, 2)}° (cos θ ={' '}
+                  {formatFixed(Math.cos(angles.canting), 4)})
+                </dd>
+              </div>
+            )}
+            {bond > ORDER_TOLERANCE && (
+              <div>
+                <dt>Bond-order phase arg(o_x0 + i o_y0)</dt>
+                <dd data-testid="readout-bond-phase">
+                  {formatFixed(angles.bondPhase * DEGREES, 2)}°
+                </dd>
+              </div>
+            )}
+          </dl>
+          <table className="group-table">
+            <caption>Order parameters by symmetry group (model.md section 6)</caption>
+            <tbody>
+              {ORDER_GROUPS.map((g, k) => {
+                const present = magnitudes[k]! > ORDER_TOLERANCE;
+                return (
+                  <tr key={g.key} className={present ? 'present' : undefined}>
+                    <th scope="row">
+                      {g.title} <span className="token">{g.token}</span>
+                    </th>
+                    <td data-testid={`readout-group-${g.key}`}>{formatFixed(magnitudes[k]!, 4)}</td>
+                    <td className="components">
+                      {g.channels
+                        .map((ch) => `${ch} ${formatFixed(order[CHANNELS.indexOf(ch) + 1]!, 4)}`)
+                        .join(', ')}
+                    </td>
+                  </tr>
+                );
+              })}
+            </tbody>
+          </table>
+          <ul className="raw-order" aria-label="All 15 expectation values">
+            {CHANNELS.map((ch, k) => (
+              <li key={ch} data-testid={`readout-order-${ch}`} data-value={order[k + 1]}>
+                {ch} {formatFixed(order[k + 1]!, 6)}
+              </li>
+            ))}
+          </ul>
+          <p className="footnote">
+            * The quasiparticle gap is a mean-field upper estimate; transport gaps are smaller.
+          </p>
+        </>
+      )}
+    </section>
+  );
+}

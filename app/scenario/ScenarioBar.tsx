@@ -1,0 +1,109 @@
+import type { ChangeEvent } from 'react';
+import { ModelError } from '../../solver/index';
+import { useFourfold } from '../store/index';
+import { DEMO_SETUP } from './demo';
+import { SCENARIO_FILE_MAX_BYTES, downloadScenarioFile, parseScenarioFile } from './scenarioFile';
+import { fitSetupToApp } from './setupCheck';
+import { scenarioHash } from './urlState';
+import './scenarioBar.css';
+
+function oneLine(error: unknown): string {
+  const text = error instanceof Error ? error.message : String(error);
+  return text.split('\n', 1)[0] ?? text;
+}
+
+async function loadScenarioFile(file: File): Promise<void> {
+  const { setNotice, replaceSetup } = useFourfold.getState();
+  if (file.size > SCENARIO_FILE_MAX_BYTES) {
+    setNotice({
+      kind: 'error',
+      text: `${file.name}: ${file.size} bytes is far more than a scenario (a few kilobytes); the setup is unchanged`,
+    });
+    return;
+  }
+  let text: string;
+  try {
+    text = await file.text();
+  } catch (error) {
+    setNotice({ kind: 'error', text: `${file.name}: could not be read (${oneLine(error)})` });
+    return;
+  }
+  try {
+    const fitted = fitSetupToApp(parseScenarioFile(text, file.name));
+    replaceSetup(fitted.setup);
+    setNotice({
+      kind: 'info',
+      text: fitted.note === null ? `Loaded ${file.name}.` : `Loaded ${file.name}: ${fitted.note}.`,
+    });
+  } catch (error) {
+    if (!(error instanceof ModelError)) throw error;
+    setNotice({ kind: 'error', text: `${error.message}. The setup is unchanged.` });
+  }
+}
+
+async function copyLink(): Promise<void> {
+  const { setup, setNotice } = useFourfold.getState();
+  const { origin, pathname, search } = window.location;
+  const hash = scenarioHash(setup, window.location.hash);
+  // The address bar shows the same link at once (the debounced sync would do it shortly).
+  window.history.replaceState(window.history.state, '', `${pathname}${search}${hash}`);
+  const link = `${origin}${pathname}${search}${hash}`;
+  try {
+    await navigator.clipboard.writeText(link);
+    setNotice({ kind: 'info', text: 'Link copied: it opens this exact setup.' });
+  } catch {
+    setNotice({
+      kind: 'error',
+      text: 'The browser did not allow copying; the link is in the address bar, copy it from there.',
+    });
+  }
+}
+
+/** Save, load and share the scenario (setup plus plane), and go back to the demo. */
+export function ScenarioBar() {
+  const onFile = (event: ChangeEvent<HTMLInputElement>) => {
+    const file = event.currentTarget.files?.[0];
+    // Cleared so that choosing the same file again loads it again.
+    event.currentTarget.value = '';
+    if (file) void loadScenarioFile(file);
+  };
+
+  return (
+    <div className="scenario-bar" role="toolbar" aria-label="Scenario">
+      <button
+        type="button"
+        data-testid="scenario-save"
+        onClick={() => downloadScenarioFile(useFourfold.getState().setup)}
+      >
+        Save scenario
+      </button>
+      <label className="scenario-load">
+        <input
+          type="file"
+          accept=".json,application/json"
+          data-testid="scenario-file"
+          onChange={onFile}
+        />
+        Load scenario…
+      </label>
+      <button type="button" data-testid="scenario-link" onClick={() => void copyLink()}>
+        Copy link
+      </button>
+      <button
+        type="button"
+        className="scenario-demo"
+        data-testid="scenario-demo"
+        onClick={() => {
+          const { replaceSetup, setNotice } = useFourfold.getState();
+          replaceSetup(DEMO_SETUP);
+          setNotice({
+            kind: 'info',
+            text: 'Back to the demo scenario (an invented model at ν = 0).',
+          });
+        }}
+      >
+        Back to demo
+      </button>
+    </div>
+  );
+}

@@ -1,0 +1,51 @@
+import { ModelError, SOFTWARE_VERSION } from '../../solver/index';
+import { scenarioToSetup, setupToScenario } from './scenario';
+import type { Setup } from './setup';
+
+export const SCENARIO_FILE_NAME = 'fourfold-scenario.json';
+
+/** A scenario is a few kilobytes; anything far larger is not one. */
+export const SCENARIO_FILE_MAX_BYTES = 1_000_000;
+
+/**
+ * The scenario file: the interfaces.md model with its plane (what `npm run map -- --model FILE`
+ * reads), pretty-printed, plus the accepted extra field `fourfold` with the software version.
+ */
+export function scenarioFileText(setup: Setup): string {
+  const document = { ...setupToScenario(setup), fourfold: { version: SOFTWARE_VERSION } };
+  return `${JSON.stringify(document, null, 2)}\n`;
+}
+
+/**
+ * The setup of a scenario file's text. Throws ModelError with one line that starts with the
+ * file name and names the problem (bad JSON, or the field that fails validation).
+ */
+export function parseScenarioFile(text: string, fileName: string): Setup {
+  let json: unknown;
+  try {
+    json = JSON.parse(text);
+  } catch (error) {
+    const reason = error instanceof Error ? error.message.split('\n', 1)[0] : String(error);
+    throw new ModelError(`${fileName}: not valid JSON (${reason})`);
+  }
+  try {
+    return scenarioToSetup(json);
+  } catch (error) {
+    if (error instanceof ModelError) throw new ModelError(`${fileName}: ${error.message}`);
+    throw error;
+  }
+}
+
+/** Starts the browser download of the scenario file. */
+export function downloadScenarioFile(setup: Setup): void {
+  const blob = new Blob([scenarioFileText(setup)], { type: 'application/json' });
+  const url = URL.createObjectURL(blob);
+  const link = document.createElement('a');
+  link.href = url;
+  link.download = SCENARIO_FILE_NAME;
+  document.body.append(link);
+  link.click();
+  link.remove();
+  // The click has started the download; release the blob after the browser has taken it.
+  setTimeout(() => URL.revokeObjectURL(url), 0);
+}

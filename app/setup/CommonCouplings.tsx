@@ -1,0 +1,162 @@
+import type { Channel } from '../../solver/index';
+import type { ChannelSetup, Setup } from '../scenario/setup';
+import { useFourfold } from '../store/index';
+import { commitSetup } from './commitSetup';
+import { COUPLING_RULE, formatDisplay } from './numberEntry';
+import { NumberField } from './NumberField';
+import { QuantityLabel } from './QuantityLabel';
+import { sweptTargets, useSweptTargets } from './sweep';
+
+type Common = 'uPerp' | 'uZ';
+
+/** The channels each common coupling sets (model.md section 4). */
+export const COMMON_CHANNELS: Readonly<Record<Common, readonly Channel[]>> = {
+  uPerp: ['x0', 'y0'],
+  uZ: ['z0'],
+};
+
+function sameCoupling(a: ChannelSetup, b: ChannelSetup): boolean {
+  return a.hartree === b.hartree && a.fock === b.fock;
+}
+
+/** Fock value F of a common coupling: its channels become { fock: F, hartree: ratio * F }. */
+function commitFock(which: Common, fock: number): string | null {
+  return commitSetup((s) => {
+    const channels = { ...s.channels };
+    for (const ch of COMMON_CHANNELS[which]) {
+      channels[ch] = { fock, hartree: s.ratios[which] * fock };
+    }
+    return { channels };
+  });
+}
+
+/**
+ * Hartree/Fock ratio of a common coupling: feeds an axis that sweeps it, and rescales the
+ * Hartree part of its channels where no axis sets them.
+ */
+function commitRatio(which: Common, ratio: number): string | null {
+  return commitSetup((s: Setup) => {
+    const swept = sweptTargets(s);
+    const channels = { ...s.channels };
+    for (const ch of COMMON_CHANNELS[which]) {
+      if (!swept.has(`${ch}.hartree`)) {
+        channels[ch] = { fock: channels[ch].fock, hartree: ratio * channels[ch].fock };
+      }
+    }
+    return { ratios: { ...s.ratios, [which]: ratio }, channels };
+  });
+}
+
+function CommonCoupling({ which }: { readonly which: Common }) {
+  const [first, second] = COMMON_CHANNELS[which];
+  const fock = useFourfold((s) => s.setup.channels[first!].fock);
+  const hartree = useFourfold((s) => s.setup.channels[first!].hartree);
+  const ratio = useFourfold((s) => s.setup.ratios[which]);
+  const differs = useFourfold(
+    (s) =>
+      second !== undefined && !sameCoupling(s.setup.channels[first!], s.setup.channels[second]),
+  );
+  const swept = useSweptTargets();
+  const sweepingName = useFourfold((s) =>
+    s.setup.x.quantity === which ? 'x' : s.setup.y.quantity === which ? 'y' : null,
+  );
+  const sweepingAxis = useFourfold((s) => (sweepingName === null ? null : s.setup[sweepingName]));
+  const sweptChannel = COMMON_CHANNELS[which]
+    .flatMap((ch) => [`${ch}.fock`, `${ch}.hartree`])
+    .map((target) => [target, swept.get(target)] as const)
+    .find(([, axis]) => axis !== undefined);
+  const id = `setup-${which}`;
+  const name = which === 'uPerp' ? 'u_perp' : 'u_z';
+
+  let value;
+  if (sweepingAxis !== null) {
+    value = (
+      <span className="swept-value" data-testid={`${id}-swept`}>
+        set by the {sweepingName} axis: {formatDisplay(sweepingAxis.from)} to{' '}
+        {formatDisplay(sweepingAxis.to)}
+      </span>
+    );
+  } else if (sweptChannel !== undefined) {
+    value = (
+      <span className="swept-value" data-testid={`${id}-swept`}>
+        {sweptChannel[0]} swept along {sweptChannel[1]}; edit the others in the channel table
+      </span>
+    );
+  } else {
+    value = (
+      <NumberField
+        id={`${id}-fock`}
+        name={`${name} Fock`}
+        ariaLabel={`${name} Fock coupling`}
+        value={fock}
+        rule={COUPLING_RULE}
+        testId={`${id}-fock`}
+        onCommit={(v) => commitFock(which, v)}
+      />
+    );
+  }
+
+  return (
+    <tr>
+      <th scope="row">
+        <QuantityLabel quantity={which} />
+        <span className="channel-list">{COMMON_CHANNELS[which].join(', ')}</span>
+      </th>
+      <td>
+        {value}
+        {differs && sweepingAxis === null && sweptChannel === undefined && (
+          <span className="setup-hint field-note">
+            {first} and {second} differ in the channel table; a value here sets both
+          </span>
+        )}
+      </td>
+      <td>
+        <NumberField
+          id={`${id}-ratio`}
+          name={`${name} Hartree/Fock`}
+          ariaLabel={`${name} Hartree per Fock`}
+          value={ratio}
+          rule={COUPLING_RULE}
+          testId={`${id}-ratio`}
+          onCommit={(v) => commitRatio(which, v)}
+        />
+      </td>
+      <td className="derived">
+        {sweepingAxis === null && sweptChannel === undefined ? formatDisplay(hartree) : '—'}
+      </td>
+    </tr>
+  );
+}
+
+/** u⊥ (channels x0, y0) and u_z (channel z0): the couplings of the common anisotropic model. */
+export function CommonCouplings() {
+  return (
+    <fieldset className="setup-group">
+      <legend>Common couplings</legend>
+      <table className="coupling-table">
+        <thead>
+          <tr>
+            <th scope="col">coupling</th>
+            <th scope="col">
+              Fock <var>F</var>
+            </th>
+            <th scope="col">
+              <var>H</var> / <var>F</var>
+            </th>
+            <th scope="col">
+              Hartree <var>H</var>
+            </th>
+          </tr>
+        </thead>
+        <tbody>
+          <CommonCoupling which="uPerp" />
+          <CommonCoupling which="uZ" />
+        </tbody>
+      </table>
+      <p className="setup-hint">
+        For a contact interaction <var>H</var> = <var>F</var> (ratio 1); a finite range makes them
+        differ. The ratio also sets the Hartree part of an axis that sweeps the coupling.
+      </p>
+    </fieldset>
+  );
+}

@@ -1,0 +1,21 @@
+import { checkSetup } from '../scenario/setupCheck';
+import type { Setup } from '../scenario/setup';
+import { useFourfold } from '../store/index';
+
+export type SetupPatch = Partial<Setup> | ((setup: Setup) => Partial<Setup>);
+
+/**
+ * Writes a change to the store only if the whole resulting setup can be mapped (checkSetup);
+ * otherwise changes nothing, so the last valid Map stays. Returns the refusal (one line that
+ * names the field) or null. A functional patch sees the setup as it is at commit time.
+ */
+export function commitSetup(patch: SetupPatch): string | null {
+  const { setup, updateSetup } = useFourfold.getState();
+  const change = typeof patch === 'function' ? patch(setup) : patch;
+  const keys = Object.keys(change) as (keyof Setup)[];
+  if (keys.every((key) => Object.is(change[key], setup[key]))) return null;
+  const problem = checkSetup({ ...setup, ...change });
+  if (problem !== null) return problem;
+  updateSetup(change);
+  return null;
+}

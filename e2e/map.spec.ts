@@ -1,0 +1,196 @@
+import { execFileSync } from 'node:child_process';
+import { mkdtempSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { expect, test, type Page } from '@playwright/test';
+
+const consoleErrors: string[] = [];
+
+test.beforeEach(({ page }) => {
+  consoleErrors.length = 0;
+  page.on('console', (message) => {
+    if (message.type() === 'error') consoleErrors.push(message.text());
+  });
+  page.on('pageerror', (error) => consoleErrors.push(error.message));
+});
+
+test.afterEach(() => {
+  expect(consoleErrors, 'console errors on the page').toEqual([]);
+});
+
+/** The demo scenario (app/scenario/demo.ts): Hartree per Fock 1.2 for uPerp, 0.7 for uZ. */
+const DEMO = { ratioPerp: 1.2, ratioZ: 0.7, zeeman: 0.6 };
+/** One pixel of the demo plane: 4 / 256. */
+const PIXEL = 4 / 256;
+
+async function mapDone(page: Page): Promise<void> {
+  await expect(page.getByTestId('map-status')).toHaveAttribute('data-phase', 'done', {
+    timeout: 30_000,
+  });
+}
+
+/** Moves the pointer over axis coordinates (x, y) of the plot (the demo plane is [-2, 2]^2). */
+async function hoverAt(page: Page, x: number, y: number): Promise<void> {
+  const box = (await page.getByTestId('map-plot').boundingBox())!;
+  const [from, to] = [-2, 2];
+  await page.mouse.move(
+    box.x + ((x - from) / (to - from)) * box.width,
+    box.y + (1 - (y - from) / (to - from)) * box.height,
+  );
+}
+
+async function readout(page: Page) {
+  const r = page.getByTestId('readout');
+  await expect(r.getByTestId('readout-energy')).toBeVisible();
+  const value = async (id: string) => Number(await r.getByTestId(id).getAttribute('data-value'));
+  return {
+    x: await value('readout-x'),
+    y: await value('readout-y'),
+    phase: (await r.getByTestId('readout-phase').textContent())!.trim(),
+    energy: await value('readout-energy'),
+    gap: await value('readout-gap'),
+  };
+}
+
+test('the demo Map shows the closed-form phases where model.md section 5 predicts them', async ({
+  page,
+}) => {
+  await page.goto('/');
+  await mapDone(page);
+  await expect(page.getByTestId('legend')).toContainText('CAF');
+  await page.screenshot({ path: 'test-results/screenshots/demo.png', fullPage: true });
+
+  // Closed forms of model.md section 5 (after Phys. Rev. B 85, 155439 (2012)), with separate
+  // Hartree (H) and Fock (F) couplings: E_F = -2 uPerp_F - uZ_F - E_Z, E_CDW = 2 uZ_H - uZ_F,
+  // E_KD = 2 uPerp_H - uPerp_F, E_CAF = -uZ_F - E_Z^2 / (8 |uPerp_F|) (Delta_V = 0).
+  const closedForm: Record<string, (u: number, z: number) => number> = {
+    F: (u, z) => -2 * u - z - DEMO.zeeman,
+    CDW: (u, z) => 2 * DEMO.ratioZ * z - z,
+    KD: (u) => 2 * DEMO.ratioPerp * u - u,
+    CAF: (u, z) => -z - DEMO.zeeman ** 2 / (8 * Math.abs(u)),
+  };
+  const points: [string, number, number][] = [
+    ['F', 0.5, 1.5],
+    ['CAF', -0.5, 1.5],
+    ['KD', -1.5, 1.5],
+    ['CDW', 0.3, -1.8],
+  ];
+  for (const [phase, u, z] of points) {
+    await hoverAt(page, u, z);
+    const r = await readout(page);
+    expect(r.phase, `phase at (${u}, ${z})`).toBe(phase);
+    expect(Math.abs(r.x - u)).toBeLessThan(2 * PIXEL);
+    expect(r.energy).toBeCloseTo(closedForm[phase]!(r.x, r.y), 9);
+  }
+  await page.screenshot({ path: 'test-results/screenshots/demo-hover.png', fullPage: true });
+});
+
+test('moving the Zeeman slider moves the F/CAF boundary to E_Z = 4 |uPerp|', async ({ page }) => {
+  await page.goto('/');
+  await mapDone(page);
+  // Along uZ = 1.5 the F/CAF boundary sits at uPerp = -E_Z / 4 (model.md section 5, after
+  // Phys. Rev. B 85, 155439 (2012)); find it to one pixel by hovering from the F side.
+  const boundaryAlong = async (): Promise<number> => {
+    let last = '';
+    for (let u = -0.05; u > -0.6; u -= PIXEL) {
+      await hoverAt(page, u, 1.5);
+      const r = await readout(page);
+      if (last === 'F' && r.phase === 'CAF') return r.x;
+      last = r.phase;
+    }
+    throw new Error('no F/CAF boundary found along uZ = 1.5');
+  };
+  const before = await boundaryAlong();
+  expect(Math.abs(before - -DEMO.zeeman / 4)).toBeLessThan(2 * PIXEL);
+
+  const slider = page.getByTestId('zeeman');
+  await slider.fill('1.2');
+  await expect(slider).toHaveValue('1.2');
+  await mapDone(page);
+  const after = await boundaryAlong();
+  expect(Math.abs(after - -1.2 / 4)).toBeLessThan(2 * PIXEL);
+  expect(after).toBeLessThan(before - 0.1);
+  await page.screenshot({ path: 'test-results/screenshots/zeeman-1.2.png', fullPage: true });
+});
+
+test('the hover readout matches `npm run --silent solve` for the same model', async ({ page }) => {
+  await page.goto('/');
+  await mapDone(page);
+  await hoverAt(page, -0.7, 0.9);
+  const r = await readout(page);
+  const order: Record<string, number> = {};
+  for (const li of await page.locator('[data-testid^="readout-order-"]').all()) {
+    const id = (await li.getAttribute('data-testid'))!.replace('readout-order-', '');
+    order[id] = Number(await li.getAttribute('data-value'));
+  }
+  const model = {
+    filling: 0,
+    channels: {
+      x0: { hartree: DEMO.ratioPerp * r.x, fock: r.x },
+      y0: { hartree: DEMO.ratioPerp * r.x, fock: r.x },
+      z0: { hartree: DEMO.ratioZ * r.y, fock: r.y },
+    },
+    zeeman: DEMO.zeeman,
+    valleyZeeman: 0,
+  };
+  const dir = mkdtempSync(join(tmpdir(), 'fourfold-e2e-'));
+  writeFileSync(join(dir, 'point.json'), JSON.stringify(model));
+  const cli = JSON.parse(
+    execFileSync('npm', ['run', '--silent', 'solve', '--', '--model', join(dir, 'point.json')], {
+      encoding: 'utf8',
+    }),
+  ) as { phase: string; energy: number; gap: number; order: Record<string, number> };
+  expect(r.phase).toBe(cli.phase);
+  expect(r.energy).toBeCloseTo(cli.energy, 9);
+  expect(r.gap).toBeCloseTo(cli.gap, 6);
+  expect(Object.keys(order)).toHaveLength(15);
+  // A ground state is fixed only up to the U(1) rotations it breaks: compare the components
+  // along the field exactly and the in-plane ones by their rotation-invariant magnitudes.
+  for (const ch of ['0z', 'z0', 'zz']) expect(order[ch]!).toBeCloseTo(cli.order[ch]!, 6);
+  const inPlane = (o: Record<string, number>, a: string, b: string) => Math.hypot(o[a]!, o[b]!);
+  expect(inPlane(order, 'zx', 'zy')).toBeCloseTo(inPlane(cli.order, 'zx', 'zy'), 6);
+  expect(inPlane(order, 'x0', 'y0')).toBeCloseTo(inPlane(cli.order, 'x0', 'y0'), 6);
+});
+
+test('reload keeps the setup (URL and local autosave)', async ({ page }) => {
+  await page.goto('/');
+  await mapDone(page);
+  await page.getByTestId('valley-zeeman').fill('0.35');
+  await page.getByTestId('zeeman').fill('0.9');
+  await mapDone(page);
+  await expect.poll(() => page.url()).toContain('#s=');
+  await page.reload();
+  await expect(page.getByTestId('zeeman')).toHaveValue('0.9');
+  await expect(page.getByTestId('valley-zeeman')).toHaveValue('0.35');
+  await mapDone(page);
+  // Without the URL state the local autosave restores it.
+  await page.goto('/');
+  await expect(page.getByTestId('zeeman')).toHaveValue('0.9');
+  await expect(page.getByTestId('valley-zeeman')).toHaveValue('0.35');
+});
+
+test('a bad scenario file leaves the map as it was and says what is wrong', async ({ page }) => {
+  await page.goto('/');
+  await mapDone(page);
+  await page.mouse.move(0, 0);
+  const before = await page.getByTestId('map-plot').screenshot();
+  await page.getByTestId('scenario-file').setInputFiles({
+    name: 'broken.json',
+    mimeType: 'application/json',
+    buffer: Buffer.from(
+      JSON.stringify({ filling: 0, channels: { q9: { fock: 1 } }, plane: { x: {}, y: {} } }),
+    ),
+  });
+  await expect(page.getByTestId('notice')).toContainText('q9');
+  await expect(page.getByTestId('zeeman')).toHaveValue(String(DEMO.zeeman));
+  await expect(page.getByTestId('map-status')).toHaveAttribute('data-phase', 'done');
+  expect(Buffer.compare(await page.getByTestId('map-plot').screenshot(), before)).toBe(0);
+
+  await page.getByTestId('scenario-file').setInputFiles({
+    name: 'not-json.json',
+    mimeType: 'application/json',
+    buffer: Buffer.from('{ "filling": 0, '),
+  });
+  await expect(page.getByTestId('notice')).toContainText('not-json.json');
+  await page.screenshot({ path: 'test-results/screenshots/bad-file.png', fullPage: true });
+});

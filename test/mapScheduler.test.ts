@@ -1,0 +1,171 @@
+import { describe, expect, test } from 'vitest';
+import {
+  BISECTION_TOLERANCE,
+  computePhaseMap,
+  parseMapInput,
+  type Boundary,
+  type CoarseNodes,
+  type MapGrid,
+} from '../solver/index';
+import { mapStagesApi, type AsyncMapStages } from '../workers/mapStages';
+import { MapScheduler, type MapJobEvents } from '../workers/mapScheduler';
+import { WorkerPool, type PoolMember } from '../workers/workerPool';
+import { INTERFACES_EXAMPLE, standardPlane } from './fixtures';
+
+/** The stages run in this thread, behind the same asynchronous interface as a worker. */
+function inThread(fault?: (name: string, args: unknown[]) => void): PoolMember<AsyncMapStages> {
+  let deathRejects: (reason: Error) => void = () => undefined;
+  const died = new Promise<never>((_, reject) => (deathRejects = reject));
+  const api = Object.fromEntries(
+    Object.entries(mapStagesApi).map(([name, fn]) => [
+      name,
+      async (...args: unknown[]) => {
+        await new Promise((r) => setTimeout(r, 0));
+        fault?.(name, args);
+        return (fn as (...a: unknown[]) => unknown)(...args);
+      },
+    ]),
+  ) as unknown as AsyncMapStages;
+  return { api, died, terminate: () => deathRejects(new Error('terminated')) };
+}
+
+interface Outcome {
+  grid: MapGrid;
+  boundaries: Boundary[];
+  problems: string[];
+  coarseSeen: boolean;
+}
+
+function run(scheduler: MapScheduler, json: string): { job: number; outcome: Promise<Outcome> } {
+  const problems: string[] = [];
+  let coarseSeen = false;
+  let job = 0;
+  const outcome = new Promise<Outcome>((resolve) => {
+    const events: MapJobEvents = {
+      update: () => undefined,
+      coarse: () => (coarseSeen = true),
+      done: (grid, boundaries) => resolve({ grid, boundaries, problems, coarseSeen }),
+      problem: (text) => problems.push(text),
+    };
+    job = scheduler.start(parseMapInput(JSON.parse(json)), json, events);
+  });
+  return { job, outcome };
+}
+
+const SCENARIO = JSON.stringify({ ...INTERFACES_EXAMPLE, plane: standardPlane(48, 40) });
+
+describe('browser Map scheduler (workers/mapScheduler.ts) over a worker pool', () => {
+  test('progressive tiling gives the same map, bit for bit, as the one-shot computation', async () => {
+    const reference = await computePhaseMap(parseMapInput(JSON.parse(SCENARIO)));
+    const pool = new WorkerPool(() => inThread(), 2);
+    const { outcome } = run(new MapScheduler(pool, BISECTION_TOLERANCE), SCENARIO);
+    const result = await outcome;
+    expect(result.coarseSeen).toBe(true);
+    expect(result.problems).toEqual([]);
+    expect(result.grid.labels).toEqual(reference.labels);
+    expect(Array.from(result.grid.energy)).toEqual(Array.from(reference.energy));
+    expect(Array.from(result.grid.order)).toEqual(Array.from(reference.order));
+    expect(result.boundaries).toEqual(reference.boundaries);
+    expect(new Set(result.grid.labels)).toEqual(new Set(['F', 'CAF', 'KD', 'CDW']));
+    pool.close();
+  });
+
+  test('a newer job drops the older one: no event of the old job arrives after the new start', async () => {
+    const pool = new WorkerPool(() => inThread(), 2);
+    const scheduler = new MapScheduler(pool, BISECTION_TOLERANCE);
+    const lateEvents: string[] = [];
+    let firstStarted = true;
+    const old = scheduler.start(parseMapInput(JSON.parse(SCENARIO)), SCENARIO, {
+      update: () => (firstStarted ? undefined : lateEvents.push('update')),
+      coarse: () => lateEvents.push('coarse'),
+      done: () => lateEvents.push('done'),
+      problem: (t) => lateEvents.push(t),
+    });
+    firstStarted = false;
+    const other = JSON.stringify({
+      ...INTERFACES_EXAMPLE,
+      zeeman: 0.8,
+      plane: standardPlane(24, 24),
+    });
+    const { job, outcome } = run(scheduler, other);
+    expect(job).toBe(old + 1);
+    const result = await outcome;
+    expect(result.grid.nx).toBe(24);
+    // The old job's events are suppressed by the scheduler (stale) or its queue was dropped.
+    expect(lateEvents).toEqual([]);
+    pool.close();
+  });
+
+  test('a worker that throws once is replaced and its tile redone: the map is unchanged', async () => {
+    const reference = await computePhaseMap(parseMapInput(JSON.parse(SCENARIO)));
+    let faults = 0;
+    const pool = new WorkerPool(
+      () =>
+        inThread((name) => {
+          if (name === 'cells' && faults < 2) {
+            faults++;
+            throw new Error('simulated worker failure');
+          }
+        }),
+      2,
+    );
+    const { outcome } = run(new MapScheduler(pool, BISECTION_TOLERANCE), SCENARIO);
+    const result = await outcome;
+    expect(faults).toBe(2);
+    expect(pool.replaced).toBe(2);
+    expect(result.problems).toEqual([]);
+    expect(result.grid.labels).toEqual(reference.labels);
+    expect(result.boundaries).toEqual(reference.boundaries);
+    pool.close();
+  });
+
+  test('a tile that keeps failing is reported in one sentence; the rest of the map is finished', async () => {
+    let calls = 0;
+    const pool = new WorkerPool(
+      () =>
+        inThread((name, args) => {
+          // The tile at the origin fails on every attempt.
+          const coarse = args[1] as CoarseNodes;
+          if (name === 'cells' && coarse.cols[0] === 0 && coarse.rows[0] === 0) {
+            calls++;
+            throw new Error('simulated crash');
+          }
+        }),
+      2,
+      { attempts: 2 },
+    );
+    const { outcome } = run(new MapScheduler(pool, BISECTION_TOLERANCE), SCENARIO);
+    const result = await outcome;
+    expect(calls).toBe(2);
+    expect(result.problems).toHaveLength(1);
+    expect(result.problems[0]).toMatch(
+      /^1 part of the map could not be computed \(simulated crash\)/,
+    );
+    const solved = result.grid.status.filter((s) => s === 2).length;
+    expect(solved).toBeGreaterThan(0.5 * 48 * 40);
+    expect(solved).toBeLessThan(48 * 40);
+    pool.close();
+  });
+
+  test('a worker that hangs is timed out, replaced, and the task retried', async () => {
+    // A member whose first call never settles.
+    let first = true;
+    const hangingPool = new WorkerPool(
+      () => {
+        const m = inThread();
+        if (!first) return m;
+        first = false;
+        const api = { ...m.api, coarse: () => new Promise<never>(() => undefined) };
+        return { ...m, api } as PoolMember<AsyncMapStages>;
+      },
+      1,
+      { timeoutMs: 200 },
+    );
+    const { outcome } = run(new MapScheduler(hangingPool), SCENARIO);
+    const result = await outcome;
+    expect(hangingPool.replaced).toBe(1);
+    expect(result.problems).toEqual([]);
+    expect(result.grid.status.every((s) => s === 2)).toBe(true);
+    hangingPool.close();
+  });
+});

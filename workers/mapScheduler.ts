@@ -1,0 +1,211 @@
+import {
+  MapGrid,
+  PIXEL_SOLVED,
+  cellIsUniform,
+  splitRange,
+  type Boundary,
+  type Crossing,
+  type MapInput,
+} from '../solver/index';
+import type { AsyncMapStages } from './mapStages';
+import { CancelledError, type WorkerPool } from './workerPool';
+
+/** Stages a job goes through, in order. */
+export type JobPhase = 'coarse' | 'refining' | 'boundaries' | 'done' | 'failed';
+
+export interface MapJobEvents {
+  /** The grid changed (new results placed): redraw. */
+  update(grid: MapGrid, phase: JobPhase): void;
+  /** The first full coarse frame is in the grid (every pixel shows a nearby node's label). */
+  coarse(grid: MapGrid): void;
+  /** Every pixel solved and every boundary located. */
+  done(grid: MapGrid, boundaries: Boundary[]): void;
+  /** Something could not be computed; the grid keeps what was. One short sentence. */
+  problem(message: string): void;
+}
+
+/** 'staged': coarse grid, adaptive cells, boundaries. 'cold': the baseline, a full search per pixel. */
+export type MapMode = 'staged' | 'cold';
+
+/** Coarse cells per side of one pixel task (a tile of 4 x 4 cells). */
+const TILE_CELLS = 4;
+/** Coarse nodes per coarse task, edges per crossing task, rows per cold task. */
+const NODES_PER_TASK = 24;
+const EDGES_PER_TASK = 24;
+const ROWS_PER_TASK = 2;
+
+/**
+ * Boundary bisection stops at this fraction of the axis span on screen: far below a pixel at any
+ * resolution the app allows, and about half the work of the CLI's 1e-9 (BISECTION_TOLERANCE).
+ */
+export const LIVE_BISECTION_TOLERANCE = 1e-6;
+
+function message(error: unknown): string {
+  const text = error instanceof Error ? error.message : String(error);
+  return text.split('\n', 1)[0]!;
+}
+
+/**
+ * Tiles the plane over a worker pool, progressively: (1) every second coarse node, a full
+ * search each, shown at once as the first coarse frame; (2) the other coarse nodes; (3) tiles of
+ * coarse cells, those holding a boundary first (each pixel gets its own converged state:
+ * `solveCells`); (4) the boundaries, bisected along every pixel edge that changes label.
+ * Starting a job drops everything queued for older jobs; their late results are ignored.
+ */
+export class MapScheduler {
+  private job = 0;
+
+  constructor(
+    private readonly pool: WorkerPool<AsyncMapStages>,
+    /** Relative bisection tolerance of the boundaries (of the axis span). */
+    private readonly bisectionTolerance = LIVE_BISECTION_TOLERANCE,
+  ) {}
+
+  /** The newest job's number. */
+  get current(): number {
+    return this.job;
+  }
+
+  /** Starts mapping `input` (whose scenario document is `json`); returns the job number. */
+  start(input: MapInput, json: string, events: MapJobEvents, mode: MapMode = 'staged'): number {
+    const job = ++this.job;
+    this.pool.cancelBefore(job);
+    const run =
+      mode === 'cold' ? this.cold(job, input, json, events) : this.staged(job, input, json, events);
+    run.catch((error: unknown) => {
+      if (error instanceof CancelledError || job !== this.job) return;
+      events.problem(`The map could not be finished: ${message(error)}`);
+    });
+    return job;
+  }
+
+  /** Drops all queued work (the current job stops where it is). */
+  stop(): void {
+    this.job++;
+    this.pool.cancelBefore(this.job);
+  }
+
+  private stale(job: number): boolean {
+    return job !== this.job;
+  }
+
+  private async staged(job: number, input: MapInput, json: string, events: MapJobEvents) {
+    const grid = new MapGrid(input);
+    const width = grid.cols.length;
+    const height = grid.rows.length;
+    const stride = grid.cols.length > 1 ? grid.cols[1]! - grid.cols[0]! : 1;
+    const even = (k: number, n: number) => k % 2 === 0 || k === n - 1;
+    const first: number[] = [];
+    const second: number[] = [];
+    for (let b = 0; b < height; b++) {
+      for (let a = 0; a < width; a++)
+        (even(a, width) && even(b, height) ? first : second).push(b * width + a);
+    }
+    const solveNodes = async (nodes: number[], priority: number, radius: number) => {
+      await Promise.all(
+        splitRange(nodes.length, Math.ceil(nodes.length / NODES_PER_TASK)).map(
+          async ([start, count]) => {
+            const ids = Int32Array.from(nodes.slice(start, start + count));
+            const block = await this.pool.run(job, priority, (api) => api.coarse(json, ids));
+            if (this.stale(job)) return;
+            grid.placeCoarse(block, radius);
+            events.update(grid, 'coarse');
+          },
+        ),
+      );
+    };
+    await solveNodes(first, 0, stride);
+    if (this.stale(job)) return;
+    events.coarse(grid);
+    await solveNodes(second, 1, Math.max(1, Math.ceil(stride / 2)));
+    if (this.stale(job)) return;
+
+    // Tiles of cells inside regions (cheap: one descent per pixel); tiles that hold a boundary
+    // (several descents per pixel) go row by row, and first, so the interesting part sharpens
+    // first and no task keeps a worker for long.
+    const coarse = grid.coarseNodes();
+    const tiles: { a0: number; b0: number; a1: number; b1: number; mixed: boolean }[] = [];
+    for (let b0 = 0; b0 < height - 1; b0 += TILE_CELLS) {
+      for (let a0 = 0; a0 < width - 1; a0 += TILE_CELLS) {
+        const a1 = Math.min(width - 1, a0 + TILE_CELLS);
+        const b1 = Math.min(height - 1, b0 + TILE_CELLS);
+        let mixed = false;
+        for (let b = b0; b < b1; b++)
+          for (let a = a0; a < a1; a++) if (!cellIsUniform(coarse, a, b)) mixed = true;
+        if (!mixed) {
+          tiles.push({ a0, b0, a1, b1, mixed });
+          continue;
+        }
+        for (let b = b0; b < b1; b++) tiles.push({ a0, b0: b, a1, b1: b + 1, mixed });
+      }
+    }
+    const failures: string[] = [];
+    await Promise.all(
+      tiles.map(async (t) => {
+        const window = grid.coarseWindow(t.a0, t.b0, t.a1, t.b1);
+        try {
+          const block = await this.pool.run(job, t.mixed ? 2 : 3, (api) =>
+            api.cells(json, window, 0, 0, t.a1 - t.a0, t.b1 - t.b0),
+          );
+          if (this.stale(job)) return;
+          grid.placePixels(block);
+          events.update(grid, 'refining');
+        } catch (error) {
+          if (error instanceof CancelledError) throw error;
+          failures.push(message(error));
+        }
+      }),
+    );
+    if (this.stale(job)) return;
+
+    // Boundaries along edges whose two ends are both solved and differ.
+    const edges = grid.boundaryEdges().filter((edge) => {
+      const p = edge >> 1;
+      const q = (edge & 1) === 1 ? p + grid.nx : p + 1;
+      return grid.status[p] === PIXEL_SOLVED && grid.status[q] === PIXEL_SOLVED;
+    });
+    events.update(grid, 'boundaries');
+    const crossings: Crossing[] = [];
+    await Promise.all(
+      splitRange(edges.length, Math.ceil(edges.length / EDGES_PER_TASK)).map(
+        async ([start, count]) => {
+          const ids = edges.slice(start, start + count);
+          const { endFrames, endLabels } = grid.edgeEnds(ids);
+          try {
+            const found = await this.pool.run(job, 4, (api) =>
+              api.crossings(json, ids, endFrames, endLabels, this.bisectionTolerance),
+            );
+            if (!this.stale(job)) crossings.push(...found);
+          } catch (error) {
+            if (error instanceof CancelledError) throw error;
+            failures.push(message(error));
+          }
+        },
+      ),
+    );
+    if (this.stale(job)) return;
+    // Crossings in edge order, so the polylines do not depend on which task finished first.
+    crossings.sort((a, b) => a.edge - b.edge);
+    if (failures.length > 0) {
+      events.problem(
+        `${failures.length} part${failures.length > 1 ? 's' : ''} of the map could not be computed (${failures[0]}); they show the coarse preview.`,
+      );
+    }
+    events.done(grid, grid.phaseMap(crossings).boundaries);
+  }
+
+  private async cold(job: number, input: MapInput, json: string, events: MapJobEvents) {
+    const grid = new MapGrid(input);
+    await Promise.all(
+      splitRange(grid.ny, Math.ceil(grid.ny / ROWS_PER_TASK)).map(async ([j0, rows]) => {
+        const block = await this.pool.run(job, 0, (api) => api.coldRows(json, j0, rows));
+        if (this.stale(job)) return;
+        grid.placePixels(block);
+        events.update(grid, 'refining');
+      }),
+    );
+    if (this.stale(job)) return;
+    events.coarse(grid);
+    events.done(grid, []);
+  }
+}

@@ -1,0 +1,83 @@
+import { transfer } from 'comlink';
+import {
+  DEFAULT_MINIMISE,
+  couplingsOf,
+  locateCrossings,
+  minimiseEnergy,
+  parseMapInput,
+  parseModel,
+  solveCells,
+  solveCoarseNodes,
+  solveRowsCold,
+  type CoarseBlock,
+  type CoarseNodes,
+  type Crossing,
+  type MapInput,
+  type PixelBlock,
+} from '../solver/index';
+
+let lastJson = '';
+let lastInput: MapInput | undefined;
+
+/** The parsed input of a scenario document, kept while the same text keeps arriving. */
+function inputOf(json: string): MapInput {
+  if (json !== lastJson || lastInput === undefined) {
+    lastInput = parseMapInput(JSON.parse(json));
+    lastJson = json;
+  }
+  return lastInput;
+}
+
+function pixelTransfer(b: PixelBlock): PixelBlock {
+  return transfer(b, [b.energy.buffer, b.order.buffer, b.gap.buffer, b.frames.buffer]);
+}
+
+/**
+ * The Map stages as a worker runs them: inputs arrive as the scenario document's JSON text,
+ * results leave as transferable typed arrays. Pure calls into solver/.
+ */
+export const mapStagesApi = {
+  /** Builds the solver's seed library and compiles the hot paths before the first map. */
+  warmUp(): void {
+    for (const filling of [-1, 0, 1] as const) {
+      const model = parseModel({ filling, channels: { x0: -1, y0: -1, z0: 2 }, zeeman: 0.4 });
+      minimiseEnergy(couplingsOf(model), DEFAULT_MINIMISE);
+    }
+  },
+  coarse(json: string, nodes: Int32Array): CoarseBlock {
+    const b = solveCoarseNodes(inputOf(json), nodes);
+    return transfer(b, [b.frames.buffer, b.energy.buffer, b.order.buffer, b.gap.buffer]);
+  },
+  cells(
+    json: string,
+    coarse: CoarseNodes,
+    a0: number,
+    b0: number,
+    a1: number,
+    b1: number,
+  ): PixelBlock {
+    return pixelTransfer(solveCells(inputOf(json), coarse, a0, b0, a1, b1));
+  },
+  crossings(
+    json: string,
+    edges: Int32Array,
+    endFrames: Float64Array,
+    endLabels: string[],
+    relativeTolerance: number,
+  ): Crossing[] {
+    return locateCrossings(inputOf(json), edges, endFrames, endLabels, relativeTolerance);
+  },
+  /** The baseline: a full cold search at every pixel of rows [j0, j0 + rows). */
+  coldRows(json: string, j0: number, rows: number): PixelBlock {
+    return pixelTransfer(solveRowsCold(inputOf(json), j0, rows));
+  },
+};
+
+export type MapStagesApi = typeof mapStagesApi;
+
+/** What a caller of the stages sees: every call asynchronous (a worker, or a stand-in). */
+export type AsyncMapStages = {
+  [K in keyof MapStagesApi]: (
+    ...args: Parameters<MapStagesApi[K]>
+  ) => Promise<ReturnType<MapStagesApi[K]>>;
+};
