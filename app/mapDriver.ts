@@ -60,6 +60,7 @@ export function startMapDriver(mode: MapMode = 'staged'): () => void {
     }
     store.getState().setSetupProblem(null);
     awaitingCoarse = true;
+    let coarseShown = false;
     // Results arrive in bursts of many small tasks: the store (and so React and the canvas)
     // hears of them at most every REDRAW_MS, leaving the cores to the workers.
     let queued: MapPatch | null = null;
@@ -80,11 +81,14 @@ export function startMapDriver(mode: MapMode = 'staged'): () => void {
       json,
       {
         update: (grid, phase) => {
-          if (job !== scheduler?.current) return;
+          // The previous map stays on screen until this job's coarse frame is complete.
+          if (job !== scheduler?.current || !coarseShown) return;
           bump({ grid, phase });
         },
-        coarse: () => {
+        coarse: (grid) => {
           if (job !== scheduler?.current) return;
+          coarseShown = true;
+          bump({ grid, phase: 'refining', boundaries: [] });
           const ms = performance.now() - changedAt;
           afterPaint(() =>
             performance.measure(MARK_COARSE, { start: changedAt, detail: { job, mode } }),
@@ -110,11 +114,8 @@ export function startMapDriver(mode: MapMode = 'staged'): () => void {
       },
       mode,
     );
-    // A new job keeps showing the previous grid until its own first results arrive.
-    bump(
-      { job, phase: 'coarse', boundaries: [], coarseMs: null, doneMs: null, problem: null },
-      true,
-    );
+    // A new job keeps showing the previous map (and its boundaries) until its coarse frame.
+    bump({ job, phase: 'coarse', coarseMs: null, doneMs: null, problem: null }, true);
   };
 
   const flush = (): void => {

@@ -72,7 +72,15 @@ export {
   type CoarseBlock,
   type CoarseNodes,
 } from './coarseNodes';
-export { cellIsUniform, cellSpan, solveCells, solveRowsCold, type PixelBlock } from './pixelBlock';
+export {
+  cellIsUniform,
+  cellOf,
+  cellSpan,
+  solveCells,
+  solvePixelList,
+  solveRowsCold,
+  type PixelBlock,
+} from './pixelBlock';
 export { PIXEL_EMPTY, PIXEL_PREVIEW, PIXEL_SOLVED, MapGrid, type PhaseMap } from './mapGrid';
 export {
   BISECTION_TOLERANCE,

@@ -1,7 +1,7 @@
 import { joinBoundaries, type Boundary } from './boundaries';
 import { coarseLayout, type CoarseBlock, type CoarseNodes } from './coarseNodes';
 import { boundaryEdges, type Crossing } from './crossings';
-import type { PixelBlock } from './pixelBlock';
+import { solvePixelList, type PixelBlock } from './pixelBlock';
 import { axisValue, type MapInput } from './plane';
 
 /** A computed Map: grids are flat row-major arrays, `values[j nx + i]` at (x[i], y[j]). */
@@ -32,8 +32,8 @@ export const PIXEL_SOLVED = 2;
 export class MapGrid {
   readonly nx: number;
   readonly ny: number;
-  readonly x: Float64Array;
-  readonly y: Float64Array;
+  x: Float64Array;
+  y: Float64Array;
   readonly cols: Int32Array;
   readonly rows: Int32Array;
   /** Per pixel: PIXEL_EMPTY, PIXEL_PREVIEW or PIXEL_SOLVED. */
@@ -48,7 +48,7 @@ export class MapGrid {
   readonly nodeLabels: string[];
   private nodesPlaced = 0;
 
-  constructor(readonly input: MapInput) {
+  constructor(public input: MapInput) {
     const [nx, ny] = input.plane.resolution;
     this.nx = nx;
     this.ny = ny;
@@ -67,6 +67,23 @@ export class MapGrid {
     const nodes = cols.length * rows.length;
     this.nodeFrames = new Float64Array(32 * nodes);
     this.nodeLabels = new Array<string>(nodes).fill('');
+  }
+
+  /**
+   * Starts over for another input of the same resolution, keeping the buffers (a 256 x 256 grid
+   * holds 25 MB: allocating it anew for every slider step would stall the page). Every pixel and
+   * node becomes empty; old numbers stay in the buffers but are never read as solved.
+   */
+  reset(input: MapInput): void {
+    const [nx, ny] = input.plane.resolution;
+    if (nx !== this.nx || ny !== this.ny) throw new Error('MapGrid.reset: the resolution differs');
+    this.input = input;
+    this.x = Float64Array.from({ length: nx }, (_, i) => axisValue(input.plane.x, nx, i));
+    this.y = Float64Array.from({ length: ny }, (_, j) => axisValue(input.plane.y, ny, j));
+    this.status.fill(PIXEL_EMPTY);
+    this.labels.fill('');
+    this.nodeLabels.fill('');
+    this.nodesPlaced = 0;
   }
 
   get nodeCount(): number {
@@ -167,6 +184,23 @@ export class MapGrid {
         this.setPixel(p, block.labels[n]!, block.energy[n]!, block.gap[n]!, block, n);
       }
     }
+  }
+
+  /** Stores the results of `solvePixelList` for the pixels it was given. */
+  placePixelList(pixels: Int32Array, block: PixelBlock): void {
+    pixels.forEach((p, n) =>
+      this.setPixel(p, block.labels[n]!, block.energy[n]!, block.gap[n]!, block, n),
+    );
+  }
+
+  /**
+   * Solves pixel p here and now unless it is solved (one descent from the nearest coarse node:
+   * meant for pixels inside regions, once the cells holding boundaries are done).
+   */
+  solvePixelNow(p: number): void {
+    if (this.status[p] === PIXEL_SOLVED || !this.coarseComplete) return;
+    const pixels = Int32Array.of(p);
+    this.placePixelList(pixels, solvePixelList(this.input, this.coarseNodes(), pixels));
   }
 
   /** Edges between differently labelled pixels (ids as in `Crossing`). */

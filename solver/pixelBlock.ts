@@ -307,3 +307,57 @@ export function solveRowsCold(input: MapInput, j0: number, rows: number): PixelB
   }
   return block;
 }
+
+/** Index of the coarse cell that owns pixel index `i` along one side. */
+export function cellOf(line: Int32Array, i: number, n: number): number {
+  let a = 0;
+  while (a < line.length - 2 && cellSpan(line, a, n)[1] <= i) a++;
+  return a;
+}
+
+/**
+ * The listed pixels (indices p = j nx + i), each by one descent from the nearest corner node of
+ * its cell: the state of a pixel inside a region, on demand (hover, the ends of a boundary edge)
+ * rather than for every pixel. Results in list order, as a block of width `pixels.length`.
+ */
+export function solvePixelList(
+  input: MapInput,
+  coarse: CoarseNodes,
+  pixels: Int32Array,
+): PixelBlock {
+  const [nx, ny] = input.plane.resolution;
+  const count = pixels.length;
+  const block: PixelBlock = {
+    i0: 0,
+    j0: 0,
+    width: count,
+    height: 1,
+    energy: new Float64Array(count),
+    order: new Float64Array(15 * count),
+    gap: new Float64Array(count),
+    frames: new Float64Array(32 * count),
+    labels: new Array<string>(count),
+  };
+  const solver = new PixelSolver(input, coarse);
+  const width = coarse.cols.length;
+  for (let n = 0; n < count; n++) {
+    const i = pixels[n]! % nx;
+    const j = Math.floor(pixels[n]! / nx);
+    const a = cellOf(coarse.cols, i, nx);
+    const b = cellOf(coarse.rows, j, ny);
+    let nearest = b * width + a;
+    let distance = Infinity;
+    for (let corner = 0; corner < 4; corner++) {
+      const node = (b + (corner >> 1)) * width + a + (corner & 1);
+      const d =
+        (coarse.cols[a + (corner & 1)]! - i) ** 2 + (coarse.rows[b + (corner >> 1)]! - j) ** 2;
+      if (d < distance) {
+        distance = d;
+        nearest = node;
+      }
+    }
+    solver.fromNeighbour(i, j, coarse.frames.subarray(32 * nearest, 32 * nearest + 32));
+    solver.store(block, n);
+  }
+  return block;
+}

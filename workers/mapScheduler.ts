@@ -14,7 +14,10 @@ import { CancelledError, type WorkerPool } from './workerPool';
 export type JobPhase = 'coarse' | 'refining' | 'boundaries' | 'done' | 'failed';
 
 export interface MapJobEvents {
-  /** The grid changed (new results placed): redraw. */
+  /**
+   * The grid changed (new results placed): redraw. Before `coarse` the grid is not complete
+   * enough to show (and may be the one the previous job's map is not in).
+   */
   update(grid: MapGrid, phase: JobPhase): void;
   /** The first full coarse frame is in the grid (every pixel shows a nearby node's label). */
   coarse(grid: MapGrid): void;
@@ -27,8 +30,9 @@ export interface MapJobEvents {
 /** 'staged': coarse grid, adaptive cells, boundaries. 'cold': the baseline, a full search per pixel. */
 export type MapMode = 'staged' | 'cold';
 
-/** Coarse cells per side of one pixel task (a tile of 4 x 4 cells). */
-const TILE_CELLS = 4;
+/** Boundary cells along a row per pixel task, and region pixels per task. */
+const MAX_RUN = 4;
+const PIXELS_PER_TASK = 256;
 /** Coarse nodes per coarse task, edges per crossing task, rows per cold task. */
 const NODES_PER_TASK = 24;
 const EDGES_PER_TASK = 24;
@@ -54,6 +58,12 @@ function message(error: unknown): string {
  */
 export class MapScheduler {
   private job = 0;
+  /**
+   * Two grids in turn (per resolution): a new job fills the one that is not on screen, the
+   * grid of the last job that reached its coarse frame, so the map on screen never empties.
+   */
+  private grids: MapGrid[] = [];
+  private shown: MapGrid | null = null;
 
   constructor(
     private readonly pool: WorkerPool<AsyncMapStages>,
@@ -89,8 +99,22 @@ export class MapScheduler {
     return job !== this.job;
   }
 
-  private async staged(job: number, input: MapInput, json: string, events: MapJobEvents) {
+  /** An emptied grid for a new job, reusing one that is not on screen when the size allows. */
+  private gridFor(input: MapInput): MapGrid {
+    const [nx, ny] = input.plane.resolution;
+    this.grids = this.grids.filter((g) => g.nx === nx && g.ny === ny);
+    const free = this.grids.find((g) => g !== this.shown);
+    if (free) {
+      free.reset(input);
+      return free;
+    }
     const grid = new MapGrid(input);
+    this.grids.push(grid);
+    return grid;
+  }
+
+  private async staged(job: number, input: MapInput, json: string, events: MapJobEvents) {
+    const grid = this.gridFor(input);
     const width = grid.cols.length;
     const height = grid.rows.length;
     const stride = grid.cols.length > 1 ? grid.cols[1]! - grid.cols[0]! : 1;
@@ -116,45 +140,67 @@ export class MapScheduler {
     };
     await solveNodes(first, 0, stride);
     if (this.stale(job)) return;
+    this.shown = grid;
     events.coarse(grid);
     await solveNodes(second, 1, Math.max(1, Math.ceil(stride / 2)));
     if (this.stale(job)) return;
 
-    // Tiles of cells inside regions (cheap: one descent per pixel); tiles that hold a boundary
-    // (several descents per pixel) go row by row, and first, so the interesting part sharpens
-    // first and no task keeps a worker for long.
+    // Only cells whose corners disagree hold a boundary and are solved pixel by pixel now;
+    // inside regions every pixel already shows its cell's label, and its own state is solved
+    // when asked for (hover, export). Runs of up to MAX_RUN boundary cells along a row make one
+    // task each.
     const coarse = grid.coarseNodes();
-    const tiles: { a0: number; b0: number; a1: number; b1: number; mixed: boolean }[] = [];
-    for (let b0 = 0; b0 < height - 1; b0 += TILE_CELLS) {
-      for (let a0 = 0; a0 < width - 1; a0 += TILE_CELLS) {
-        const a1 = Math.min(width - 1, a0 + TILE_CELLS);
-        const b1 = Math.min(height - 1, b0 + TILE_CELLS);
-        let mixed = false;
-        for (let b = b0; b < b1; b++)
-          for (let a = a0; a < a1; a++) if (!cellIsUniform(coarse, a, b)) mixed = true;
-        if (!mixed) {
-          tiles.push({ a0, b0, a1, b1, mixed });
-          continue;
-        }
-        for (let b = b0; b < b1; b++) tiles.push({ a0, b0: b, a1, b1: b + 1, mixed });
+    const runs: { a0: number; b0: number; a1: number; b1: number }[] = [];
+    for (let b = 0; b < height - 1; b++) {
+      for (let a = 0; a < width - 1; a++) {
+        if (cellIsUniform(coarse, a, b)) continue;
+        const last = runs[runs.length - 1];
+        if (last && last.b0 === b && last.a1 === a && a - last.a0 < MAX_RUN) last.a1 = a + 1;
+        else runs.push({ a0: a, b0: b, a1: a + 1, b1: b + 1 });
       }
     }
     const failures: string[] = [];
+    const attempt = async (work: () => Promise<void>) => {
+      try {
+        await work();
+      } catch (error) {
+        if (error instanceof CancelledError) throw error;
+        failures.push(message(error));
+      }
+    };
     await Promise.all(
-      tiles.map(async (t) => {
-        const window = grid.coarseWindow(t.a0, t.b0, t.a1, t.b1);
-        try {
-          const block = await this.pool.run(job, t.mixed ? 2 : 3, (api) =>
+      runs.map((t) =>
+        attempt(async () => {
+          const window = grid.coarseWindow(t.a0, t.b0, t.a1, t.b1);
+          const block = await this.pool.run(job, 2, (api) =>
             api.cells(json, window, 0, 0, t.a1 - t.a0, t.b1 - t.b0),
           );
           if (this.stale(job)) return;
           grid.placePixels(block);
           events.update(grid, 'refining');
-        } catch (error) {
-          if (error instanceof CancelledError) throw error;
-          failures.push(message(error));
-        }
-      }),
+        }),
+      ),
+    );
+    if (this.stale(job)) return;
+
+    // A boundary edge may end on a region pixel next to a boundary cell: solve those ends.
+    const ends = new Set<number>();
+    for (const edge of grid.boundaryEdges()) {
+      const p = edge >> 1;
+      const q = (edge & 1) === 1 ? p + grid.nx : p + 1;
+      if (grid.status[p] !== PIXEL_SOLVED) ends.add(p);
+      if (grid.status[q] !== PIXEL_SOLVED) ends.add(q);
+    }
+    const endPixels = Int32Array.from([...ends].sort((x, y) => x - y));
+    await Promise.all(
+      splitRange(endPixels.length, Math.ceil(endPixels.length / PIXELS_PER_TASK)).map(
+        ([start, count]) =>
+          attempt(async () => {
+            const ids = endPixels.slice(start, start + count);
+            const block = await this.pool.run(job, 3, (api) => api.pixels(json, coarse, ids));
+            if (!this.stale(job)) grid.placePixelList(ids, block);
+          }),
+      ),
     );
     if (this.stale(job)) return;
 
@@ -195,7 +241,7 @@ export class MapScheduler {
   }
 
   private async cold(job: number, input: MapInput, json: string, events: MapJobEvents) {
-    const grid = new MapGrid(input);
+    const grid = this.gridFor(input);
     await Promise.all(
       splitRange(grid.ny, Math.ceil(grid.ny / ROWS_PER_TASK)).map(async ([j0, rows]) => {
         const block = await this.pool.run(job, 0, (api) => api.coldRows(json, j0, rows));
@@ -205,6 +251,7 @@ export class MapScheduler {
       }),
     );
     if (this.stale(job)) return;
+    this.shown = grid;
     events.coarse(grid);
     events.done(grid, []);
   }

@@ -8,6 +8,7 @@ import {
   parseModel,
   solveCells,
   solveCoarseNodes,
+  solvePixelList,
   solveRowsCold,
   type CoarseBlock,
   type CoarseNodes,
@@ -57,6 +58,10 @@ export const mapStagesApi = {
     b1: number,
   ): PixelBlock {
     return pixelTransfer(solveCells(inputOf(json), coarse, a0, b0, a1, b1));
+  },
+  /** Single pixels inside regions (the ends of boundary edges there). */
+  pixels(json: string, coarse: CoarseNodes, pixels: Int32Array): PixelBlock {
+    return pixelTransfer(solvePixelList(inputOf(json), coarse, pixels));
   },
   crossings(
     json: string,

@@ -20,6 +20,7 @@ const DEGREES = 180 / Math.PI;
 export function Readout() {
   const hover = useFourfold((s) => s.view.hover);
   const grid = useFourfold((s) => s.map.grid);
+  const phase = useFourfold((s) => s.map.phase);
   // Redraw when the grid under the pointer is refined.
   useFourfold((s) => s.map.version);
   if (!grid || !hover || hover.i >= grid.nx || hover.j >= grid.ny) {
@@ -30,6 +31,9 @@ export function Readout() {
     );
   }
   const p = hover.j * grid.nx + hover.i;
+  // Inside regions pixels are solved when asked for, once the boundary cells are done (a
+  // single descent from the nearest coarse node; the grid keeps the result).
+  if (phase === 'boundaries' || phase === 'done') grid.solvePixelNow(p);
   const { x: ax, y: ay } = grid.input.plane;
   const label = grid.labels[p] ?? '';
   const solved = grid.status[p] === PIXEL_SOLVED;

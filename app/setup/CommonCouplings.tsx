@@ -71,9 +71,12 @@ function CommonCoupling({ which }: { readonly which: Common }) {
   let value;
   if (sweepingAxis !== null) {
     value = (
-      <span className="swept-value" data-testid={`${id}-swept`}>
-        set by the {sweepingName} axis: {formatDisplay(sweepingAxis.from)} to{' '}
-        {formatDisplay(sweepingAxis.to)}
+      <span
+        className="swept-value"
+        data-testid={`${id}-swept`}
+        title={`set by the ${sweepingName} axis, from ${formatDisplay(sweepingAxis.from)} to ${formatDisplay(sweepingAxis.to)}`}
+      >
+        {sweepingName} axis
       </span>
     );
   } else if (sweptChannel !== undefined) {
