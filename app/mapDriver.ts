@@ -68,7 +68,9 @@ export function startMapDriver(mode: MapMode = 'staged'): () => void {
       if (queued === null) return;
       const patch = queued;
       queued = null;
-      store.getState().setMap({ ...patch, version: store.getState().map.version + 1 });
+      // Only new grid content is a new version (what the canvas and readout redraw on).
+      const version = store.getState().map.version + ('grid' in patch ? 1 : 0);
+      store.getState().setMap({ ...patch, version });
     };
     const bump = (patch: MapPatch, now = false) => {
       const first = queued === null;

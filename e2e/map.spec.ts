@@ -73,7 +73,7 @@ test('the demo Map shows the closed-form phases where model.md section 5 predict
     ['F', 0.5, 1.5],
     ['CAF', -0.5, 1.5],
     ['KD', -1.5, 1.5],
-    ['CDW', 0.3, -1.8],
+    ['CDW', -0.1, -1.7],
   ];
   for (const [phase, u, z] of points) {
     await hoverAt(page, u, z);

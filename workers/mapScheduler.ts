@@ -34,7 +34,7 @@ export type MapMode = 'staged' | 'cold';
 const MAX_RUN = 4;
 const PIXELS_PER_TASK = 256;
 /** Coarse nodes per coarse task, edges per crossing task, rows per cold task. */
-const NODES_PER_TASK = 24;
+const NODES_PER_TASK = 16;
 const EDGES_PER_TASK = 24;
 const ROWS_PER_TASK = 2;
 

@@ -30,8 +30,9 @@ export interface PoolOptions {
   /** A task running longer than this (ms) counts as a hung worker. */
   readonly timeoutMs?: number;
   /**
-   * Tasks sent to one worker at a time: 2 keeps the next task waiting inside the worker, so it
-   * never idles through a round trip to the page; stale work after a cancel stays small.
+   * Tasks sent to one worker at a time: more than one keeps the next task waiting inside the
+   * worker, so it never idles through a round trip to a busy page; stale work after a cancel
+   * stays small because tasks are.
    */
   readonly depth?: number;
 }
@@ -61,7 +62,7 @@ export class WorkerPool<Api> {
   ) {
     this.attempts = options.attempts ?? 2;
     this.timeoutMs = options.timeoutMs ?? 30000;
-    this.depth = options.depth ?? 2;
+    this.depth = options.depth ?? 3;
     this.members = Array.from({ length: Math.max(1, size) }, () => null);
     this.busy = this.members.map(() => 0);
   }
