@@ -195,3 +195,27 @@ test('a bad scenario file leaves the map as it was and says what is wrong', asyn
   await expect(page.getByTestId('notice')).toContainText('not-json.json');
   await page.screenshot({ path: 'test-results/screenshots/bad-file.png', fullPage: true });
 });
+
+test('a malformed link says what is wrong and keeps the saved setup', async ({ page }) => {
+  await page.goto('/');
+  await mapDone(page);
+  await page.getByTestId('zeeman').fill('0.8');
+  await mapDone(page);
+  // A scenario whose channel name is not one of the 15, then a link cut short.
+  const plane = {
+    x: { label: 'u_perp', from: -2, to: 2, targets: { 'x0.fock': 1 } },
+    y: { label: 'u_z', from: -2, to: 2, targets: { 'z0.fock': 1 } },
+  };
+  const bad = Buffer.from(
+    JSON.stringify({ filling: 0, channels: { zq: { fock: 1 } }, plane }),
+  ).toString('base64url');
+  await page.goto(`/#s=${bad}`);
+  await expect(page.getByTestId('notice')).toContainText('zq');
+  await expect(page.getByTestId('zeeman')).toHaveValue('0.8');
+  await mapDone(page);
+  await page.goto('/#s=eyJmaWxsaW5nIjo');
+  await page.reload();
+  await expect(page.getByTestId('notice')).toContainText('link');
+  await expect(page.getByTestId('zeeman')).toHaveValue('0.8');
+  await mapDone(page);
+});

@@ -262,7 +262,7 @@ describe('app limits', () => {
   test('a loaded grid beyond the browser limit is reduced, and says so', () => {
     const loaded = { ...GENERIC_SETUP, resolution: [2048, 300] as const };
     const fitted = fitSetupToApp(loaded);
-    expect(fitted.setup.resolution).toEqual([1024, 300]);
+    expect(fitted.setup.resolution).toEqual([APP_MAX_RESOLUTION, 300]);
     expect(fitted.setup.channels).toBe(loaded.channels);
     expect(fitted.note).toContain('2048 × 300');
     expect(fitSetupToApp(GENERIC_SETUP)).toEqual({ setup: GENERIC_SETUP, note: null });

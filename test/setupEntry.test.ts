@@ -106,7 +106,7 @@ describe('commitSetup', () => {
       'plane.x.to: must differ from plane.x.from',
     );
     expect(commitSetup({ resolution: [2000, 256] })).toMatch(
-      /^plane\.resolution\[0\]: at most 1024/,
+      /^plane\.resolution\[0\]: at most 512 in the browser/,
     );
     expect(commitSetup({ valleyZeeman: Number.POSITIVE_INFINITY })).toMatch(/^valleyZeeman:/);
     expect(useFourfold.getState().setup).toBe(before);

@@ -3,17 +3,18 @@ import { setupToMapInput } from './scenario';
 import type { Setup } from './setup';
 
 /**
- * Largest grid side the browser maps: 1024 x 1024 is already a million Hartree-Fock states.
- * The command line (`npm run map`) goes up to the solver's MAX_RESOLUTION.
+ * Largest grid side the browser maps. Each pixel keeps its state (about 400 bytes) in two grids
+ * used in turn, so 512 x 512 takes about 200 MB of the page's memory; the command line
+ * (`npm run map`) goes up to the solver's MAX_RESOLUTION.
  */
-export const APP_MAX_RESOLUTION = 1024;
+export const APP_MAX_RESOLUTION = 512;
 
 /** Why a grid side is refused in the app, or null (short, for beside the field). */
 export function resolutionProblem(side: number): string | null {
   if (!Number.isInteger(side)) return 'must be a whole number';
   if (side < 2) return 'at least 2 points per side';
   if (side > APP_MAX_RESOLUTION) {
-    return `at most ${APP_MAX_RESOLUTION} in the browser (${APP_MAX_RESOLUTION} × ${APP_MAX_RESOLUTION} is already a million states); npm run map takes up to ${MAX_RESOLUTION}`;
+    return `at most ${APP_MAX_RESOLUTION} in the browser (a larger map would not fit in a page's memory); npm run map takes up to ${MAX_RESOLUTION}`;
   }
   return null;
 }
