@@ -116,6 +116,23 @@ describe('browser Map scheduler (workers/mapScheduler.ts) over a worker pool', (
     pool.close();
   });
 
+  test('two grids in turn: a new job never fills the grid whose map is on screen', async () => {
+    const pool = new WorkerPool(() => inThread(), 2);
+    const scheduler = new MapScheduler(pool, BISECTION_TOLERANCE);
+    const small = JSON.stringify({ ...INTERFACES_EXAMPLE, plane: standardPlane(24, 24) });
+    const first = (await run(scheduler, small).outcome).grid;
+    const second = (await run(scheduler, small).outcome).grid;
+    const third = (await run(scheduler, small).outcome).grid;
+    expect(second).not.toBe(first);
+    // The first grid is off screen again once the second has shown its coarse frame: reused.
+    expect(third).toBe(first);
+    expect(third.labels).toEqual(second.labels);
+    // Another resolution gets its own grid.
+    const other = JSON.stringify({ ...INTERFACES_EXAMPLE, plane: standardPlane(20, 24) });
+    expect((await run(scheduler, other).outcome).grid.nx).toBe(20);
+    pool.close();
+  });
+
   test('a worker that throws once is replaced and its tile redone: the map is unchanged', async () => {
     const reference = await computePhaseMap(parseMapInput(JSON.parse(SCENARIO)));
     let faults = 0;
