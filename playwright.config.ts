@@ -1,4 +1,5 @@
 import { defineConfig } from '@playwright/test';
+import { CHROMIUM_ARGS, CHROMIUM_EXECUTABLE } from './e2e/chromium.mjs';
 
 const port = 4317;
 const baseURL = `http://127.0.0.1:${port}`;
@@ -17,18 +18,8 @@ export default defineConfig({
       use: {
         browserName: 'chromium',
         launchOptions: {
-          executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium',
-          args: [
-            '--headless',
-            '--no-sandbox',
-            '--disable-gpu',
-            '--disable-quic',
-            '--no-first-run',
-            '--disable-background-networking',
-            '--disable-component-update',
-            '--disable-sync',
-            '--host-resolver-rules=MAP * ~NOTFOUND , EXCLUDE 127.0.0.1 , EXCLUDE localhost',
-          ],
+          executablePath: CHROMIUM_EXECUTABLE,
+          args: CHROMIUM_ARGS,
         },
       },
     },

@@ -26,6 +26,22 @@ export interface PixelBlock {
   readonly labels: string[];
 }
 
+/** A block of the given rectangle with room for every pixel's results. */
+function emptyBlock(i0: number, j0: number, width: number, height: number): PixelBlock {
+  const count = width * height;
+  return {
+    i0,
+    j0,
+    width,
+    height,
+    energy: new Float64Array(count),
+    order: new Float64Array(15 * count),
+    gap: new Float64Array(count),
+    frames: new Float64Array(32 * count),
+    labels: new Array<string>(count),
+  };
+}
+
 /**
  * Pixel range [first, end) owned by coarse cell `a` along one side: from its own node up to the
  * next node, which belongs to the next cell, except after the last node (the grid's far edge).
@@ -73,18 +89,7 @@ export function solveCells(
   const [j0, jEnd] = [cellSpan(coarse.rows, b0, ny)[0], cellSpan(coarse.rows, b1 - 1, ny)[1]];
   const width = iEnd - i0;
   const height = jEnd - j0;
-  const count = width * height;
-  const block: PixelBlock = {
-    i0,
-    j0,
-    width,
-    height,
-    energy: new Float64Array(count),
-    order: new Float64Array(15 * count),
-    gap: new Float64Array(count),
-    frames: new Float64Array(32 * count),
-    labels: new Array<string>(count),
-  };
+  const block = emptyBlock(i0, j0, width, height);
   const solver = new PixelSolver(input, coarse);
   for (let b = b0; b < b1; b++) {
     const [jFirst, jLast] = cellSpan(coarse.rows, b, ny);
@@ -281,17 +286,7 @@ export function solveRowsCold(input: MapInput, j0: number, rows: number): PixelB
   const nf = input.model.filling + 2;
   const planeCouplings = new PlaneCouplings(input);
   const count = nx * rows;
-  const block: PixelBlock = {
-    i0: 0,
-    j0,
-    width: nx,
-    height: rows,
-    energy: new Float64Array(count),
-    order: new Float64Array(15 * count),
-    gap: new Float64Array(count),
-    frames: new Float64Array(32 * count),
-    labels: new Array<string>(count),
-  };
+  const block = emptyBlock(0, j0, nx, rows);
   const scratch = new PixelScratch();
   for (let n = 0; n < count; n++) {
     const i = n % nx;
@@ -327,17 +322,7 @@ export function solvePixelList(
 ): PixelBlock {
   const [nx, ny] = input.plane.resolution;
   const count = pixels.length;
-  const block: PixelBlock = {
-    i0: 0,
-    j0: 0,
-    width: count,
-    height: 1,
-    energy: new Float64Array(count),
-    order: new Float64Array(15 * count),
-    gap: new Float64Array(count),
-    frames: new Float64Array(32 * count),
-    labels: new Array<string>(count),
-  };
+  const block = emptyBlock(0, 0, count, 1);
   const solver = new PixelSolver(input, coarse);
   const width = coarse.cols.length;
   for (let n = 0; n < count; n++) {

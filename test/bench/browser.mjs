@@ -8,20 +8,10 @@ import { execFileSync, spawn } from 'node:child_process';
 import { mkdirSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { chromium } from '@playwright/test';
+import { CHROMIUM_ARGS, CHROMIUM_EXECUTABLE } from '../../e2e/chromium.mjs';
 
 const PORT = 4318;
 const BASE = `http://127.0.0.1:${PORT}`;
-const CHROMIUM_ARGS = [
-  '--headless',
-  '--no-sandbox',
-  '--disable-gpu',
-  '--disable-quic',
-  '--no-first-run',
-  '--disable-background-networking',
-  '--disable-component-update',
-  '--disable-sync',
-  '--host-resolver-rules=MAP * ~NOTFOUND , EXCLUDE 127.0.0.1 , EXCLUDE localhost',
-];
 
 /** The interfaces.md example model and plane at 256 x 256 (the benchmark scenario). */
 const SCENARIO = {
@@ -122,7 +112,7 @@ export async function runBrowserBenchmark({ root, repeats = 9 }) {
   try {
     await waitForServer(BASE, 30000);
     browser = await chromium.launch({
-      executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium',
+      executablePath: CHROMIUM_EXECUTABLE,
       args: CHROMIUM_ARGS,
     });
     const page = await openPage(browser, '');
