@@ -64,6 +64,7 @@ export {
 } from './plane';
 export {
   COARSE_SEARCH,
+  QUICK_SEARCH,
   coarseLayout,
   coarseNodes,
   coarseStride,

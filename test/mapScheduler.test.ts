@@ -53,6 +53,19 @@ function run(scheduler: MapScheduler, json: string): { job: number; outcome: Pro
   return { job, outcome };
 }
 
+/** Same polylines (pairs, order, point count), points within 1e-8 of the axis span of 4. */
+function expectSameBoundaries(actual: readonly Boundary[], expected: readonly Boundary[]): void {
+  expect(actual.map((b) => [b.between, b.order, b.points.length])).toEqual(
+    expected.map((b) => [b.between, b.order, b.points.length]),
+  );
+  actual.forEach((b, k) =>
+    b.points.forEach(([x, y], n) => {
+      expect(Math.abs(x - expected[k]!.points[n]![0])).toBeLessThan(1e-8);
+      expect(Math.abs(y - expected[k]!.points[n]![1])).toBeLessThan(1e-8);
+    }),
+  );
+}
+
 const SCENARIO = JSON.stringify({ ...INTERFACES_EXAMPLE, plane: standardPlane(48, 40) });
 
 describe('browser Map scheduler (workers/mapScheduler.ts) over a worker pool', () => {
@@ -72,15 +85,7 @@ describe('browser Map scheduler (workers/mapScheduler.ts) over a worker pool', (
     expect(solved).toBeLessThan(0.6 * grid.nx * grid.ny);
     // Boundaries: same polylines, points within the bisection tolerance (their edge ends may
     // differ in the last bits).
-    expect(result.boundaries.map((b) => [b.between, b.order, b.points.length])).toEqual(
-      reference.boundaries.map((b) => [b.between, b.order, b.points.length]),
-    );
-    result.boundaries.forEach((b, k) =>
-      b.points.forEach(([x, y], n) => {
-        expect(Math.abs(x - reference.boundaries[k]!.points[n]![0])).toBeLessThan(1e-8);
-        expect(Math.abs(y - reference.boundaries[k]!.points[n]![1])).toBeLessThan(1e-8);
-      }),
-    );
+    expectSameBoundaries(result.boundaries, reference.boundaries);
     // Every pixel's state on demand equals the one-shot state.
     for (let p = 0; p < grid.nx * grid.ny; p++) {
       grid.solvePixelNow(p);
@@ -130,6 +135,26 @@ describe('browser Map scheduler (workers/mapScheduler.ts) over a worker pool', (
     // Another resolution gets its own grid.
     const other = JSON.stringify({ ...INTERFACES_EXAMPLE, plane: standardPlane(20, 24) });
     expect((await run(scheduler, other).outcome).grid.nx).toBe(20);
+    pool.close();
+  });
+
+  test('after a small change the quick first look, once verified, gives the map a fresh job gives', async () => {
+    const pool = new WorkerPool(() => inThread(), 2);
+    const withHistory = new MapScheduler(pool, BISECTION_TOLERANCE);
+    const fresh = new MapScheduler(pool, BISECTION_TOLERANCE);
+    // The y range is shifted so that no pixel centre lies on uZ = uPerp, where KD and CDW are
+    // exactly degenerate (either is then right, and history may pick the other).
+    const at = (zeeman: number) =>
+      JSON.stringify({
+        ...INTERFACES_EXAMPLE,
+        zeeman,
+        plane: standardPlane(40, 40, [-2, 2], [-1.97, 2.03]),
+      });
+    await run(withHistory, at(0.4)).outcome;
+    const changed = await run(withHistory, at(0.9)).outcome;
+    const reference = await run(fresh, at(0.9)).outcome;
+    expect(changed.grid.labels).toEqual(reference.grid.labels);
+    expectSameBoundaries(changed.boundaries, reference.boundaries);
     pool.close();
   });
 

@@ -114,7 +114,19 @@ export class MapScheduler {
   }
 
   private async staged(job: number, input: MapInput, json: string, events: MapJobEvents) {
+    // The map on screen, when it has the same grid and filling, gives every coarse node a warm
+    // start: the first look can then use a lighter search, verified right after.
+    const previous = this.shown;
     const grid = this.gridFor(input);
+    const warmSource =
+      previous &&
+      previous !== grid &&
+      previous.nx === grid.nx &&
+      previous.ny === grid.ny &&
+      previous.coarseComplete &&
+      previous.input.model.filling === input.model.filling
+        ? previous.nodeFrames
+        : null;
     const width = grid.cols.length;
     const height = grid.rows.length;
     const stride = grid.cols.length > 1 ? grid.cols[1]! - grid.cols[0]! : 1;
@@ -125,12 +137,27 @@ export class MapScheduler {
       for (let a = 0; a < width; a++)
         (even(a, width) && even(b, height) ? first : second).push(b * width + a);
     }
-    const solveNodes = async (nodes: number[], priority: number, radius: number) => {
+    const framesOf = (source: Float64Array | null, ids: Int32Array) => {
+      if (!source) return undefined;
+      const out = new Float64Array(32 * ids.length);
+      ids.forEach((node, n) => out.set(source.subarray(32 * node, 32 * node + 32), 32 * n));
+      return out;
+    };
+    const solveNodes = async (
+      nodes: number[],
+      priority: number,
+      radius: number,
+      quick: boolean,
+      warm: (ids: Int32Array) => Float64Array | undefined,
+    ) => {
       await Promise.all(
         splitRange(nodes.length, Math.ceil(nodes.length / NODES_PER_TASK)).map(
           async ([start, count]) => {
             const ids = Int32Array.from(nodes.slice(start, start + count));
-            const block = await this.pool.run(job, priority, (api) => api.coarse(json, ids));
+            const frames = warm(ids);
+            const block = await this.pool.run(job, priority, (api) =>
+              api.coarse(json, ids, quick, frames),
+            );
             if (this.stale(job)) return;
             grid.placeCoarse(block, radius);
             events.update(grid, 'coarse');
@@ -138,11 +165,18 @@ export class MapScheduler {
         ),
       );
     };
-    await solveNodes(first, 0, stride);
+    const quick = warmSource !== null;
+    await solveNodes(first, 0, stride, quick, (ids) => framesOf(warmSource, ids));
     if (this.stale(job)) return;
     this.shown = grid;
     events.coarse(grid);
-    await solveNodes(second, 1, Math.max(1, Math.ceil(stride / 2)));
+    // The other nodes, and (after a quick first look) the first ones again with the full search.
+    const radius = Math.max(1, Math.ceil(stride / 2));
+    const levelA = grid.nodeFrames.slice();
+    await Promise.all([
+      solveNodes(second, 1, radius, false, (ids) => framesOf(warmSource, ids)),
+      quick ? solveNodes(first, 1, radius, false, (ids) => framesOf(levelA, ids)) : undefined,
+    ]);
     if (this.stale(job)) return;
 
     // Only cells whose corners disagree hold a boundary and are solved pixel by pixel now;

@@ -1,6 +1,8 @@
 import { transfer } from 'comlink';
 import {
+  COARSE_SEARCH,
   DEFAULT_MINIMISE,
+  QUICK_SEARCH,
   couplingsOf,
   locateCrossings,
   minimiseEnergy,
@@ -45,8 +47,9 @@ export const mapStagesApi = {
       minimiseEnergy(couplingsOf(model), DEFAULT_MINIMISE);
     }
   },
-  coarse(json: string, nodes: Int32Array): CoarseBlock {
-    const b = solveCoarseNodes(inputOf(json), nodes);
+  /** Coarse nodes; `quick` with `warm` frames (one per node) for a first look after a change. */
+  coarse(json: string, nodes: Int32Array, quick = false, warm?: Float64Array): CoarseBlock {
+    const b = solveCoarseNodes(inputOf(json), nodes, quick ? QUICK_SEARCH : COARSE_SEARCH, warm);
     return transfer(b, [b.frames.buffer, b.energy.buffer, b.order.buffer, b.gap.buffer]);
   },
   cells(
