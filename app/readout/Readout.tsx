@@ -90,6 +90,12 @@ export function Readout() {
               <dd data-testid="readout-gap" data-value={grid.gap[p]}>
                 {formatFixed(grid.gap[p]!, 6)}
               </dd>
+              {grid.gap[p]! < 0 && (
+                <dd className="readout-warning" data-testid="readout-gap-negative">
+                  Negative: an occupied level lies above an empty one (no Aufbau), so this uniform
+                  state is unstable to separated particle-hole pairs.
+                </dd>
+              )}
             </div>
             {neelInPlane > ORDER_TOLERANCE && (
               <div>
