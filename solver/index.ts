@@ -80,6 +80,7 @@ export {
   solveCells,
   solvePixelList,
   solveRowsCold,
+  type CellRange,
   type PixelBlock,
 } from './pixelBlock';
 export { PIXEL_EMPTY, PIXEL_PREVIEW, PIXEL_SOLVED, MapGrid, type PhaseMap } from './mapGrid';

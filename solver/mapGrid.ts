@@ -1,7 +1,7 @@
 import { joinBoundaries, type Boundary } from './boundaries';
 import { coarseLayout, type CoarseBlock, type CoarseNodes } from './coarseNodes';
 import { boundaryEdges, type Crossing } from './crossings';
-import { solvePixelList, type PixelBlock } from './pixelBlock';
+import { solvePixelList, type CellRange, type PixelBlock } from './pixelBlock';
 import { axisValue, type MapInput } from './plane';
 
 /** A computed Map: grids are flat row-major arrays, `values[j nx + i]` at (x[i], y[j]). */
@@ -156,7 +156,7 @@ export class MapGrid {
    * The part of the coarse grid that cells [a0, a1) x [b0, b1) need: nodes a0..a1, b0..b1, as
    * a grid of its own (cell (a, b) of the result is cell (a0 + a, b0 + b) here).
    */
-  coarseWindow(a0: number, b0: number, a1: number, b1: number): CoarseNodes {
+  coarseWindow({ a0, b0, a1, b1 }: CellRange): CoarseNodes {
     const width = this.cols.length;
     const frames = new Float64Array(32 * (a1 - a0 + 1) * (b1 - b0 + 1));
     const labels: string[] = [];

@@ -1,20 +1,13 @@
 import { nodeRange, solveCoarseNodes, type CoarseBlock, type CoarseNodes } from './coarseNodes';
 import { locateCrossings, type Crossing } from './crossings';
 import { MapGrid, type PhaseMap } from './mapGrid';
-import { solveCells, type PixelBlock } from './pixelBlock';
+import { solveCells, type CellRange, type PixelBlock } from './pixelBlock';
 import type { MapInput } from './plane';
 
 /** Workers the three stages can be spread over; the single-thread runner below is one. */
 export interface MapStages {
   coarse(input: MapInput, nodes: Int32Array): Promise<CoarseBlock>;
-  cells(
-    input: MapInput,
-    coarse: CoarseNodes,
-    a0: number,
-    b0: number,
-    a1: number,
-    b1: number,
-  ): Promise<PixelBlock>;
+  cells(input: MapInput, coarse: CoarseNodes, cells: CellRange): Promise<PixelBlock>;
   crossings(
     input: MapInput,
     edges: Int32Array,
@@ -26,7 +19,7 @@ export interface MapStages {
 
 export const localStages: MapStages = {
   coarse: async (input, nodes) => solveCoarseNodes(input, nodes),
-  cells: async (input, coarse, a0, b0, a1, b1) => solveCells(input, coarse, a0, b0, a1, b1),
+  cells: async (input, coarse, cells) => solveCells(input, coarse, cells),
   crossings: async (input, edges, frames, labels, tolerance) =>
     locateCrossings(input, edges, frames, labels, tolerance),
 };
@@ -61,7 +54,7 @@ export async function computePhaseMap(
   const cellRows = grid.rows.length - 1;
   const pixelBlocks = await Promise.all(
     splitRange(cellRows, parts * 16).map(([b0, count]) =>
-      stages.cells(input, coarse, 0, b0, cellCols, b0 + count),
+      stages.cells(input, coarse, { a0: 0, b0, a1: cellCols, b1: b0 + count }),
     ),
   );
   for (const block of pixelBlocks) grid.placePixels(block);

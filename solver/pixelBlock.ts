@@ -62,6 +62,14 @@ export function cellIsUniform(coarse: CoarseNodes, a: number, b: number): boolea
   );
 }
 
+/** Coarse cells [a0, a1) x [b0, b1): cell (a, b) lies between nodes a, a + 1 and b, b + 1. */
+export interface CellRange {
+  readonly a0: number;
+  readonly b0: number;
+  readonly a1: number;
+  readonly b1: number;
+}
+
 /**
  * Stage 2 for the coarse cells [a0, a1) x [b0, b1) (cell (a, b) spans nodes a, a + 1 and
  * b, b + 1 of `coarse`, whose cols and rows are pixel indices of the full grid). Adaptive:
@@ -76,14 +84,8 @@ export function cellIsUniform(coarse: CoarseNodes, a: number, b: number): boolea
  * Every cell depends only on its own corners, so any grouping of cells into calls gives the same
  * numbers bit for bit.
  */
-export function solveCells(
-  input: MapInput,
-  coarse: CoarseNodes,
-  a0: number,
-  b0: number,
-  a1: number,
-  b1: number,
-): PixelBlock {
+export function solveCells(input: MapInput, coarse: CoarseNodes, cells: CellRange): PixelBlock {
+  const { a0, b0, a1, b1 } = cells;
   const [nx, ny] = input.plane.resolution;
   const [i0, iEnd] = [cellSpan(coarse.cols, a0, nx)[0], cellSpan(coarse.cols, a1 - 1, nx)[1]];
   const [j0, jEnd] = [cellSpan(coarse.rows, b0, ny)[0], cellSpan(coarse.rows, b1 - 1, ny)[1]];

@@ -1,4 +1,5 @@
-import { CHANNELS, parseModel, type Model, type RandomSource } from '../solver/index';
+import { expect } from 'vitest';
+import { CHANNELS, ModelError, parseModel, type Model, type RandomSource } from '../solver/index';
 
 /** Shared test inputs (not a test file itself: vitest runs `*.test.ts` only). */
 
@@ -56,4 +57,15 @@ export function genericModel(
     zeeman: zeemanMax * random(),
     valleyZeeman: valleyZeemanMax * (2 * random() - 1),
   });
+}
+
+/** The ModelError message thrown by `run`; fails the test when nothing or something else is thrown. */
+export function errorOf(run: () => unknown): string {
+  try {
+    run();
+  } catch (error) {
+    expect(error).toBeInstanceOf(ModelError);
+    return (error as ModelError).message;
+  }
+  throw new Error('expected a ModelError, but nothing was thrown');
 }

@@ -1,8 +1,7 @@
 import { describe, expect, test } from 'vitest';
-import { INTERFACES_EXAMPLE, standardPlane } from './fixtures';
+import { INTERFACES_EXAMPLE, errorOf, standardPlane } from './fixtures';
 import {
   CHANNELS,
-  ModelError,
   PlaneCouplings,
   axisValue,
   channelIndex,
@@ -18,17 +17,6 @@ import {
 
 /** The plane of interfaces.md (`map`), at a small resolution. */
 const INTERFACES_PLANE = standardPlane(24, 16);
-
-/** The ModelError message thrown by `run`; fails the test when nothing or something else is thrown. */
-function errorOf(run: () => unknown): string {
-  try {
-    run();
-  } catch (error) {
-    expect(error).toBeInstanceOf(ModelError);
-    return (error as ModelError).message;
-  }
-  throw new Error('expected a ModelError, but nothing was thrown');
-}
 
 /** Asserts a one-line message that starts with (names) the field path. */
 function expectFieldError(run: () => unknown, field: string, mentions: string[] = []): void {

@@ -1,6 +1,6 @@
 import { describe, expect, test } from 'vitest';
-import { INTERFACES_EXAMPLE, standardPlane } from './fixtures';
-import { ModelError, SOFTWARE_VERSION, parseMapInput } from '../solver/index';
+import { INTERFACES_EXAMPLE, errorOf, standardPlane } from './fixtures';
+import { SOFTWARE_VERSION, parseMapInput } from '../solver/index';
 import { DEMO_SETUP } from '../app/scenario/demo';
 import { scenarioToSetup, setupToScenario } from '../app/scenario/scenario';
 import {
@@ -58,17 +58,6 @@ const CUSTOM_SETUP: Setup = {
     targets: { 'x0.fock': 1, 'y0.fock': -1 },
   },
 };
-
-/** The ModelError message of `run`; fails when nothing or something else is thrown. */
-function errorOf(run: () => unknown): string {
-  try {
-    run();
-  } catch (error) {
-    expect(error).toBeInstanceOf(ModelError);
-    return (error as ModelError).message;
-  }
-  throw new Error('expected a ModelError, but nothing was thrown');
-}
 
 /** A one-line message that starts with `prefix` (the field it names) and mentions `words`. */
 function expectOneLine(message: string, prefix: string, words: string[] = []): void {

@@ -4,6 +4,7 @@ import {
   cellIsUniform,
   splitRange,
   type Boundary,
+  type CellRange,
   type Crossing,
   type MapInput,
 } from '../solver/index';
@@ -184,7 +185,7 @@ export class MapScheduler {
     // when asked for (hover, export). Runs of up to MAX_RUN boundary cells along a row make one
     // task each.
     const coarse = grid.coarseNodes();
-    const runs: { a0: number; b0: number; a1: number; b1: number }[] = [];
+    const runs: { -readonly [K in keyof CellRange]: number }[] = [];
     for (let b = 0; b < height - 1; b++) {
       for (let a = 0; a < width - 1; a++) {
         if (cellIsUniform(coarse, a, b)) continue;
@@ -205,9 +206,9 @@ export class MapScheduler {
     await Promise.all(
       runs.map((t) =>
         attempt(async () => {
-          const window = grid.coarseWindow(t.a0, t.b0, t.a1, t.b1);
+          const window = grid.coarseWindow(t);
           const block = await this.pool.run(job, 2, (api) =>
-            api.cells(json, window, 0, 0, t.a1 - t.a0, t.b1 - t.b0),
+            api.cells(json, window, { a0: 0, b0: 0, a1: t.a1 - t.a0, b1: t.b1 - t.b0 }),
           );
           if (this.stale(job)) return;
           grid.placePixels(block);

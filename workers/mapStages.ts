@@ -12,6 +12,7 @@ import {
   solveCoarseNodes,
   solvePixelList,
   solveRowsCold,
+  type CellRange,
   type CoarseBlock,
   type CoarseNodes,
   type Crossing,
@@ -52,15 +53,8 @@ export const mapStagesApi = {
     const b = solveCoarseNodes(inputOf(json), nodes, quick ? QUICK_SEARCH : COARSE_SEARCH, warm);
     return transfer(b, [b.frames.buffer, b.energy.buffer, b.order.buffer, b.gap.buffer]);
   },
-  cells(
-    json: string,
-    coarse: CoarseNodes,
-    a0: number,
-    b0: number,
-    a1: number,
-    b1: number,
-  ): PixelBlock {
-    return pixelTransfer(solveCells(inputOf(json), coarse, a0, b0, a1, b1));
+  cells(json: string, coarse: CoarseNodes, cells: CellRange): PixelBlock {
+    return pixelTransfer(solveCells(inputOf(json), coarse, cells));
   },
   /** Single pixels inside regions (the ends of boundary edges there). */
   pixels(json: string, coarse: CoarseNodes, pixels: Int32Array): PixelBlock {

@@ -17,21 +17,22 @@ export function scenarioFileText(setup: Setup): string {
 }
 
 /**
- * The setup of a scenario file's text. Throws ModelError with one line that starts with the
- * file name and names the problem (bad JSON, or the field that fails validation).
+ * The setup of a scenario document's text (a file's, or a link's once decoded). Throws
+ * ModelError with one line that starts with `source` (the file name, or "link") and names the
+ * problem: bad JSON, or the field that fails validation.
  */
-export function parseScenarioFile(text: string, fileName: string): Setup {
+export function parseScenarioFile(text: string, source: string): Setup {
   let json: unknown;
   try {
     json = JSON.parse(text);
   } catch (error) {
     const reason = error instanceof Error ? error.message.split('\n', 1)[0] : String(error);
-    throw new ModelError(`${fileName}: not valid JSON (${reason})`);
+    throw new ModelError(`${source}: not valid JSON (${reason})`);
   }
   try {
     return scenarioToSetup(json);
   } catch (error) {
-    if (error instanceof ModelError) throw new ModelError(`${fileName}: ${error.message}`);
+    if (error instanceof ModelError) throw new ModelError(`${source}: ${error.message}`);
     throw error;
   }
 }

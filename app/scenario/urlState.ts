@@ -1,5 +1,6 @@
 import { ModelError } from '../../solver/index';
-import { scenarioToSetup, setupToScenario } from './scenario';
+import { setupToScenario } from './scenario';
+import { parseScenarioFile } from './scenarioFile';
 import type { Setup } from './setup';
 
 /** The hash parameter that holds the scenario: `#s=<base64url of the compact JSON>`. */
@@ -52,18 +53,5 @@ export function readScenarioHash(hash: string): Setup | null {
   const code = hashParams(hash).get(SCENARIO_HASH_KEY);
   if (code === null) return null;
   if (code === '') throw new ModelError(`${LINK}: empty; the link holds no scenario`);
-  const text = decodeBase64Url(code, LINK);
-  let json: unknown;
-  try {
-    json = JSON.parse(text);
-  } catch (error) {
-    const reason = error instanceof Error ? error.message.split('\n', 1)[0] : String(error);
-    throw new ModelError(`${LINK}: not valid JSON (${reason})`);
-  }
-  try {
-    return scenarioToSetup(json);
-  } catch (error) {
-    if (error instanceof ModelError) throw new ModelError(`${LINK}: ${error.message}`);
-    throw error;
-  }
+  return parseScenarioFile(decodeBase64Url(code, LINK), LINK);
 }

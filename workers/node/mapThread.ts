@@ -2,7 +2,14 @@ import { parentPort } from 'node:worker_threads';
 import { expose, transfer } from 'comlink';
 import nodeEndpoint from 'comlink/dist/esm/node-adapter.mjs';
 import { locateCrossings, solveCells, solveCoarseNodes } from '../../solver/index';
-import type { CoarseBlock, CoarseNodes, Crossing, MapInput, PixelBlock } from '../../solver/index';
+import type {
+  CellRange,
+  CoarseBlock,
+  CoarseNodes,
+  Crossing,
+  MapInput,
+  PixelBlock,
+} from '../../solver/index';
 
 /** The Map stages, exposed to the CLI's thread pool; all logic lives in solver/. */
 const mapThreadApi = {
@@ -10,15 +17,8 @@ const mapThreadApi = {
     const b = solveCoarseNodes(input, nodes);
     return transfer(b, [b.frames.buffer, b.energy.buffer, b.order.buffer, b.gap.buffer]);
   },
-  cells(
-    input: MapInput,
-    coarse: CoarseNodes,
-    a0: number,
-    b0: number,
-    a1: number,
-    b1: number,
-  ): PixelBlock {
-    const b = solveCells(input, coarse, a0, b0, a1, b1);
+  cells(input: MapInput, coarse: CoarseNodes, cells: CellRange): PixelBlock {
+    const b = solveCells(input, coarse, cells);
     return transfer(b, [b.energy.buffer, b.order.buffer, b.gap.buffer, b.frames.buffer]);
   },
   crossings(

@@ -50,8 +50,7 @@ export class ThreadPool {
 
   readonly stages: MapStages = {
     coarse: (input, nodes) => this.run((r) => r.coarse(input, nodes)),
-    cells: (input, coarse, a0, b0, a1, b1) =>
-      this.run((r) => r.cells(input, coarse, a0, b0, a1, b1)),
+    cells: (input, coarse, cells) => this.run((r) => r.cells(input, coarse, cells)),
     crossings: (input, edges, frames, labels) =>
       this.run((r) => r.crossings(input, edges, frames, labels)),
   };
