@@ -1,7 +1,7 @@
-import { ModelError, type MapInput } from '../solver/index';
+import { ModelError, parseMapInput, type MapInput } from '../solver/index';
 import { createMapScheduler } from '../workers/mapClient';
 import type { MapMode, MapScheduler } from '../workers/mapScheduler';
-import { setupToMapInput, setupToScenario } from './scenario/scenario';
+import { setupToScenario } from './scenario/scenario';
 import type { Setup } from './scenario/setup';
 import { useFourfold, type FourfoldState } from './store/index';
 
@@ -43,11 +43,11 @@ export function startMapDriver(mode: MapMode = 'staged'): () => void {
       pending = { setup, changedAt };
       return;
     }
+    let scenario: ReturnType<typeof setupToScenario>;
     let input: MapInput;
-    let json: string;
     try {
-      input = setupToMapInput(setup);
-      json = JSON.stringify(setupToScenario(setup));
+      scenario = setupToScenario(setup);
+      input = parseMapInput(scenario);
     } catch (error) {
       store
         .getState()
@@ -68,6 +68,8 @@ export function startMapDriver(mode: MapMode = 'staged'): () => void {
       if (queued === null) return;
       const patch = queued;
       queued = null;
+      // A timer of a superseded job publishes nothing.
+      if (job !== scheduler?.current) return;
       // Only new grid content is a new version (what the canvas and readout redraw on).
       const version = store.getState().map.version + ('grid' in patch ? 1 : 0);
       store.getState().setMap({ ...patch, version });
@@ -80,7 +82,7 @@ export function startMapDriver(mode: MapMode = 'staged'): () => void {
     };
     const job = scheduler.start(
       input,
-      json,
+      JSON.stringify(scenario),
       {
         update: (grid, phase) => {
           // The previous map stays on screen until this job's coarse frame is complete.
@@ -90,12 +92,11 @@ export function startMapDriver(mode: MapMode = 'staged'): () => void {
         coarse: (grid) => {
           if (job !== scheduler?.current) return;
           coarseShown = true;
-          bump({ grid, phase: 'refining', boundaries: [] });
           const ms = performance.now() - changedAt;
           afterPaint(() =>
             performance.measure(MARK_COARSE, { start: changedAt, detail: { job, mode } }),
           );
-          bump({ coarseMs: ms }, true);
+          bump({ grid, phase: 'refining', boundaries: [], coarseMs: ms }, true);
           awaitingCoarse = false;
           flush();
         },

@@ -236,10 +236,11 @@ class PixelSolver {
     for (let j = jFirst; j < jLast; j++) {
       for (let i = iFirst; i < iLast; i++) {
         const local = (j - jFirst) * w + (i - iFirst);
+        // Couplings of this pixel, also used by `store` below.
+        const scale = this.at(i, j).scale;
         let pick = local;
         for (let k = 1; k < branches; k++) {
           const slot = k * size + local;
-          const scale = this.at(i, j).scale;
           const better =
             store.converged[slot]! > store.converged[pick]! ||
             (store.converged[slot] === store.converged[pick] &&
@@ -248,7 +249,6 @@ class PixelSolver {
                   store.groups[slot]! < store.groups[pick]!)));
           if (better) pick = slot;
         }
-        this.at(i, j);
         this.best.set(store.frames.subarray(32 * pick, 32 * pick + 32));
         this.store(block, (j - block.j0) * blockWidth + (i - block.i0));
       }

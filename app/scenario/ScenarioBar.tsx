@@ -79,6 +79,7 @@ export function ScenarioBar() {
       </button>
       <label className="scenario-load">
         <input
+          className="visually-hidden"
           type="file"
           accept=".json,application/json"
           data-testid="scenario-file"
