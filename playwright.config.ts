@@ -1,7 +1,10 @@
 import { defineConfig } from '@playwright/test';
 import { CHROMIUM_ARGS, CHROMIUM_EXECUTABLE } from './e2e/chromium.mjs';
 
-const port = 4317;
+// Several checkouts can run their browser tests at once on one machine: each picks its own port
+// and build directory (defaults for CI).
+const port = Number(process.env.FOURFOLD_E2E_PORT ?? 4317);
+const outDir = process.env.FOURFOLD_E2E_DIST ?? '../dist';
 const baseURL = `http://127.0.0.1:${port}`;
 
 export default defineConfig({
@@ -25,7 +28,7 @@ export default defineConfig({
     },
   ],
   webServer: {
-    command: `npx vite build && npx vite preview --host 127.0.0.1 --strictPort --port ${port}`,
+    command: `npx vite build --outDir ${outDir} && npx vite preview --outDir ${outDir} --host 127.0.0.1 --strictPort --port ${port}`,
     url: baseURL,
     reuseExistingServer: !process.env.CI,
     timeout: 120_000,

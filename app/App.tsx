@@ -3,6 +3,9 @@ import { startMapDriver } from './mapDriver';
 import { Legend } from './map/Legend';
 import { MapView } from './map/MapView';
 import { MeanFieldCautions } from './probe/MeanFieldCautions';
+import { ProbePanel } from './probe/ProbePanel';
+import { CutPanel } from './cut/CutPanel';
+import { FigureBar } from './figure/FigureBar';
 import { Readout } from './readout/Readout';
 import { NoticeLine } from './scenario/NoticeLine';
 import { ScenarioBar } from './scenario/ScenarioBar';
@@ -38,11 +41,20 @@ export function App() {
           <MapView />
           <MapStatus />
           <Legend />
+          <FigureBar />
         </section>
         <section className="panel readout-column" aria-labelledby="readout-heading">
           <h2 id="readout-heading">State under the pointer</h2>
           <Readout />
           <MeanFieldCautions />
+        </section>
+        <section className="panel probe-row" aria-labelledby="probe-heading">
+          <h2 id="probe-heading">Probe</h2>
+          <ProbePanel />
+        </section>
+        <section className="panel cut-row" aria-labelledby="cut-heading">
+          <h2 id="cut-heading">Cut</h2>
+          <CutPanel />
         </section>
       </main>
     </div>

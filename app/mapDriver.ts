@@ -1,5 +1,6 @@
 import { ModelError, parseMapInput, type MapInput } from '../solver/index';
 import { createMapScheduler } from '../workers/mapClient';
+import { provideSidePool } from './sidePool';
 import type { MapMode, MapScheduler } from '../workers/mapScheduler';
 import { setupToScenario } from './scenario/scenario';
 import type { Setup } from './scenario/setup';
@@ -149,6 +150,7 @@ export function startMapDriver(mode: MapMode = 'staged'): () => void {
       }
       scheduler = created.scheduler;
       pool = created.pool;
+      provideSidePool(created.pool);
       flush();
     })
     .catch((error: unknown) => {

@@ -3,6 +3,7 @@ import {
   useLayoutEffect,
   useRef,
   useState,
+  type MouseEvent,
   type PointerEvent,
   type RefObject,
 } from 'react';
@@ -56,6 +57,19 @@ export function MapView() {
       setHover(pixel);
     }
   }, []);
+  // A click pins the pixel's centre (the point the hover readout shows) for the Probe.
+  const onClick = useCallback((event: MouseEvent<HTMLCanvasElement>) => {
+    const { map, view, addPin } = useFourfold.getState();
+    if (map.grid === null || view.mapGesture !== 'pin') return;
+    const box = event.currentTarget.getBoundingClientRect();
+    const pixel = pixelAtFraction(
+      (event.clientX - box.left) / box.width,
+      (event.clientY - box.top) / box.height,
+      map.grid.nx,
+      map.grid.ny,
+    );
+    if (pixel !== null) addPin(map.grid.x[pixel.i]!, map.grid.y[pixel.j]!);
+  }, []);
   const onPointerLeave = useCallback(() => {
     const { view, setHover } = useFourfold.getState();
     if (view.hover !== null) setHover(null);
@@ -71,7 +85,12 @@ export function MapView() {
             height: PLOT_MARGIN.top + side + PLOT_MARGIN.bottom,
           }}
         >
-          <RegionLayer side={side} onPointerMove={onPointerMove} onPointerLeave={onPointerLeave} />
+          <RegionLayer
+            side={side}
+            onPointerMove={onPointerMove}
+            onPointerLeave={onPointerLeave}
+            onClick={onClick}
+          />
           <Overlay side={side} />
         </div>
       ) : (

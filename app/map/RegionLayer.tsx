@@ -1,4 +1,4 @@
-import { useEffect, useRef, type PointerEventHandler } from 'react';
+import { useEffect, useRef, type MouseEventHandler, type PointerEventHandler } from 'react';
 import type { MapGrid } from '../../solver/index';
 import { useFourfold } from '../store/index';
 import { drawRegions } from './drawRegions';
@@ -10,6 +10,9 @@ export interface RegionLayerProps {
   readonly side: number;
   readonly onPointerMove?: PointerEventHandler<HTMLCanvasElement>;
   readonly onPointerLeave?: PointerEventHandler<HTMLCanvasElement>;
+  readonly onPointerDown?: PointerEventHandler<HTMLCanvasElement>;
+  readonly onPointerUp?: PointerEventHandler<HTMLCanvasElement>;
+  readonly onClick?: MouseEventHandler<HTMLCanvasElement>;
 }
 
 /** Composite stripes about 4 CSS pixels wide along a row (a two-token period of about 8). */
@@ -19,7 +22,14 @@ const STRIPE_CSS_PX = 4;
  * The Map's filled regions on a canvas of side x devicePixelRatio device pixels, placed exactly
  * on the plot box. Redrawn at most once per animation frame after the grid changes.
  */
-export function RegionLayer({ side, onPointerMove, onPointerLeave }: RegionLayerProps) {
+export function RegionLayer({
+  side,
+  onPointerMove,
+  onPointerLeave,
+  onPointerDown,
+  onPointerUp,
+  onClick,
+}: RegionLayerProps) {
   const grid = useFourfold((s) => s.map.grid);
   const version = useFourfold((s) => s.map.version);
   const ratio = useDevicePixelRatio();
@@ -79,6 +89,9 @@ export function RegionLayer({ side, onPointerMove, onPointerLeave }: RegionLayer
       }
       onPointerMove={onPointerMove}
       onPointerLeave={onPointerLeave}
+      onPointerDown={onPointerDown}
+      onPointerUp={onPointerUp}
+      onClick={onClick}
     />
   );
 }

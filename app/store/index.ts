@@ -2,10 +2,11 @@ import { create } from 'zustand';
 import { createJSONStorage, persist, type StateStorage } from 'zustand/middleware';
 import { scenarioToSetup, setupToScenario } from '../scenario/scenario';
 import { createMapSlice, type MapSlice } from './mapSlice';
+import { createProbeSlice, pinsFromJson, type ProbeSlice } from './probeSlice';
 import { createSetupSlice, type SetupSlice } from './setupSlice';
 import { createViewSlice, type ViewSlice } from './viewSlice';
 
-export type FourfoldState = SetupSlice & MapSlice & ViewSlice;
+export type FourfoldState = SetupSlice & MapSlice & ViewSlice & ProbeSlice;
 
 /**
  * What survives a reload, in one table: each persisted key with how it is written and read
@@ -16,6 +17,10 @@ export const PERSISTED = {
     save: (s: FourfoldState) => setupToScenario(s.setup),
     // A stored scenario that no longer validates is ignored (the default stays).
     load: (json: unknown) => scenarioToSetup(json),
+  },
+  pins: {
+    save: (s: FourfoldState) => s.probe.pins,
+    load: (json: unknown) => pinsFromJson(json),
   },
 } as const;
 
@@ -40,7 +45,12 @@ function unchangedSkippingStorage(): StateStorage {
 
 export const useFourfold = create<FourfoldState>()(
   persist(
-    (...a) => ({ ...createSetupSlice(...a), ...createMapSlice(...a), ...createViewSlice(...a) }),
+    (...a) => ({
+      ...createSetupSlice(...a),
+      ...createMapSlice(...a),
+      ...createViewSlice(...a),
+      ...createProbeSlice(...a),
+    }),
     {
       name: STORAGE_KEY,
       version: 1,
@@ -57,6 +67,12 @@ export const useFourfold = create<FourfoldState>()(
           } catch {
             // Keep the default setup; the stored one came from an older or edited copy.
           }
+        }
+        if (persisted && typeof persisted === 'object' && 'pins' in persisted) {
+          const pins = PERSISTED.pins.load(persisted.pins);
+          Object.assign(out, {
+            probe: { pins, selected: pins[pins.length - 1]?.id ?? null },
+          });
         }
         return out;
       },

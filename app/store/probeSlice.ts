@@ -1,0 +1,66 @@
+import type { StateCreator } from 'zustand';
+import type { FourfoldState } from './index';
+
+/** A pinned point of the plane, in axis coordinates (so it survives a change of resolution). */
+export interface Pin {
+  readonly id: number;
+  readonly x: number;
+  readonly y: number;
+}
+
+/** Pins allowed at once: each holds a full Probe (spinors, modes, competitors). */
+export const MAX_PINS = 12;
+
+export interface ProbeSlice {
+  readonly probe: {
+    readonly pins: readonly Pin[];
+    /** The pin whose Probe is shown (null when none). */
+    readonly selected: number | null;
+  };
+  /** Pins a point and selects it; past MAX_PINS the oldest pin goes. */
+  addPin(x: number, y: number): void;
+  removePin(id: number): void;
+  selectPin(id: number | null): void;
+  replacePins(pins: readonly Pin[]): void;
+}
+
+export const createProbeSlice: StateCreator<FourfoldState, [], [], ProbeSlice> = (set) => ({
+  probe: { pins: [], selected: null },
+  addPin: (x, y) =>
+    set((s) => {
+      const id = s.probe.pins.reduce((m, p) => Math.max(m, p.id), 0) + 1;
+      const pins = [...s.probe.pins, { id, x, y }].slice(-MAX_PINS);
+      return { probe: { pins, selected: id } };
+    }),
+  removePin: (id) =>
+    set((s) => {
+      const pins = s.probe.pins.filter((p) => p.id !== id);
+      const selected =
+        s.probe.selected === id ? (pins[pins.length - 1]?.id ?? null) : s.probe.selected;
+      return { probe: { pins, selected } };
+    }),
+  selectPin: (selected) => set((s) => ({ probe: { ...s.probe, selected } })),
+  replacePins: (pins) =>
+    set({ probe: { pins: pins.slice(-MAX_PINS), selected: pins[pins.length - 1]?.id ?? null } }),
+});
+
+/** Pins read back from storage: anything malformed is dropped. */
+export function pinsFromJson(json: unknown): Pin[] {
+  if (!Array.isArray(json)) return [];
+  const pins: Pin[] = [];
+  for (const p of json as unknown[]) {
+    if (p === null || typeof p !== 'object') continue;
+    const { id, x, y } = p as Record<string, unknown>;
+    if (
+      typeof id === 'number' &&
+      Number.isInteger(id) &&
+      typeof x === 'number' &&
+      Number.isFinite(x) &&
+      typeof y === 'number' &&
+      Number.isFinite(y)
+    ) {
+      pins.push({ id, x, y });
+    }
+  }
+  return pins.slice(-MAX_PINS);
+}
