@@ -1,7 +1,9 @@
+import type { Couplings } from './couplings';
 import { DEFAULT_DESCENT, descend } from './localMinimise';
 import { DescentWorkspace } from './tangentSpace';
 import { DEFAULT_MINIMISE, minimiseEnergy } from './minimise';
-import { phaseLabel } from './phaseLabel';
+import { presentGroupCount } from './orderParameters';
+import { ORDER_TOLERANCE, phaseLabel } from './phaseLabel';
 import { axisValue, PlaneCouplings, type MapInput } from './plane';
 import { orderOfProjector, projectorOf } from './state';
 import { modelSymmetry } from './symmetry';
@@ -40,6 +42,69 @@ export function locateCrossings(
   const nf = input.model.filling + 2;
   const planeCouplings = new PlaneCouplings(input);
   const out: Crossing[] = [];
+  for (let e = 0; e < edges.length; e++) {
+    const edge = edges[e]!;
+    const pixel = edge >> 1;
+    const vertical = (edge & 1) === 1;
+    const i = pixel % nx;
+    const j = Math.floor(pixel / nx);
+    const x0 = axisValue(input.plane.x, nx, i);
+    const y0 = axisValue(input.plane.y, ny, j);
+    const x1 = vertical ? x0 : axisValue(input.plane.x, nx, i + 1);
+    const y1 = vertical ? axisValue(input.plane.y, ny, j + 1) : y0;
+    const near = endLabels[2 * e]!;
+    const far = endLabels[2 * e + 1]!;
+    const located = bisectTransition(
+      (t) => planeCouplings.at(x0 + t * (x1 - x0), y0 + t * (y1 - y0)),
+      nf,
+      { frame: endFrames.slice(64 * e, 64 * e + 32), label: near },
+      { frame: endFrames.slice(64 * e + 32, 64 * e + 64), label: far },
+      relativeTolerance * (vertical ? ny : nx),
+    );
+    const t = located.t;
+    out.push({
+      edge,
+      x: x0 + t * (x1 - x0),
+      y: y0 + t * (y1 - y0),
+      near,
+      far,
+      order: located.order,
+    });
+  }
+  return out;
+}
+
+/** One end of a bracket: a converged frame (32 numbers) and its phase label. */
+export interface BracketEnd {
+  readonly frame: Float64Array;
+  readonly label: string;
+}
+
+/** A transition located inside [0, 1] by `bisectTransition`. */
+export interface LocatedTransition {
+  /** Midpoint of the final bracket. */
+  readonly t: number;
+  readonly order: 'first' | 'continuous';
+  /** Frames at the final bracket's ends (near side, far side). */
+  readonly frameNear: Float64Array;
+  readonly frameFar: Float64Array;
+}
+
+/**
+ * Locates the transition between the states `nearEnd` (at t = 0) and `farEnd` (at t = 1) along
+ * couplings `at(t)`, to a bracket narrower than `tolerance` (in t). Both branches are continued
+ * from the bracket ends at every probe; when both are distinct local minima the root of their
+ * energy difference is found by regula falsi, otherwise by bisection. Typed first order when the
+ * order parameters jump by more than FIRST_ORDER_JUMP across the final bracket. `at` may reuse
+ * one object between calls.
+ */
+export function bisectTransition(
+  at: (t: number) => Couplings,
+  nf: number,
+  nearEnd: BracketEnd,
+  farEnd: BracketEnd,
+  tolerance: number,
+): LocatedTransition {
   const p = new Float64Array(32);
   const orderNear = new Float64Array(16);
   const orderFar = new Float64Array(16);
@@ -51,102 +116,96 @@ export function locateCrossings(
   // the ground state), converged tightly and polished so that soft modes near a continuous
   // transition do not blur the labels.
   const branch = { ...DEFAULT_DESCENT, escapeSaddles: false, polishSteps: 1 };
-  for (let e = 0; e < edges.length; e++) {
-    const edge = edges[e]!;
-    const pixel = edge >> 1;
-    const vertical = (edge & 1) === 1;
-    const i = pixel % nx;
-    const j = Math.floor(pixel / nx);
-    const x0 = axisValue(input.plane.x, nx, i);
-    const y0 = axisValue(input.plane.y, ny, j);
-    const x1 = vertical ? x0 : axisValue(input.plane.x, nx, i + 1);
-    const y1 = vertical ? axisValue(input.plane.y, ny, j + 1) : y0;
-    const tolerance = relativeTolerance * (vertical ? ny : nx);
-    const near = endLabels[2 * e]!;
-    const far = endLabels[2 * e + 1]!;
-    let lo = 0;
-    let hi = 1;
-    let frameNear: Float64Array = endFrames.slice(64 * e, 64 * e + 32);
-    let frameFar: Float64Array = endFrames.slice(64 * e + 32, 64 * e + 64);
-    // Energy difference of the two branches (near minus far) at the bracket ends, when both
-    // are distinct local minima there: a first-order transition is its root.
-    let gapLo: number | undefined;
-    let gapHi: number | undefined;
-    const probe = (t: number): void => {
-      const c = planeCouplings.at(x0 + t * (x1 - x0), y0 + t * (y1 - y0));
-      branchNear.set(frameNear);
-      branchFar.set(frameFar);
-      const a = descend(c, branchNear, branch, ws);
-      orderA.set(ws.order);
-      const b = descend(c, branchFar, branch, ws);
-      let frame: Float64Array;
-      let difference: number | undefined;
-      if (a.converged && b.converged) {
-        let distance = 0;
-        for (let k = 1; k < 16; k++)
-          distance = Math.max(distance, Math.abs(orderA[k]! - ws.order[k]!));
-        if (distance > FIRST_ORDER_JUMP) difference = a.energy - b.energy;
+  const near = nearEnd.label;
+  const far = farEnd.label;
+  let lo = 0;
+  let hi = 1;
+  let frameNear: Float64Array = Float64Array.from(nearEnd.frame);
+  let frameFar: Float64Array = Float64Array.from(farEnd.frame);
+  // Energy difference of the two branches (near minus far) at the bracket ends, when both
+  // are distinct local minima there: a first-order transition is its root.
+  let gapLo: number | undefined;
+  let gapHi: number | undefined;
+  const probe = (t: number): void => {
+    const c = at(t);
+    branchNear.set(frameNear);
+    branchFar.set(frameFar);
+    const a = descend(c, branchNear, branch, ws);
+    orderA.set(ws.order);
+    const b = descend(c, branchFar, branch, ws);
+    let frame: Float64Array;
+    let difference: number | undefined;
+    if (a.converged && b.converged) {
+      let distance = 0;
+      for (let k = 1; k < 16; k++)
+        distance = Math.max(distance, Math.abs(orderA[k]! - ws.order[k]!));
+      if (distance > FIRST_ORDER_JUMP) {
+        difference = a.energy - b.energy;
         frame = a.energy <= b.energy ? branchNear : branchFar;
-      } else if (a.converged) frame = branchNear;
-      else if (b.converged) frame = branchFar;
-      else {
-        frame = minimiseEnergy(c, DEFAULT_MINIMISE, {
-          warmStarts: [frameNear, frameFar],
-          gradientTolerance: 1e-12,
-          polishSteps: 1,
-        }).frame;
-      }
-      orderOfProjector(projectorOf(frame, nf, p), orderNear);
-      let label = phaseLabel(orderNear, c, modelSymmetry(c));
-      if (label !== near && label !== far) {
-        // Within rounding of a line where the two end states are degenerate (for H = F,
-        // uZ = uPerp joins KD and CDW by a valley rotation) a descent may stop part-way along
-        // the flat direction: the state belongs to the end it is closer to. (A genuine third
-        // phase narrower than one pixel edge is not resolved.)
-        label = closerEnd(orderNear, frameNear, frameFar, nf) ? near : far;
-      }
-      if (label === near) {
-        lo = t;
-        frameNear = Float64Array.from(frame);
-        gapLo = difference !== undefined && difference < 0 ? difference : undefined;
-      } else {
-        hi = t;
-        frameFar = Float64Array.from(frame);
-        gapHi = difference !== undefined && difference > 0 ? difference : undefined;
-      }
-    };
-    for (let guard = 0; hi - lo > tolerance && guard < 200; guard++) {
-      if (gapLo !== undefined && gapHi !== undefined) {
-        // Regula falsi on the branch energy difference, then two probes just either side of
-        // the estimate to close the bracket; fall back to bisection if it did not halve.
-        const width = hi - lo;
-        const estimate = lo + (width * gapLo) / (gapLo - gapHi);
-        const margin = 0.01 * tolerance;
-        probe(Math.min(hi - margin, Math.max(lo + margin, estimate - 0.4 * tolerance)));
-        if (hi - lo > tolerance) {
-          const second = Math.min(hi - margin, Math.max(lo + margin, estimate + 0.4 * tolerance));
-          if (second > lo && second < hi) probe(second);
-        }
-        if (hi - lo > width / 2) probe((lo + hi) / 2);
-      } else {
-        probe((lo + hi) / 2);
-      }
+      } else if (Math.abs(a.energy - b.energy) <= 1e-12 * c.scale) {
+        // One basin, energies equal to rounding: near a continuous transition the broken
+        // branch relaxes only as fast as its quartic energy allows and stops with a residual
+        // order parameter while the symmetric state is already a minimum. The simpler state
+        // wins (the symmetric one is not a minimum on the broken side: it fails the curvature
+        // test of `descend` there).
+        const groupsB = presentGroupCount(ws.order, ORDER_TOLERANCE);
+        frame = presentGroupCount(orderA, ORDER_TOLERANCE) <= groupsB ? branchNear : branchFar;
+      } else frame = a.energy < b.energy ? branchNear : branchFar;
+    } else if (a.converged) frame = branchNear;
+    else if (b.converged) frame = branchFar;
+    else {
+      frame = minimiseEnergy(c, DEFAULT_MINIMISE, {
+        warmStarts: [frameNear, frameFar],
+        gradientTolerance: 1e-12,
+        polishSteps: 1,
+      }).frame;
     }
-    orderOfProjector(projectorOf(frameNear, nf, p), orderNear);
-    orderOfProjector(projectorOf(frameFar, nf, p), orderFar);
-    let jump = 0;
-    for (let k = 1; k < 16; k++) jump = Math.max(jump, Math.abs(orderNear[k]! - orderFar[k]!));
-    const t = (lo + hi) / 2;
-    out.push({
-      edge,
-      x: x0 + t * (x1 - x0),
-      y: y0 + t * (y1 - y0),
-      near,
-      far,
-      order: jump > FIRST_ORDER_JUMP ? 'first' : 'continuous',
-    });
+    orderOfProjector(projectorOf(frame, nf, p), orderNear);
+    let label = phaseLabel(orderNear, c, modelSymmetry(c));
+    if (label !== near && label !== far) {
+      // Within rounding of a line where the two end states are degenerate (for H = F,
+      // uZ = uPerp joins KD and CDW by a valley rotation) a descent may stop part-way along
+      // the flat direction: the state belongs to the end it is closer to. (A genuine third
+      // phase narrower than the bracket is not resolved.)
+      label = closerEnd(orderNear, frameNear, frameFar, nf) ? near : far;
+    }
+    if (label === near) {
+      lo = t;
+      frameNear = Float64Array.from(frame);
+      gapLo = difference !== undefined && difference < 0 ? difference : undefined;
+    } else {
+      hi = t;
+      frameFar = Float64Array.from(frame);
+      gapHi = difference !== undefined && difference > 0 ? difference : undefined;
+    }
+  };
+  for (let guard = 0; hi - lo > tolerance && guard < 200; guard++) {
+    if (gapLo !== undefined && gapHi !== undefined) {
+      // Regula falsi on the branch energy difference, then two probes just either side of
+      // the estimate to close the bracket; fall back to bisection if it did not halve.
+      const width = hi - lo;
+      const estimate = lo + (width * gapLo) / (gapLo - gapHi);
+      const margin = 0.01 * tolerance;
+      probe(Math.min(hi - margin, Math.max(lo + margin, estimate - 0.4 * tolerance)));
+      if (hi - lo > tolerance) {
+        const second = Math.min(hi - margin, Math.max(lo + margin, estimate + 0.4 * tolerance));
+        if (second > lo && second < hi) probe(second);
+      }
+      if (hi - lo > width / 2) probe((lo + hi) / 2);
+    } else {
+      probe((lo + hi) / 2);
+    }
   }
-  return out;
+  orderOfProjector(projectorOf(frameNear, nf, p), orderNear);
+  orderOfProjector(projectorOf(frameFar, nf, p), orderFar);
+  let jump = 0;
+  for (let k = 1; k < 16; k++) jump = Math.max(jump, Math.abs(orderNear[k]! - orderFar[k]!));
+  return {
+    t: (lo + hi) / 2,
+    order: jump > FIRST_ORDER_JUMP ? 'first' : 'continuous',
+    frameNear,
+    frameFar,
+  };
 }
 
 /** Whether `order` lies closer (max norm) to the state of frame `a` than to that of `b`. */
