@@ -49,26 +49,6 @@ export { ORDER_TOLERANCE, TOKEN_MEANINGS, phaseLabel } from './phaseLabel';
 export { modelSymmetry, type ModelSymmetry } from './symmetry';
 export { GOLDSTONE_TOLERANCE, collectiveModes, type CollectiveModes } from './collectiveModes';
 export { occupiedSpinors } from './spinors';
-export {
-  brokenSymmetries,
-  isSymmetry,
-  orbitTangent,
-  type BrokenSymmetries,
-  type GaplessMode,
-} from './goldstoneModes';
-export {
-  probeFrame,
-  probeModel,
-  probeOfResult,
-  MAX_COMPETITORS,
-  type BondOrder,
-  type Competitor,
-  type ProbeGaplessMode,
-  type ProbeReport,
-  type ProbeSpinor,
-  type SiteOrder,
-  type SpinSectorValley,
-} from './probe';
 export { describeState, solve, type SolveResult } from './groundState';
 export { clean, solveResultToJson, type SolveJson } from './solveJson';
 export { MEAN_FIELD_CAUTION, SOFTWARE_VERSION } from './version';
@@ -76,7 +56,6 @@ export {
   MAX_RESOLUTION,
   PlaneCouplings,
   axisValue,
-  modelAtPoint,
   parseMapInput,
   parsePlane,
   type Axis,
@@ -137,13 +116,4 @@ export {
   magneticLength,
   zeemanEnergyMeV,
 } from './units';
-export {
-  RANGE_PROFILES,
-  exchangeIntegral,
-  exponentialIntegralE1,
-  interactionOf,
-  rangeCouplings,
-  rangeCouplingsMeV,
-  scaledExponentialIntegral,
-  type RangeProfile,
-} from './interactionRange';
+export { exponentialIntegralE1, rangeCouplings, type RangeProfile } from './interactionRange';
