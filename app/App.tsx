@@ -4,6 +4,7 @@ import { Legend } from './map/Legend';
 import { MapView } from './map/MapView';
 import { MeanFieldCautions } from './probe/MeanFieldCautions';
 import { ProbePanel } from './probe/ProbePanel';
+import { startProbeDriver } from './probe/probeDriver';
 import { CutPanel } from './cut/CutPanel';
 import { FigureBar } from './figure/FigureBar';
 import { Readout } from './readout/Readout';
@@ -21,6 +22,7 @@ function mapMode(): 'staged' | 'cold' {
 export function App() {
   useScenarioSync();
   useEffect(() => startMapDriver(mapMode()), []);
+  useEffect(() => startProbeDriver(), []);
   return (
     <div className="page">
       <header className="masthead">

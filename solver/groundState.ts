@@ -29,6 +29,8 @@ export interface SolveResult {
   readonly phase: string;
   /** Hartree-Fock levels ascending, including -E_X on occupied levels when E_X is set. */
   readonly levels: number[];
+  /** Whether each of `levels` is occupied (same order). */
+  readonly occupied: boolean[];
   /**
    * Quasiparticle gap (model.md section 7): lowest empty minus highest occupied HF level, plus
    * E_X when set; eps_(Nf+1) - eps_(Nf) under the Aufbau principle.
@@ -93,9 +95,12 @@ export function describeState(
     occupiedSet.splice(k, 1);
     return false;
   });
-  const levels = [...occupiedLevels.map((e) => e - c.exchange), ...emptyLevels].sort(
-    (a, b) => a - b,
-  );
+  const spectrum = [
+    ...occupiedLevels.map((e) => ({ energy: e - c.exchange, occupied: true })),
+    ...emptyLevels.map((e) => ({ energy: e, occupied: false })),
+  ].sort((a, b) => a.energy - b.energy);
+  const levels = spectrum.map((l) => l.energy);
+  const occupied = spectrum.map((l) => l.occupied);
   // Particle and hole far apart: cheapest empty level minus the highest occupied one. Equal to
   // eps_(Nf+1) - eps_(Nf) when the Aufbau principle holds; negative when it does not.
   const gap = Math.min(...emptyLevels) - Math.max(...occupiedLevels) + c.exchange;
@@ -112,6 +117,7 @@ export function describeState(
     groups: groupMagnitudes(order),
     phase,
     levels,
+    occupied,
     gap,
     aufbau,
     modes,

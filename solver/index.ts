@@ -49,6 +49,26 @@ export { ORDER_TOLERANCE, TOKEN_MEANINGS, phaseLabel } from './phaseLabel';
 export { modelSymmetry, type ModelSymmetry } from './symmetry';
 export { GOLDSTONE_TOLERANCE, collectiveModes, type CollectiveModes } from './collectiveModes';
 export { occupiedSpinors } from './spinors';
+export {
+  brokenSymmetries,
+  isSymmetry,
+  orbitTangent,
+  type BrokenSymmetries,
+  type GaplessMode,
+} from './goldstoneModes';
+export {
+  probeFrame,
+  probeModel,
+  probeOfResult,
+  MAX_COMPETITORS,
+  type BondOrder,
+  type Competitor,
+  type ProbeGaplessMode,
+  type ProbeReport,
+  type ProbeSpinor,
+  type SiteOrder,
+  type SpinSectorValley,
+} from './probe';
 export { describeState, solve, type SolveResult } from './groundState';
 export { clean, solveResultToJson, type SolveJson } from './solveJson';
 export { MEAN_FIELD_CAUTION, SOFTWARE_VERSION } from './version';
@@ -56,6 +76,7 @@ export {
   MAX_RESOLUTION,
   PlaneCouplings,
   axisValue,
+  modelAtPoint,
   parseMapInput,
   parsePlane,
   type Axis,
@@ -101,6 +122,7 @@ export {
   type CutResult,
   type CutTransition,
 } from './cut';
+export { cutToCsv, cutToJson } from './cutExport';
 export { joinBoundaries, type Boundary } from './boundaries';
 export { computePhaseMap, localStages, splitRange, type MapStages } from './phaseMap';
 export { legendOf, mapToCsv, mapToJson } from './mapExport';
@@ -116,4 +138,13 @@ export {
   magneticLength,
   zeemanEnergyMeV,
 } from './units';
-export { exponentialIntegralE1, rangeCouplings, type RangeProfile } from './interactionRange';
+export {
+  RANGE_PROFILES,
+  exchangeIntegral,
+  exponentialIntegralE1,
+  interactionOf,
+  rangeCouplings,
+  rangeCouplingsMeV,
+  scaledExponentialIntegral,
+  type RangeProfile,
+} from './interactionRange';

@@ -1,4 +1,4 @@
-import { channelIndex } from './channels';
+import { channelIndex, type Channel } from './channels';
 import {
   couplingArrays,
   couplingsFromArrays,
@@ -11,6 +11,7 @@ import {
   isPlainObject,
   occupiedCount,
   parseModel,
+  type ChannelCoupling,
   type Model,
 } from './model';
 
@@ -210,4 +211,33 @@ export class PlaneCouplings {
     point.scale = Math.max(scale, 1e-300);
     return point;
   }
+}
+
+/**
+ * The model a plane point stands for (interfaces.md `map`): every target set to
+ * coefficient * t, summed over the axes that name it; everything else from the input's model.
+ */
+export function modelAtPoint(input: MapInput, x: number, y: number): Model {
+  const channels: Partial<Record<Channel, ChannelCoupling>> = { ...input.model.channels };
+  let zeeman = input.model.zeeman;
+  let valleyZeeman = input.model.valleyZeeman;
+  const set = new Map<string, number>();
+  for (const [axis, t] of [
+    [input.plane.x, x],
+    [input.plane.y, y],
+  ] as const) {
+    for (const [name, coefficient] of Object.entries(axis.targets)) {
+      set.set(name, (set.get(name) ?? 0) + coefficient * t);
+    }
+  }
+  for (const [name, value] of set) {
+    if (name === 'zeeman') zeeman = value;
+    else if (name === 'valleyZeeman') valleyZeeman = value;
+    else {
+      const [channel, part] = name.split('.') as [Channel, 'hartree' | 'fock'];
+      const old = channels[channel] ?? { hartree: 0, fock: 0 };
+      channels[channel] = { ...old, [part]: value };
+    }
+  }
+  return { ...input.model, channels, zeeman, valleyZeeman };
 }

@@ -6,8 +6,10 @@ import {
   couplingsOf,
   locateCrossings,
   minimiseEnergy,
+  modelAtPoint,
   parseMapInput,
   parseModel,
+  probeModel,
   solveCells,
   solveCoarseNodes,
   solvePixelList,
@@ -18,6 +20,7 @@ import {
   type Crossing,
   type MapInput,
   type PixelBlock,
+  type ProbeReport,
 } from '../solver/index';
 
 let lastJson = '';
@@ -68,6 +71,10 @@ export const mapStagesApi = {
     relativeTolerance: number,
   ): Crossing[] {
     return locateCrossings(inputOf(json), edges, endFrames, endLabels, relativeTolerance);
+  },
+  /** The Probe of the plane point (x, y): ground state, competitors and derived numbers. */
+  probe(json: string, x: number, y: number): ProbeReport {
+    return probeModel(modelAtPoint(inputOf(json), x, y));
   },
   /** The baseline: a full cold search at every pixel of rows [j0, j0 + rows). */
   coldRows(json: string, j0: number, rows: number): PixelBlock {

@@ -2,7 +2,9 @@ import { axisBottom, axisLeft, axisRight, axisTop, line, scaleLinear, select } f
 import type { ScaleLinear } from 'd3';
 import { memo, useEffect, useId, useMemo, useRef } from 'react';
 import type { Boundary, Plane } from '../../solver/index';
+import { PinLayer } from '../probe/PinLayer';
 import { useFourfold } from '../store/index';
+import { TiltTrajectoryLayer } from '../setup/TiltTrajectoryLayer';
 import { axisTitle } from './axisTitle';
 import { PLOT_MARGIN } from './plotFrame';
 
@@ -43,7 +45,9 @@ export function Overlay({ side }: OverlayProps) {
       <g transform={`translate(${PLOT_MARGIN.left},${PLOT_MARGIN.top})`}>
         <g clipPath={`url(#${clipId})`}>
           <Boundaries x={scales.x} y={scales.y} />
+          <TiltTrajectoryLayer x={scales.x} y={scales.y} />
           <Crosshair x={scales.x} y={scales.y} side={side} />
+          <PinLayer x={scales.x} y={scales.y} />
         </g>
         <rect className="map-frame" width={side} height={side} />
         <Axes x={scales.x} y={scales.y} side={side} />

@@ -71,7 +71,7 @@ export const useFourfold = create<FourfoldState>()(
         if (persisted && typeof persisted === 'object' && 'pins' in persisted) {
           const pins = PERSISTED.pins.load(persisted.pins);
           Object.assign(out, {
-            probe: { pins, selected: pins[pins.length - 1]?.id ?? null },
+            probe: { pins, selected: pins[pins.length - 1]?.id ?? null, results: {} },
           });
         }
         return out;

@@ -1,0 +1,151 @@
+import { useMemo } from 'react';
+import { TOKEN_MEANINGS, type ProbeReport } from '../../solver/index';
+import { downloadText } from '../download';
+import { formatFixed } from '../format';
+import type { Pin } from '../store/probeSlice';
+import { LevelDiagram } from './LevelDiagram';
+import { latticeSvg } from './latticeSvg';
+import { ModeList } from './ModeList';
+import { OrientationDiscs } from './OrientationDiscs';
+import { SpinorTable } from './SpinorTable';
+
+/** The Probe JSON: the report plus where it was taken. */
+export function probeDocument(pin: Pin, report: ProbeReport): string {
+  return JSON.stringify({ point: { x: pin.x, y: pin.y }, ...report }, null, 2) + '\n';
+}
+
+/** Every section of one pin's Probe. */
+export function ProbeDetails({ pin, report }: { pin: Pin; report: ProbeReport }) {
+  const state = report.state;
+  const lattice = useMemo(() => latticeSvg(report, `Pin ${pin.id}`), [report, pin.id]);
+  const meaning = state.phase
+    .split('+')
+    .map((t) => TOKEN_MEANINGS[t] ?? (t === 'sym' ? 'no broken symmetry' : t))
+    .join('; ');
+  return (
+    <div
+      className="probe-details"
+      data-testid="probe-details"
+      data-pin={pin.id}
+      data-phase={state.phase}
+    >
+      <section className="probe-card probe-state">
+        <h3>Ground state</h3>
+        <p className="probe-label">
+          <strong data-testid="probe-phase">{state.phase}</strong>
+          <span>{meaning}</span>
+        </p>
+        <dl className="probe-figures">
+          <div>
+            <dt>Energy per flux quantum</dt>
+            <dd data-testid="probe-energy" data-value={state.energy}>
+              {formatFixed(state.energy, 9)}
+            </dd>
+          </div>
+          <div>
+            <dt>Quasiparticle gap*</dt>
+            <dd data-testid="probe-gap" data-value={state.gap}>
+              {formatFixed(state.gap, 6)}
+            </dd>
+          </div>
+        </dl>
+        <p className="probe-note">
+          {report.exchange > 0
+            ? `The gap and the occupied levels include the Coulomb exchange E_X = ${formatFixed(report.exchange, 4)}.`
+            : 'Without the Coulomb exchange E_X: it lowers every occupied level alike and adds E_X to the gap (set it in physical units or as "exchange" in the model file).'}
+        </p>
+        {!state.aufbau && (
+          <p className="probe-warning" data-testid="probe-no-aufbau">
+            The occupied levels are not the lowest ones (no Aufbau): with these Hartree-dominated
+            couplings the state is unstable to separated particle-hole pairs, and the gap is
+            negative.
+          </p>
+        )}
+        <LevelDiagram levels={report.levels} />
+        <p className="probe-note">
+          * A mean-field upper estimate: transport gaps are smaller (disorder, textures such as
+          skyrmions).
+        </p>
+      </section>
+
+      <section className="probe-card probe-spinors">
+        <h3>Occupied spinors</h3>
+        <SpinorTable report={report} />
+      </section>
+
+      <section className="probe-card probe-orientation">
+        <h3>Spin and valley</h3>
+        <OrientationDiscs report={report} />
+      </section>
+
+      <section className="probe-card probe-lattice">
+        <h3>On the lattice</h3>
+        <div
+          className="probe-lattice-picture"
+          data-testid="probe-lattice"
+          // Our own SVG text (numbers and solver labels, escaped), the same that is exported.
+          dangerouslySetInnerHTML={{ __html: lattice.replace(/^<\?xml[^>]*>\s*/, '') }}
+        />
+      </section>
+
+      <section className="probe-card probe-modes">
+        <h3>Collective modes at q = 0</h3>
+        <ModeList report={report} />
+      </section>
+
+      <section className="probe-card probe-competitors">
+        <h3>Competing minima</h3>
+        <table className="probe-table" data-testid="probe-competitors">
+          <thead>
+            <tr>
+              <th scope="col">State</th>
+              <th scope="col">Energy</th>
+              <th scope="col">Above ground</th>
+            </tr>
+          </thead>
+          <tbody>
+            {report.competitors.map((c, k) => (
+              <tr key={k} data-phase={c.phase} data-above={c.above}>
+                <td>
+                  {c.phase}
+                  {c.count > 1 && <span className="probe-family"> (degenerate family)</span>}
+                </td>
+                <td>{formatFixed(c.energy, 6)}</td>
+                <td>{k === 0 ? 'ground' : `+${formatFixed(c.above, 6)}`}</td>
+              </tr>
+            ))}
+          </tbody>
+        </table>
+        {report.competitors.length === 1 && (
+          <p className="probe-note">
+            No other local minimum was found from the seed library: the other states are saddle
+            points here.
+          </p>
+        )}
+      </section>
+
+      <div className="probe-exports">
+        <button
+          type="button"
+          data-testid="probe-export-json"
+          onClick={() =>
+            downloadText(
+              `fourfold-probe-${pin.id}.json`,
+              probeDocument(pin, report),
+              'application/json',
+            )
+          }
+        >
+          Save Probe (JSON)
+        </button>
+        <button
+          type="button"
+          data-testid="probe-export-lattice"
+          onClick={() => downloadText(`fourfold-lattice-${pin.id}.svg`, lattice, 'image/svg+xml')}
+        >
+          Save lattice picture (SVG)
+        </button>
+      </div>
+    </div>
+  );
+}
