@@ -1,153 +1,297 @@
-import type { PhaseMap } from '../../solver/index';
-import { legendOf, MEAN_FIELD_CAUTION } from '../../solver/index';
-import { labelColours } from './palette';
+import type { Boundary, MapInput } from '../../solver/index';
+import {
+  MEAN_FIELD_CAUTION,
+  SOFTWARE_VERSION,
+  TOKEN_MEANINGS,
+  legendOf,
+  modelToJson,
+} from '../../solver/index';
+import {
+  FIGURE_COLUMNS,
+  FIGURE_FONT,
+  FIGURE_INK,
+  FIGURE_LINE,
+  axisSvg,
+  estimateTextWidth,
+  escapeXml,
+  figureDocument,
+  svgNumber,
+  tickLabelFormat,
+  typesetLabel,
+  linearTicks,
+  type AxisScale,
+} from './figureStyle';
+import { EMPTY_COLOUR, labelColours } from './palette';
+import { regionOutlines, type PlanePoint } from './regionOutlines';
 
-/** Escapes text for SVG. */
-function esc(s: string): string {
-  return s.replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;');
+/** What the Map figure draws: a PhaseMap of the solver fits, and so does the app's grid. */
+export interface FigureMap {
+  readonly input: MapInput;
+  /** Row-major labels, labels[j nx + i] at pixel centre (x[i], y[j]); '' = not computed. */
+  readonly labels: readonly string[];
+  readonly boundaries: readonly Boundary[];
 }
 
-function fmt(v: number): string {
-  return Number(v.toFixed(3)).toString();
+/** A pinned point of the plane (axis coordinates), drawn as a numbered marker. */
+export interface FigurePin {
+  readonly id: number;
+  readonly x: number;
+  readonly y: number;
 }
 
-function ticks(from: number, to: number, count: number): number[] {
-  const lo = Math.min(from, to);
-  const hi = Math.max(from, to);
-  const raw = (hi - lo) / count;
-  const mag = 10 ** Math.floor(Math.log10(raw));
-  const step = [1, 2, 5, 10].map((m) => m * mag).find((s) => s >= raw) ?? raw;
-  const out: number[] = [];
-  for (let v = Math.ceil(lo / step) * step; v <= hi + 1e-12 * step; v += step)
-    out.push(Number(v.toPrecision(12)));
-  return out;
+export interface MapFigureOptions {
+  /** Journal column preset (default 'single'). */
+  readonly column?: 'single' | 'double';
+  /** A title above the plot (default none). */
+  readonly title?: string;
+  /** Probe points to mark (default none). */
+  readonly pins?: readonly FigurePin[];
+}
+
+/** Stripe width across the stripes of a coexistence region, pt. */
+const STRIPE = 1.6;
+/** Short names of the label tokens for the figure's legend (the solver's meanings are longer). */
+const SHORT_MEANINGS: Readonly<Record<string, string>> = {
+  F: 'ferromagnet',
+  Fxy: 'in-plane spin moment',
+  AF: 'antiferromagnet',
+  CAF: 'canted antiferromagnet',
+  CDW: 'charge density wave',
+  KD: 'Kekul\u00e9 distortion',
+  SB: 'spin bond order',
+  SBxy: 'in-plane spin bond order',
+  sym: 'no broken symmetry',
+};
+
+function meaningOf(label: string): string {
+  if (label === '') return 'not computed';
+  return label
+    .split('+')
+    .map((t) => SHORT_MEANINGS[t] ?? TOKEN_MEANINGS[t]?.split(':')[0] ?? t)
+    .join(' + ');
+}
+
+/** Words of `text` in lines no wider than `width` pt at `fontSize`. */
+function wrap(text: string, width: number, fontSize: number): string[] {
+  const lines: string[] = [];
+  let line = '';
+  for (const word of text.split(' ')) {
+    const next = line === '' ? word : `${line} ${word}`;
+    if (line !== '' && estimateTextWidth(next, fontSize) > width) {
+      lines.push(line);
+      line = word;
+    } else line = next;
+  }
+  if (line !== '') lines.push(line);
+  return lines;
+}
+
+function linearScale(from: number, to: number, r0: number, r1: number): AxisScale {
+  const f = ((v: number) => r0 + ((v - from) / (to - from)) * (r1 - r0)) as AxisScale;
+  f.domain = () => [from, to];
+  f.range = () => [r0, r1];
+  return f;
 }
 
 /**
- * A plain SVG figure of a Map (pure string function, shared by the CLI and the app): regions as
- * rectangles merged along rows, composite labels striped with their tokens' colours, refined
- * boundaries (first order solid, continuous dashed), axes, legend and the mean-field caution.
+ * The Map as a paper-ready SVG 1.1 figure (pure: no DOM; shared by the app's export and the CLI's
+ * `map --out X.svg`). Regions are filled vector paths that follow the refined boundaries
+ * (`regionOutlines`), coexistence regions are striped with their parents' colours, boundaries
+ * are curves (first order solid, continuous dashed), axes have ticks and typeset titles as text,
+ * the legend names each label, pins are numbered markers. Sized for a journal column (width in
+ * cm, viewBox in pt); the model, plane, version and mean-field caution go into <desc>.
  */
-export function mapFigureSvg(map: PhaseMap, title = ''): string {
-  const [nx, ny] = map.input.plane.resolution;
+export function mapFigureSvg(map: FigureMap, options: MapFigureOptions = {}): string {
+  const column = FIGURE_COLUMNS[options.column ?? 'single'];
+  const fs = FIGURE_FONT.size;
+  const small = FIGURE_FONT.small;
   const { x: ax, y: ay } = map.input.plane;
-  const plot = 420;
-  const left = 70;
-  const top = title ? 40 : 20;
-  const legendWidth = 220;
-  const width = left + plot + 20 + legendWidth;
-  const height = top + plot + 100;
-  const sx = (v: number) => left + ((v - ax.from) / (ax.to - ax.from)) * plot;
-  const sy = (v: number) => top + plot - ((v - ay.from) / (ay.to - ay.from)) * plot;
-  const cw = plot / nx;
-  const ch = plot / ny;
-  const parts: string[] = [];
-  parts.push(
-    `<svg xmlns="http://www.w3.org/2000/svg" version="1.1" width="${width}" height="${height}" viewBox="0 0 ${width} ${height}" font-family="Helvetica, Arial, sans-serif" font-size="12">`,
+  const title = options.title?.trim() ?? '';
+  const width = column.widthPt;
+
+  // Margins from the tick numbers' widths and the titles (axisSvg's default offsets).
+  const yFormat = tickLabelFormat(ay.from, ay.to, 5);
+  const widestY = Math.max(
+    ...linearTicks(ay.from, ay.to, 5).map((v) => estimateTextWidth(yFormat(v), fs)),
   );
-  const patterns = new Map<string, string>();
+  const gap = 0.35 * fs;
+  const left = Math.ceil(gap + widestY + 0.85 * fs + 0.9 * fs + 2);
+  const right = 0.6 * fs;
+  const top = title === '' ? 0.8 * fs : 2.2 * fs;
+  const bottom = Math.ceil(gap + 1.25 * fs + fs + 0.6 * fs);
+  const legendBeside = column.name === 'double';
+  const side = legendBeside ? Math.round(0.6 * width) : Math.floor(width - left - right);
+  const plotX = left;
+  const plotY = top;
+  const sx = linearScale(ax.from, ax.to, plotX, plotX + side);
+  const sy = linearScale(ay.from, ay.to, plotY + side, plotY);
+
+  // Regions.
+  const partition = regionOutlines({
+    plane: map.input.plane,
+    labels: map.labels,
+    boundaries: map.boundaries,
+  });
+  const patterns: string[] = [];
+  const fills = new Map<string, string>();
   const fillOf = (label: string): string => {
-    const colours = labelColours(label);
-    if (colours.length === 1) return colours[0]!;
-    let id = patterns.get(label);
-    if (id === undefined) {
-      id = `stripes${patterns.size}`;
-      patterns.set(label, id);
-    }
-    return `url(#${id})`;
-  };
-  const cells: string[] = [];
-  for (let j = 0; j < ny; j++) {
-    let i = 0;
-    while (i < nx) {
-      const label = map.labels[j * nx + i]!;
-      let k = i + 1;
-      while (k < nx && map.labels[j * nx + k] === label) k++;
-      const x0 = left + i * cw;
-      const y0 = top + plot - (j + 1) * ch;
-      cells.push(
-        `<rect x="${fmt(x0)}" y="${fmt(y0)}" width="${fmt((k - i) * cw + 0.01)}" height="${fmt(ch + 0.01)}" fill="${fillOf(label)}"/>`,
+    let fill = fills.get(label);
+    if (fill !== undefined) return fill;
+    const colours = label === '' ? [EMPTY_COLOUR] : labelColours(label);
+    if (colours.length === 1) fill = colours[0]!;
+    else {
+      const id = `stripes-${patterns.length + 1}`;
+      const period = STRIPE * colours.length;
+      patterns.push(
+        `<pattern id="${id}" patternUnits="userSpaceOnUse" width="${svgNumber(period)}" height="${svgNumber(period)}" patternTransform="rotate(45)">` +
+          colours
+            .map(
+              (c, n) =>
+                `<rect x="${svgNumber(STRIPE * n)}" y="0" width="${svgNumber(STRIPE)}" height="${svgNumber(period)}" fill="${c}"/>`,
+            )
+            .join('') +
+          '</pattern>',
       );
-      i = k;
+      fill = `url(#${id})`;
     }
-  }
-  parts.push('<defs>');
-  for (const [label, id] of patterns) {
-    const colours = labelColours(label);
-    const w = 6 * colours.length;
-    parts.push(
-      `<pattern id="${id}" patternUnits="userSpaceOnUse" width="${w}" height="${w}" patternTransform="rotate(45)">`,
-      ...colours.map((c, n) => `<rect x="${6 * n}" y="0" width="6" height="${w}" fill="${c}"/>`),
-      '</pattern>',
+    fills.set(label, fill);
+    return fill;
+  };
+  const pt = (p: PlanePoint): string => `${svgNumber(sx(p[0]))},${svgNumber(sy(p[1]))}`;
+  const regionParts: string[] = [];
+  partition.regions.forEach((region, n) => {
+    const d = region.loops
+      .map((loop) => `M${pt(loop[0]!)}L${loop.slice(1).map(pt).join(' ')}Z`)
+      .join('');
+    regionParts.push(
+      `<path id="region-${n + 1}" d="${d}" fill="${fillOf(region.label)}"><title>${escapeXml(region.label || 'not computed')}</title></path>`,
+    );
+  });
+
+  // Boundaries, continued to the frame and to triple points as the regions are.
+  const boundaryParts: string[] = [];
+  for (const b of map.boundaries) {
+    const points = partition.extend(b.points);
+    if (points.length < 2) continue;
+    const d = `M${pt(points[0]!)}L${points.slice(1).map(pt).join(' ')}`;
+    const dash = b.order === 'continuous' ? ` stroke-dasharray="${FIGURE_LINE.dash}"` : '';
+    boundaryParts.push(
+      `<path d="${d}"${dash}><title>${escapeXml(`${b.between.join(' | ')}, ${b.order === 'first' ? 'first order' : 'continuous'}`)}</title></path>`,
     );
   }
-  parts.push(
-    `<clipPath id="plot"><rect x="${left}" y="${top}" width="${plot}" height="${plot}"/></clipPath>`,
+
+  // Pins: a ring and its number, set off by a white outline.
+  const pinParts: string[] = [];
+  for (const pin of options.pins ?? []) {
+    const inside =
+      (pin.x - ax.from) * (pin.x - ax.to) <= 0 && (pin.y - ay.from) * (pin.y - ay.to) <= 0;
+    if (!inside || !Number.isFinite(pin.x) || !Number.isFinite(pin.y)) continue;
+    const cx = svgNumber(sx(pin.x));
+    const cy = svgNumber(sy(pin.y));
+    const tx = svgNumber(sx(pin.x) + 2.6);
+    const ty = svgNumber(sy(pin.y) - 2.6);
+    pinParts.push(
+      `<g class="pin"><circle cx="${cx}" cy="${cy}" r="1.8" fill="${FIGURE_INK}" stroke="#ffffff" stroke-width="0.6"/>` +
+        `<text x="${tx}" y="${ty}" font-size="${small}" stroke="#ffffff" stroke-width="1.6" stroke-linejoin="round" fill="#ffffff">${pin.id}</text>` +
+        `<text x="${tx}" y="${ty}" font-size="${small}">${pin.id}</text></g>`,
+    );
+  }
+
+  // Axes: numbers and titles left and bottom, mirror ticks top and right.
+  const axes = [
+    axisSvg(sx, 'bottom', { at: plotY + side, title: ax.label || 'x' }),
+    axisSvg(sy, 'left', { at: plotX, title: ay.label || 'y' }),
+    axisSvg(sx, 'top', { at: plotY, labels: false }),
+    axisSvg(sy, 'right', { at: plotX + side, labels: false }),
+  ];
+
+  // Legend: swatch, label, short meaning; then the two boundary styles.
+  const legendX = legendBeside ? plotX + side + 2.2 * fs : plotX - 0.5 * fs;
+  const legendTop = legendBeside ? plotY : plotY + side + bottom;
+  const legendWidth = width - legendX - right;
+  const entries = legendOf(map.labels);
+  const labelColumn =
+    Math.max(...entries.map((e) => estimateTextWidth(e.label || '-', fs)), 2 * fs) + 0.8 * fs;
+  const swatch = 0.95 * fs;
+  const lineHeight = 1.3 * fs;
+  const legendParts: string[] = [];
+  let y = legendTop;
+  for (const entry of entries) {
+    const meaning = wrap(
+      meaningOf(entry.label),
+      legendWidth - swatch - 0.6 * fs - labelColumn,
+      small,
+    );
+    legendParts.push(
+      `<rect x="${svgNumber(legendX)}" y="${svgNumber(y)}" width="${svgNumber(swatch)}" height="${svgNumber(swatch)}" fill="${fillOf(entry.label)}" stroke="${FIGURE_INK}" stroke-width="0.4"/>`,
+      `<text x="${svgNumber(legendX + swatch + 0.6 * fs)}" y="${svgNumber(y + 0.82 * fs)}">${escapeXml(entry.label || '-')}</text>`,
+    );
+    meaning.forEach((line, n) =>
+      legendParts.push(
+        `<text x="${svgNumber(legendX + swatch + 0.6 * fs + labelColumn)}" y="${svgNumber(y + 0.82 * fs + n * 1.15 * small)}" font-size="${small}">${escapeXml(line)}</text>`,
+      ),
+    );
+    y += Math.max(lineHeight, 1.15 * small * meaning.length + 0.3 * fs);
+  }
+  y += 0.3 * fs;
+  const sample = 2.4 * fs;
+  const styles: [string, string][] = [
+    ['', 'first-order transition'],
+    [` stroke-dasharray="${FIGURE_LINE.dash}"`, 'continuous transition'],
+  ];
+  let sampleX = legendX;
+  styles.forEach(([dash, text], n) => {
+    if (legendBeside && n > 0) {
+      y += lineHeight;
+      sampleX = legendX;
+    }
+    const mid = svgNumber(y + 0.5 * swatch);
+    legendParts.push(
+      `<path d="M${svgNumber(sampleX)},${mid}h${svgNumber(sample)}" stroke="${FIGURE_INK}" stroke-width="${FIGURE_LINE.curve}" fill="none"${dash}/>`,
+      `<text x="${svgNumber(sampleX + sample + 0.5 * fs)}" y="${svgNumber(y + 0.82 * fs)}" font-size="${small}">${text}</text>`,
+    );
+    sampleX += sample + 0.5 * fs + estimateTextWidth(text, small) + 1.5 * fs;
+  });
+  y += lineHeight;
+  const height = Math.ceil(Math.max(legendBeside ? plotY + side + bottom : 0, y + 0.3 * fs));
+
+  const body: string[] = [];
+  body.push(
+    '<defs>',
+    `<clipPath id="plot-area"><rect x="${svgNumber(plotX)}" y="${svgNumber(plotY)}" width="${svgNumber(side)}" height="${svgNumber(side)}"/></clipPath>`,
+    ...patterns,
+    '</defs>',
   );
-  parts.push('</defs>');
-  parts.push(
-    `<g id="regions" clip-path="url(#plot)" shape-rendering="crispEdges">`,
-    ...cells,
+  if (title !== '') {
+    body.push(
+      `<text x="${svgNumber(plotX + side / 2)}" y="${svgNumber(1.3 * fs)}" text-anchor="middle" font-size="${fs + 1}">${typesetLabel(title, fs + 1).markup}</text>`,
+    );
+  }
+  body.push('<g id="regions">', ...regionParts, '</g>');
+  body.push(
+    `<g id="boundaries" clip-path="url(#plot-area)" fill="none" stroke="${FIGURE_INK}" stroke-width="${FIGURE_LINE.curve}" stroke-linejoin="round">`,
+    ...boundaryParts,
     '</g>',
   );
-  parts.push(
-    `<g id="boundaries" fill="none" stroke="#111" stroke-width="1.5" clip-path="url(#plot)">`,
+  if (pinParts.length > 0) body.push('<g id="pins">', ...pinParts, '</g>');
+  body.push(
+    `<rect id="frame" x="${svgNumber(plotX)}" y="${svgNumber(plotY)}" width="${svgNumber(side)}" height="${svgNumber(side)}" fill="none" stroke="${FIGURE_INK}" stroke-width="${FIGURE_LINE.frame}"/>`,
+    ...axes,
   );
-  for (const b of map.boundaries) {
-    if (b.points.length < 2) continue;
-    const d = b.points
-      .map(([x, y], n) => `${n === 0 ? 'M' : 'L'}${fmt(sx(x))},${fmt(sy(y))}`)
-      .join('');
-    parts.push(`<path d="${d}"${b.order === 'continuous' ? ' stroke-dasharray="5,3"' : ''}/>`);
-  }
-  parts.push('</g>');
-  parts.push(
-    `<rect x="${left}" y="${top}" width="${plot}" height="${plot}" fill="none" stroke="#000"/>`,
+  body.push('<g id="legend">', ...legendParts, '</g>');
+
+  const [nx, ny] = map.input.plane.resolution;
+  const description =
+    `Fourfold ${SOFTWARE_VERSION} Map, ${nx} x ${ny} points. ` +
+    `Model: ${JSON.stringify(modelToJson(map.input.model))}. ` +
+    `Plane: ${JSON.stringify(map.input.plane)}. ${MEAN_FIELD_CAUTION}`;
+  return figureDocument(
+    {
+      widthPt: width,
+      heightPt: height,
+      title: title === '' ? 'Fourfold Map' : title,
+      description,
+    },
+    body.join('\n'),
   );
-  for (const t of ticks(ax.from, ax.to, 6)) {
-    const x = sx(t);
-    parts.push(
-      `<line x1="${fmt(x)}" y1="${top + plot}" x2="${fmt(x)}" y2="${top + plot + 5}" stroke="#000"/>`,
-    );
-    parts.push(`<text x="${fmt(x)}" y="${top + plot + 18}" text-anchor="middle">${fmt(t)}</text>`);
-  }
-  for (const t of ticks(ay.from, ay.to, 6)) {
-    const y = sy(t);
-    parts.push(`<line x1="${left - 5}" y1="${fmt(y)}" x2="${left}" y2="${fmt(y)}" stroke="#000"/>`);
-    parts.push(`<text x="${left - 8}" y="${fmt(y + 4)}" text-anchor="end">${fmt(t)}</text>`);
-  }
-  parts.push(
-    `<text x="${left + plot / 2}" y="${top + plot + 38}" text-anchor="middle" font-size="14">${esc(ax.label || 'x')}</text>`,
-  );
-  parts.push(
-    `<text transform="translate(${left - 48},${top + plot / 2}) rotate(-90)" text-anchor="middle" font-size="14">${esc(ay.label || 'y')}</text>`,
-  );
-  if (title) parts.push(`<text x="${left}" y="24" font-size="15">${esc(title)}</text>`);
-  let ly = top + 10;
-  for (const entry of legendOf(map.labels)) {
-    parts.push(
-      `<rect x="${left + plot + 20}" y="${ly}" width="16" height="16" fill="${fillOf(entry.label)}" stroke="#333"/>`,
-    );
-    parts.push(`<text x="${left + plot + 42}" y="${ly + 12}">${esc(entry.label)}</text>`);
-    ly += 24;
-  }
-  parts.push(
-    `<text x="${left + plot + 20}" y="${ly + 14}" font-size="10">solid: first order; dashed: continuous</text>`,
-  );
-  // The caution, wrapped to the figure width (about 6 px per character at 10 px).
-  const lines: string[] = [];
-  let line = '';
-  for (const word of MEAN_FIELD_CAUTION.split(' ')) {
-    if ((line + ' ' + word).length * 5 > width - 20 && line !== '') {
-      lines.push(line);
-      line = word;
-    } else line = line === '' ? word : `${line} ${word}`;
-  }
-  lines.push(line);
-  lines.forEach((text, n) => {
-    const y = height - 12 - 12 * (lines.length - 1 - n);
-    parts.push(`<text x="10" y="${y}" font-size="9">${esc(text)}</text>`);
-  });
-  parts.push('</svg>');
-  return parts.join('\n') + '\n';
 }
