@@ -70,11 +70,20 @@ export function svgNumber(value: number, digits = 2): string {
 }
 
 /**
- * A rough width of `text` in Helvetica at `fontSize`, pt: 0.56 em per character (from memory:
- * Helvetica's digits are 0.556 em wide; letters average about the same). For layout margins only.
+ * A rough width of `text` in Helvetica at `fontSize`, pt, for layout margins only. Average
+ * advance widths per character class, from memory of Helvetica's metrics: capitals about
+ * 0.68 em, lower case 0.5 em, digits 0.556 em, space 0.278 em, anything else 0.58 em.
  */
 export function estimateTextWidth(text: string, fontSize: number = FIGURE_FONT.size): number {
-  return 0.56 * fontSize * [...text].length;
+  let em = 0;
+  for (const c of text) {
+    if (/[A-Z]/.test(c)) em += 0.68;
+    else if (/[a-z]/.test(c)) em += c === 'i' || c === 'l' || c === 'j' || c === 't' ? 0.28 : 0.52;
+    else if (/[0-9]/.test(c)) em += 0.556;
+    else if (c === ' ' || c === '.' || c === ',') em += 0.278;
+    else em += 0.58;
+  }
+  return em * fontSize;
 }
 
 /** About `count` round tick values within [from, to] (either order), ascending. */
