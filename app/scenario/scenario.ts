@@ -7,6 +7,7 @@ import {
   type Channel,
   type MapInput,
 } from '../../solver/index';
+import { physicalFromScenario, physicalToScenario } from './physicalScenario';
 import { zeroChannels, type AxisQuantity, type AxisSetup, type Setup } from './setup';
 
 /** The scenario document: the model file of interfaces.md with its plane (what `map` reads). */
@@ -61,13 +62,14 @@ export function setupToScenario(setup: Setup): ScenarioJson {
     for (const [k, v] of Object.entries(axisTargets(a, setup))) targets[k] = round(v);
     return { label: axisLabel(a), from: a.from, to: a.to, targets };
   };
-  return {
+  const document: ScenarioJson = {
     filling: setup.filling,
     channels,
     zeeman: setup.zeeman,
     valleyZeeman: setup.valleyZeeman,
     plane: { x: axis(setup.x), y: axis(setup.y), resolution: [...setup.resolution] },
   };
+  return { ...document, ...physicalToScenario(setup) };
 }
 
 /** The validated solver input of a setup; throws ModelError naming the bad field. */
@@ -141,7 +143,7 @@ export function scenarioToSetup(json: unknown): Setup {
   ratios = x.ratios;
   const y = axisFromPlane(plane.y, ratios);
   ratios = y.ratios;
-  return {
+  const setup: Setup = {
     filling: model.filling,
     channels,
     zeeman: model.zeeman,
@@ -151,4 +153,5 @@ export function scenarioToSetup(json: unknown): Setup {
     y: y.axis,
     resolution: [plane.resolution[0], plane.resolution[1]],
   };
+  return physicalFromScenario(json, setup, model.exchange);
 }

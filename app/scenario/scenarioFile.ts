@@ -1,4 +1,4 @@
-import { ModelError, SOFTWARE_VERSION } from '../../solver/index';
+import { ModelError, SOFTWARE_VERSION, isPlainObject } from '../../solver/index';
 import { scenarioToSetup, setupToScenario } from './scenario';
 import type { Setup } from './setup';
 
@@ -9,10 +9,13 @@ export const SCENARIO_FILE_MAX_BYTES = 1_000_000;
 
 /**
  * The scenario file: the interfaces.md model with its plane (what `npm run map -- --model FILE`
- * reads), pretty-printed, plus the accepted extra field `fourfold` with the software version.
+ * reads), pretty-printed, plus the accepted extra field `fourfold` with the software version (and
+ * the physical units and interaction ranges, when set).
  */
 export function scenarioFileText(setup: Setup): string {
-  const document = { ...setupToScenario(setup), fourfold: { version: SOFTWARE_VERSION } };
+  const scenario = setupToScenario(setup);
+  const extra = isPlainObject(scenario.fourfold) ? scenario.fourfold : {};
+  const document = { ...scenario, fourfold: { version: SOFTWARE_VERSION, ...extra } };
   return `${JSON.stringify(document, null, 2)}\n`;
 }
 

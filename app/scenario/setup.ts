@@ -1,4 +1,4 @@
-import { CHANNELS, type Channel, type Filling } from '../../solver/index';
+import { CHANNELS, type Channel, type Filling, type RangeProfile } from '../../solver/index';
 
 /** Quantities an axis of the Map can sweep (the targets they set are in `scenario.ts`). */
 export type AxisQuantity = 'uPerp' | 'uZ' | 'zeeman' | 'valleyZeeman' | Channel | 'custom';
@@ -23,7 +23,38 @@ export interface ChannelSetup {
 }
 
 /**
- * Everything the user sets up, in dimensionless units: the model (all 15 channels), filling,
+ * The sample in physical units (model.md section 9). With it the model the solver sees is in
+ * meV: `Setup.channels` hold u = u~ * B_perp (the panel shows and takes u~ in meV/T),
+ * `Setup.zeeman` = g mu_B B_perp / cos(tilt), `Setup.valleyZeeman` is Delta_V in meV.
+ */
+export interface PhysicalSetup {
+  /** Perpendicular field B_perp, tesla (> 0). */
+  readonly bPerpTesla: number;
+  /** Angle of the field from the sample normal, degrees, 0 <= tilt < 90. */
+  readonly tiltDeg: number;
+  readonly gFactor: number;
+  /** Relative permittivity eps_r of the surroundings (Coulomb scale). */
+  readonly epsilonR: number;
+  /** Add the Coulomb exchange E_X to the quasiparticle gap (the model file's `exchange`). */
+  readonly exchangeInGap: boolean;
+  /** Largest tilt of the trajectory drawn on the Map, degrees. */
+  readonly tiltMaxDeg: number;
+}
+
+/**
+ * A channel derived from an interaction range (model.md section 9). `strength` is the Hartree
+ * coupling H = v(0) / (2 pi l_B^2) in the coupling unit (dimensionless, or meV/T in physical
+ * units, where H grows as B_perp like a contact coupling); `range` is a in units of l_B
+ * (dimensionless) or in nm (physical).
+ */
+export interface RangeSetup {
+  readonly profile: RangeProfile;
+  readonly strength: number;
+  readonly range: number;
+}
+
+/**
+ * Everything the user sets up, in dimensionless units or meV (physical): the model (all 15 channels), filling,
  * fields, and the plane. Plain data, always valid as a whole: the panel validates each entry
  * before it gets here, and `setupToScenario` turns it into the interfaces.md document.
  */
@@ -40,6 +71,10 @@ export interface Setup {
   readonly y: AxisSetup;
   /** [nx, ny]. */
   readonly resolution: readonly [number, number];
+  /** Physical units (absent: dimensionless). */
+  readonly physical?: PhysicalSetup;
+  /** Channels whose H and F come from an interaction range (their `channels` entry is derived). */
+  readonly ranges?: Readonly<Partial<Record<Channel, RangeSetup>>>;
 }
 
 export function zeroChannels(): Record<Channel, ChannelSetup> {

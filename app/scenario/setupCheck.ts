@@ -1,4 +1,5 @@
 import { MAX_RESOLUTION, ModelError } from '../../solver/index';
+import { physicalProblem, rangeProblem } from './physical';
 import { setupToMapInput } from './scenario';
 import type { Setup } from './setup';
 
@@ -27,6 +28,14 @@ export function checkSetup(setup: Setup): string | null {
   for (const k of [0, 1] as const) {
     const problem = resolutionProblem(setup.resolution[k]);
     if (problem !== null) return `plane.resolution[${k}]: ${problem}`;
+  }
+  if (setup.physical) {
+    const problem = physicalProblem(setup.physical);
+    if (problem !== null) return problem;
+  }
+  for (const [ch, range] of Object.entries(setup.ranges ?? {})) {
+    const problem = rangeProblem(range, `ranges.${ch}`);
+    if (problem !== null) return problem;
   }
   try {
     setupToMapInput(setup);

@@ -1,6 +1,7 @@
 import { CHANNELS, type Channel } from '../../solver/index';
 import type { ChannelSetup, Setup } from '../scenario/setup';
 import { useFourfold } from '../store/index';
+import { couplingScale } from '../scenario/physical';
 import { commitSetup } from './commitSetup';
 import { COMMON_CHANNELS } from './CommonCouplings';
 import { COUPLING_RULE } from './numberEntry';
@@ -29,22 +30,27 @@ function ratiosFollowing(s: Setup, channels: Setup['channels'], edited: Channel)
   return out;
 }
 
-function commitChannel(channel: Channel, part: Part, value: number): string | null {
+/** A channel's Hartree or Fock value as typed (meV/T in physical units). */
+function commitChannel(channel: Channel, part: Part, typed: number): string | null {
   return commitSetup((s) => {
+    const value = typed * couplingScale(s);
     const channels = { ...s.channels, [channel]: { ...s.channels[channel], [part]: value } };
     return { channels, ratios: ratiosFollowing(s, channels, channel) };
   });
 }
 
 function ChannelRow({ channel }: { readonly channel: Channel }) {
-  const hartree = useFourfold((s) => s.setup.channels[channel].hartree);
-  const fock = useFourfold((s) => s.setup.channels[channel].fock);
+  const scale = useFourfold((s) => couplingScale(s.setup));
+  const hartree = useFourfold((s) => s.setup.channels[channel].hartree) / scale;
+  const fock = useFourfold((s) => s.setup.channels[channel].fock) / scale;
+  const fromRange = useFourfold((s) => s.setup.ranges?.[channel] !== undefined);
   const swept = useSweptTargets();
   const sweptHartree = swept.get(`${channel}.hartree`);
   const sweptFock = swept.get(`${channel}.fock`);
   const notes = [...new Set([sweptHartree, sweptFock].filter((axis) => axis !== undefined))].map(
     (axis) => `swept along ${axis}`,
   );
+  if (fromRange) notes.push('from range');
   return (
     <tr data-channel={channel} className={notes.length > 0 ? 'is-swept' : undefined}>
       <th scope="row">
@@ -60,7 +66,7 @@ function ChannelRow({ channel }: { readonly channel: Channel }) {
           ariaLabel={`${channel} Hartree`}
           value={hartree}
           rule={COUPLING_RULE}
-          disabled={sweptHartree !== undefined}
+          disabled={sweptHartree !== undefined || fromRange}
           testId={`channel-${channel}-hartree`}
           onCommit={(v) => commitChannel(channel, 'hartree', v)}
         />
@@ -72,7 +78,7 @@ function ChannelRow({ channel }: { readonly channel: Channel }) {
           ariaLabel={`${channel} Fock`}
           value={fock}
           rule={COUPLING_RULE}
-          disabled={sweptFock !== undefined}
+          disabled={sweptFock !== undefined || fromRange}
           testId={`channel-${channel}-fock`}
           onCommit={(v) => commitChannel(channel, 'fock', v)}
         />

@@ -1,6 +1,7 @@
 import type { Channel } from '../../solver/index';
 import type { ChannelSetup, Setup } from '../scenario/setup';
 import { useFourfold } from '../store/index';
+import { couplingScale } from '../scenario/physical';
 import { commitSetup } from './commitSetup';
 import { COUPLING_RULE, formatDisplay } from './numberEntry';
 import { NumberField } from './NumberField';
@@ -19,9 +20,13 @@ function sameCoupling(a: ChannelSetup, b: ChannelSetup): boolean {
   return a.hartree === b.hartree && a.fock === b.fock;
 }
 
-/** Fock value F of a common coupling: its channels become { fock: F, hartree: ratio * F }. */
-function commitFock(which: Common, fock: number): string | null {
+/**
+ * Fock value F of a common coupling, as typed (meV/T in physical units): its channels become
+ * { fock: F, hartree: ratio * F } in the solver's unit.
+ */
+function commitFock(which: Common, typed: number): string | null {
   return commitSetup((s) => {
+    const fock = typed * couplingScale(s);
     const channels = { ...s.channels };
     for (const ch of COMMON_CHANNELS[which]) {
       channels[ch] = { fock, hartree: s.ratios[which] * fock };
@@ -49,8 +54,10 @@ function commitRatio(which: Common, ratio: number): string | null {
 
 function CommonCoupling({ which }: { readonly which: Common }) {
   const [first, second] = COMMON_CHANNELS[which];
-  const fock = useFourfold((s) => s.setup.channels[first!].fock);
-  const hartree = useFourfold((s) => s.setup.channels[first!].hartree);
+  const scale = useFourfold((s) => couplingScale(s.setup));
+  const fock = useFourfold((s) => s.setup.channels[first!].fock) / scale;
+  const hartree = useFourfold((s) => s.setup.channels[first!].hartree) / scale;
+  const fromRange = useFourfold((s) => s.setup.ranges?.[first!] !== undefined);
   const ratio = useFourfold((s) => s.setup.ratios[which]);
   const differs = useFourfold(
     (s) =>
@@ -83,6 +90,12 @@ function CommonCoupling({ which }: { readonly which: Common }) {
     value = (
       <span className="swept-value" data-testid={`${id}-swept`}>
         {sweptChannel[0]} swept along {sweptChannel[1]}; edit the others in the channel table
+      </span>
+    );
+  } else if (fromRange) {
+    value = (
+      <span className="swept-value" data-testid={`${id}-range`}>
+        {formatDisplay(fock)} from range
       </span>
     );
   } else {
@@ -120,6 +133,7 @@ function CommonCoupling({ which }: { readonly which: Common }) {
           ariaLabel={`${name} Hartree per Fock`}
           value={ratio}
           rule={COUPLING_RULE}
+          disabled={fromRange}
           testId={`${id}-ratio`}
           onCommit={(v) => commitRatio(which, v)}
         />
@@ -133,6 +147,8 @@ function CommonCoupling({ which }: { readonly which: Common }) {
 
 /** u⊥ (channels x0, y0) and u_z (channel z0): the couplings of the common anisotropic model. */
 export function CommonCouplings() {
+  const physical = useFourfold((s) => s.setup.physical !== undefined);
+  const unit = physical ? <span className="setup-hint"> meV/T</span> : null;
   return (
     <fieldset className="setup-group">
       <legend>Common couplings</legend>
@@ -142,12 +158,14 @@ export function CommonCouplings() {
             <th scope="col">coupling</th>
             <th scope="col">
               Fock <var>F</var>
+              {unit}
             </th>
             <th scope="col">
               <var>H</var> / <var>F</var>
             </th>
             <th scope="col">
               Hartree <var>H</var>
+              {unit}
             </th>
           </tr>
         </thead>

@@ -69,13 +69,24 @@ export function FieldSlider({ quantity }: { readonly quantity: FieldQuantity }) 
   );
 }
 
-/** The two fields of the Setup: Zeeman energy and sublattice splitting. */
+/**
+ * The two fields of the Setup: Zeeman energy and sublattice splitting. In physical units E_Z
+ * follows from B_perp, tilt and g (Units), and Delta_V is in meV.
+ */
 export function FieldSliders() {
+  const physical = useFourfold((s) => s.setup.physical !== undefined);
   return (
     <fieldset className="setup-group">
-      <legend>Fields</legend>
-      <FieldSlider quantity="zeeman" />
+      <legend>Fields{physical && <span className="setup-hint"> (meV)</span>}</legend>
+      {!physical && <FieldSlider quantity="zeeman" />}
       <FieldSlider quantity="valleyZeeman" />
+      {physical && (
+        <p className="setup-hint">
+          <var>E</var>
+          <sub>Z</sub> follows from <var>B</var>
+          <sub>⊥</sub>, the tilt and <var>g</var> (Units).
+        </p>
+      )}
     </fieldset>
   );
 }

@@ -6,6 +6,8 @@ import { FieldSliders } from './FieldSlider';
 import { FillingField } from './FillingField';
 import { PlaneFields } from './PlaneFields';
 import { ProblemReport } from './problemReport';
+import { RangeFields } from './RangeFields';
+import { UnitsFields } from './UnitsFields';
 import './setup.css';
 
 /**
@@ -35,8 +37,10 @@ export function SetupPanel() {
         onSubmit={(event) => event.preventDefault()}
       >
         <FillingField />
+        <UnitsFields />
         <FieldSliders />
         <CommonCouplings />
+        <RangeFields />
         <ChannelTable />
         <PlaneFields />
       </form>
