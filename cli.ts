@@ -1,8 +1,13 @@
 import { readFileSync, writeFileSync } from 'node:fs';
+import { cutFigureSvg } from './app/figure/cutFigure';
 import { mapFigureSvg } from './app/figure/mapFigure';
 import {
+  MAX_CUT_POINTS,
   ModelError,
+  computeCut,
   computePhaseMap,
+  cutToCsv,
+  cutToJson,
   mapToCsv,
   mapToJson,
   parseMapInput,
@@ -15,6 +20,9 @@ import { ThreadPool } from './workers/node/threadPool';
 const USAGE = `usage:
   fourfold solve --model FILE            ground state of one model (or an array of models) as JSON
   fourfold map --model FILE --out OUT    Map of the model's plane; OUT ends in .json, .csv or .svg
+  fourfold cut --model FILE --from x,y --to x,y [--n N] --out OUT
+                                         Cut along a straight line of the model's plane (plane
+                                         coordinates); N samples (default 200); OUT as for map
 options:
   --threads N   worker threads for map (default: all cores)
   --help        this text`;
@@ -34,6 +42,22 @@ interface Args {
   model?: string;
   out?: string;
   threads?: number;
+  from?: [number, number];
+  to?: [number, number];
+  n?: number;
+}
+
+/** A plane point typed as `x,y` (two finite numbers). */
+function parsePoint(flag: string, text: string): [number, number] {
+  const parts = text.split(',');
+  const numbers = parts.map((p) => (p.trim() === '' ? NaN : Number(p)));
+  if (numbers.length !== 2 || !numbers.every(Number.isFinite)) {
+    throw new CliError(
+      `${flag}: expected a plane point x,y (two finite numbers), got "${text}"`,
+      2,
+    );
+  }
+  return [numbers[0]!, numbers[1]!];
 }
 
 function parseArgs(argv: readonly string[]): Args {
@@ -41,8 +65,8 @@ function parseArgs(argv: readonly string[]): Args {
   if (command === undefined || command === '--help' || command === '-h') {
     throw new CliError(USAGE, 2);
   }
-  if (command !== 'solve' && command !== 'map') {
-    throw new CliError(`unknown command "${command}"; use solve or map (--help for usage)`, 2);
+  if (command !== 'solve' && command !== 'map' && command !== 'cut') {
+    throw new CliError(`unknown command "${command}"; use solve, map or cut (--help for usage)`, 2);
   }
   const args: Args = { command };
   for (let k = 0; k < rest.length; k++) {
@@ -62,10 +86,33 @@ function parseArgs(argv: readonly string[]): Args {
         throw new CliError(`--threads: expected an integer from 1 to 256, got ${value}`, 2);
       }
       args.threads = n;
+    } else if (flag === '--from') args.from = parsePoint(flag, need());
+    else if (flag === '--to') args.to = parsePoint(flag, need());
+    else if (flag === '--n') {
+      const text = need();
+      const n = text.trim() === '' ? NaN : Number(text);
+      if (!Number.isInteger(n) || n < 2 || n > MAX_CUT_POINTS) {
+        throw new CliError(
+          `--n: expected an integer from 2 to ${MAX_CUT_POINTS} (samples along the cut), got ${text}`,
+          2,
+        );
+      }
+      args.n = n;
     } else if (flag === '--help') throw new CliError(USAGE, 2);
     else throw new CliError(`unknown option ${flag} (--help for usage)`, 2);
   }
   if (args.model === undefined) throw new CliError('--model: missing (give a model file)', 2);
+  if (command === 'cut') {
+    if (args.from === undefined) throw new CliError('--from: missing (give the start as x,y)', 2);
+    if (args.to === undefined) throw new CliError('--to: missing (give the end as x,y)', 2);
+    if (args.from[0] === args.to[0] && args.from[1] === args.to[1]) {
+      throw new CliError('--to: must differ from --from (a cut needs two distinct end points)', 2);
+    }
+  } else {
+    for (const flag of ['from', 'to', 'n'] as const) {
+      if (args[flag] !== undefined) throw new CliError(`--${flag}: only for the cut command`, 2);
+    }
+  }
   return args;
 }
 
@@ -102,12 +149,42 @@ function runSolve(json: unknown): string {
   return JSON.stringify(solveResultToJson(solve(parseModel(json))), null, 2);
 }
 
-async function runMap(json: unknown, out: string | undefined, threads?: number): Promise<void> {
+/** The output file and the format its ending names. */
+function outputFormat(out: string | undefined): { path: string; format: 'json' | 'csv' | 'svg' } {
   if (out === undefined)
     throw new CliError('--out: missing (give OUT.json, OUT.csv or OUT.svg)', 2);
   const format = /\.(json|csv|svg)$/i.exec(out)?.[1]?.toLowerCase();
   if (format === undefined)
     throw new CliError(`--out ${out}: unknown format; end it in .json, .csv or .svg`, 2);
+  return { path: out, format: format as 'json' | 'csv' | 'svg' };
+}
+
+function writeOutput(out: string, text: string): void {
+  try {
+    writeFileSync(out, text);
+  } catch (error) {
+    throw new CliError(
+      `--out ${out}: cannot write (${(error as NodeJS.ErrnoException).code ?? 'error'})`,
+    );
+  }
+}
+
+/** A Cut along the straight line from `from` to `to` in the model's plane (one thread). */
+function runCut(json: unknown, args: Args): void {
+  const { path, format } = outputFormat(args.out);
+  const input = parseMapInput(json);
+  const cut = computeCut(input, { kind: 'line', from: args.from!, to: args.to! }, args.n ?? 200);
+  const text =
+    format === 'json'
+      ? JSON.stringify(cutToJson(cut, input))
+      : format === 'csv'
+        ? cutToCsv(cut, input)
+        : cutFigureSvg(cut, { plane: input.plane });
+  writeOutput(path, text);
+}
+
+async function runMap(json: unknown, out: string | undefined, threads?: number): Promise<void> {
+  const { path, format } = outputFormat(out);
   const input = parseMapInput(json);
   const pool = new ThreadPool(new URL('./mapThread.mjs', import.meta.url), threads);
   try {
@@ -118,13 +195,7 @@ async function runMap(json: unknown, out: string | undefined, threads?: number):
         : format === 'csv'
           ? mapToCsv(map)
           : mapFigureSvg(map);
-    try {
-      writeFileSync(out, text);
-    } catch (error) {
-      throw new CliError(
-        `--out ${out}: cannot write (${(error as NodeJS.ErrnoException).code ?? 'error'})`,
-      );
-    }
+    writeOutput(path, text);
   } finally {
     await pool.close();
   }
@@ -136,6 +207,7 @@ export async function main(argv: readonly string[]): Promise<number> {
     const args = parseArgs(argv);
     const json = readJson(args.model!);
     if (args.command === 'solve') process.stdout.write(runSolve(json) + '\n');
+    else if (args.command === 'cut') runCut(json, args);
     else await runMap(json, args.out, args.threads);
     return 0;
   } catch (error) {

@@ -145,9 +145,10 @@ function trackOf(input: MapInput, path: CutPath): Track {
         ? { label: 't', unit: '', from: 0, to: 1 }
         : { label: plane[path.kind].label || path.kind, unit: '', from: path.from, to: path.to };
     return {
-      at: (t) => planeCouplings.at(x0 + t * (x1 - x0), y0 + t * (y1 - y0)),
-      point: (t) => [x0 + t * (x1 - x0), y0 + t * (y1 - y0)],
-      s: (t) => (path.kind === 'line' ? t : path.from + t * span),
+      // (1 - t) a + t b: exactly the end points at t = 0 and 1.
+      at: (t) => planeCouplings.at((1 - t) * x0 + t * x1, (1 - t) * y0 + t * y1),
+      point: (t) => [(1 - t) * x0 + t * x1, (1 - t) * y0 + t * y1],
+      s: (t) => (path.kind === 'line' ? t : (1 - t) * path.from + t * path.to),
       // The couplings are linear in t, so at fixed P the energy is too: its slope is the
       // difference of the end values.
       slope: (_t, o) =>
@@ -161,7 +162,7 @@ function trackOf(input: MapInput, path: CutPath): Track {
   finite(path.to, 'cut.to');
   if (path.from === path.to) throw new ModelError('cut.to: must differ from cut.from');
   const pin: [number, number] = [path.at[0], path.at[1]];
-  const value = (t: number): number => path.from + t * (path.to - path.from);
+  const value = (t: number): number => (1 - t) * path.from + t * path.to;
   if (path.kind === 'tilt') {
     const zeemanPerp = finite(path.zeemanPerp, 'cut.zeemanPerp');
     for (const [angle, field] of [

@@ -385,3 +385,114 @@ describe('fourfold map on the interfaces.md plane at 24 x 24 (E_Z = 0.4)', () =>
     for (const label of ['CAF', 'F', 'KD', 'CDW']) expect(svg).toContain(`>${label}<`);
   });
 });
+
+describe('fourfold cut (a straight line of the plane)', () => {
+  // The standard model (H = F) on the interfaces.md plane, E_Z = 0.4.
+  const cutModel = { filling: 0, zeeman: 0.4, valleyZeeman: 0, plane: PLANE_24 };
+  const line = ['--from', '-1.9,1.2', '--to', '1.9,-1.4'];
+
+  function runCut(name: string, ...extra: string[]): string {
+    const out = join(dir, name);
+    const model = file(`${name}.model.json`, cutModel);
+    const run = fourfold('cut', '--model', model, ...line, '--n', '120', ...extra, '--out', out);
+    expect(run.stderr).toBe('');
+    expect(run.status).toBe(0);
+    return readFileSync(out, 'utf8');
+  }
+
+  test('.json: samples, profiles and transitions on the closed-form lines', () => {
+    const cut = JSON.parse(runCut('cut.json')) as {
+      t: number[];
+      x: number[];
+      y: number[];
+      phase: string[];
+      energy: number[];
+      slope: number[];
+      cantingDeg: (number | null)[];
+      groups: Record<string, number[]>;
+      transitions: { t: number; x: number; y: number; between: string[]; order: string }[];
+      caution: string;
+    };
+    expect(cut.t).toHaveLength(120);
+    expect(cut.t[0]).toBe(0);
+    expect(cut.t[119]).toBe(1);
+    expect([cut.x[0], cut.y[0], cut.x[119], cut.y[119]]).toEqual([-1.9, 1.2, 1.9, -1.4]);
+    expect(Object.keys(cut.groups)).toHaveLength(8);
+    expect(cut.caution).toContain('Mean-field');
+    // KD (E = uPerp) at the start, F (E = -2 uPerp - uZ - E_Z) at the end: model.md section 5.
+    expect(cut.phase[0]).toBe('KD');
+    expect(cut.energy[0]).toBeCloseTo(-1.9, 12);
+    expect(cut.cantingDeg[0]).toBeNull();
+    expect(cut.phase[119]).toBe('F');
+    expect(cut.energy[119]).toBeCloseTo(-3.8 + 1.4 - 0.4, 12);
+    // dE/dt along the line: KD changes by d(uPerp)/dt = 3.8, F by -2 (3.8) - (-2.6) = -5.
+    expect(cut.slope[0]).toBeCloseTo(3.8, 12);
+    expect(cut.slope[119]).toBeCloseTo(-5, 12);
+    // KD -> CAF (first order), then CAF -> F (continuous) at uPerp = -E_Z / 4 = -0.1
+    // (model.md section 5; Phys. Rev. B 85, 155439 (2012)).
+    expect(cut.transitions.map((t) => [...t.between, t.order])).toEqual([
+      ['KD', 'CAF', 'first'],
+      ['CAF', 'F', 'continuous'],
+    ]);
+    const continuous = cut.transitions[1]!;
+    expect(Math.abs(continuous.x - -0.1)).toBeLessThan(3.8e-9);
+    expect(continuous.y).toBeCloseTo(1.2 - 2.6 * continuous.t, 12);
+  });
+
+  test('.csv: comment lines, a header and one row per sample', () => {
+    const lines = runCut('cut.csv').trimEnd().split('\n');
+    const comments = lines.filter((l) => l.startsWith('#'));
+    expect(comments.some((l) => l.includes('CAF -> F (continuous)'))).toBe(true);
+    const table = lines.filter((l) => !l.startsWith('#'));
+    expect(table[0]!.split(',').slice(0, 9)).toEqual([
+      't',
+      's',
+      'u_perp',
+      'u_z',
+      'phase',
+      'energy',
+      'slope',
+      'gap',
+      'canting_deg',
+    ]);
+    expect(table[0]!.split(',')).toHaveLength(17);
+    expect(table).toHaveLength(121);
+    const last = table[120]!.split(',');
+    expect(Number(last[0])).toBe(1);
+    expect(last[4]).toBe('F');
+  });
+
+  test('.svg: one balanced figure with the phase labels and one line per transition', () => {
+    const svg = runCut('cut.svg').trim();
+    expect(svg.endsWith('</svg>')).toBe(true);
+    const names = balancedTags(svg);
+    expect(names[0]).toBe('svg');
+    expect(svg).toContain('>KD<');
+    expect(svg).toContain('>F<');
+    const transitions = /<g class="transitions"[^>]*>([\s\S]*?)<\/g>/.exec(svg)![1]!;
+    expect(transitions.match(/<path /g)).toHaveLength(2);
+    expect(transitions.match(/stroke-dasharray/g)).toHaveLength(1);
+  });
+
+  test('bad flags end in one line naming the flag', () => {
+    const model = file('cut-bad.model.json', cutModel);
+    const out = join(dir, 'cut-bad.json');
+    const base = ['cut', '--model', model];
+    expectOneLineError(fourfold(...base, '--to', '1,1', '--out', out), ['--from', 'missing']);
+    expectOneLineError(fourfold(...base, '--from', '0,0', '--out', out), ['--to', 'missing']);
+    expectOneLineError(fourfold(...base, '--from', '0', '--to', '1,1', '--out', out), ['--from']);
+    expectOneLineError(fourfold(...base, '--from', '0,NaN', '--to', '1,1', '--out', out), [
+      '--from',
+    ]);
+    expectOneLineError(fourfold(...base, '--from', '0,', '--to', '1,1', '--out', out), ['--from']);
+    expectOneLineError(fourfold(...base, '--from', '1,1', '--to', '1,1', '--out', out), ['--to']);
+    for (const n of ['1', '2.5', 'ten', '10001', '1e9'])
+      expectOneLineError(fourfold(...base, ...line, '--n', n, '--out', out), ['--n', n]);
+    expectOneLineError(fourfold(...base, ...line), ['--out', 'missing']);
+    expectOneLineError(fourfold(...base, ...line, '--out', join(dir, 'cut.txt')), ['--out']);
+    expectOneLineError(fourfold('map', '--model', model, ...line, '--out', out), ['--from', 'cut']);
+    const planeless = file('cut-no-plane.json', INTERFACES_EXAMPLE);
+    expectOneLineError(fourfold('cut', '--model', planeless, ...line, '--out', out), ['plane']);
+    expect(existsSync(out)).toBe(false);
+  });
+});
