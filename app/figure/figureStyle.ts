@@ -342,8 +342,10 @@ export function figureDocument(options: FigureDocumentOptions, body: string): st
     '<?xml version="1.0" encoding="UTF-8" standalone="no"?>',
     `<svg xmlns="http://www.w3.org/2000/svg" version="1.1" width="${svgNumber(w / PT_PER_CM, 3)}cm" height="${svgNumber(h / PT_PER_CM, 3)}cm" viewBox="0 0 ${svgNumber(w)} ${svgNumber(h)}" font-family="${FIGURE_FONT.family}" font-size="${FIGURE_FONT.size}" fill="${FIGURE_INK}">`,
   ];
-  if (options.title) head.push(`<title>${escapeXml(options.title)}</title>`);
-  if (options.description) head.push(`<desc>${escapeXml(options.description)}</desc>`);
+  // Text content needs only &, < and > escaped; quotes stay readable (JSON in <desc>).
+  const text = (s: string) => s.replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;');
+  if (options.title) head.push(`<title>${text(options.title)}</title>`);
+  if (options.description) head.push(`<desc>${text(options.description)}</desc>`);
   head.push(`<rect width="${svgNumber(w)}" height="${svgNumber(h)}" fill="#ffffff"/>`);
   return `${head.join('\n')}\n${body}\n</svg>\n`;
 }
