@@ -1,10 +1,13 @@
-import { localMinima } from './competitors';
+import { localMinima, saddlePoints, type StationaryState } from './competitors';
 import { couplingsOf } from './couplings';
 import { brokenSymmetries, type GaplessMode } from './goldstoneModes';
 import { describeState, type SolveResult } from './groundState';
 import { DEFAULT_MINIMISE, minimiseEnergy, type MinimiseOptions } from './minimise';
 import type { Model } from './model';
 import { sublatticeSpins } from './orderParameters';
+import { phaseLabel } from './phaseLabel';
+import { orderOfProjector, projectorOf } from './state';
+import { modelSymmetry } from './symmetry';
 import { solveResultToJson, type SolveJson } from './solveJson';
 import { MEAN_FIELD_CAUTION, SOFTWARE_VERSION } from './version';
 
@@ -103,6 +106,8 @@ export interface Competitor {
   readonly energy: number;
   /** Energy above the ground state (0 for the ground state's own family). */
   readonly above: number;
+  /** Unstable directions (Morse index): 0 for a local minimum, more for a saddle point. */
+  readonly unstable: number;
   /**
    * Distinct minima of this label and energy that the search met: more than one means a
    * degenerate family (a continuous set of states of equal energy, such as all spin directions
@@ -112,16 +117,36 @@ export interface Competitor {
 }
 
 /** Competitors listed at most. */
-export const MAX_COMPETITORS = 8;
+export const MAX_COMPETITORS = 10;
 
-/** The ground state's family first, then the other minima by energy, merged by label and energy. */
-function mergeCompetitors(r: SolveResult): Competitor[] {
-  const tol = 1e-9 * r.couplings.scale;
-  const out: { phase: string; energy: number; count: number }[] = [
-    { phase: r.phase, energy: r.energy, count: 0 },
+/**
+ * The ground state's family first, then the other local minima and the saddle points of the
+ * symmetric state families by energy, merged by label, energy and stability.
+ */
+function mergeCompetitors(r: SolveResult, saddles: readonly StationaryState[]): Competitor[] {
+  const c = r.couplings;
+  const tol = 1e-9 * c.scale;
+  const symmetry = modelSymmetry(c);
+  const labelled = [
+    ...r.minima.map((m) => ({ ...m, unstable: 0 })),
+    ...saddles.map((s) => ({
+      phase: phaseLabel(
+        orderOfProjector(projectorOf(s.frame, c.nf, new Float64Array(32)), new Float64Array(16)),
+        c,
+        symmetry,
+      ),
+      energy: s.energy,
+      unstable: s.unstable,
+    })),
+  ].sort((a, b) => a.energy - b.energy);
+  const out: { phase: string; energy: number; count: number; unstable: number }[] = [
+    { phase: r.phase, energy: r.energy, count: 0, unstable: 0 },
   ];
-  for (const m of [...r.minima].sort((a, b) => a.energy - b.energy)) {
-    const same = out.find((o) => o.phase === m.phase && Math.abs(o.energy - m.energy) <= tol);
+  for (const m of labelled) {
+    const same = out.find(
+      (o) =>
+        o.phase === m.phase && o.unstable === m.unstable && Math.abs(o.energy - m.energy) <= tol,
+    );
     if (same) same.count++;
     else out.push({ ...m, count: 1 });
   }
@@ -187,7 +212,10 @@ function polar(re: number, im: number): { amplitude: number; phase: number } {
 }
 
 /** The Probe's numbers for a solved state (the ground state of `solve`, or any polished minimum). */
-export function probeOfResult(r: SolveResult): ProbeReport {
+export function probeOfResult(
+  r: SolveResult,
+  saddles: readonly StationaryState[] = [],
+): ProbeReport {
   const c = r.couplings;
   const nf = c.nf;
   const o = r.order;
@@ -228,7 +256,7 @@ export function probeOfResult(r: SolveResult): ProbeReport {
       gapless,
       unexplained: Math.max(0, r.modes.goldstone - gapless.length),
     },
-    competitors: mergeCompetitors(r),
+    competitors: mergeCompetitors(r, saddles),
   };
 }
 
@@ -241,7 +269,8 @@ export function probeModel(model: Model, options: MinimiseOptions = DEFAULT_MINI
   const c = couplingsOf(model);
   const search = minimiseEnergy(c, options);
   const others = localMinima(c).filter((m) => m.energy >= search.energy - 1e-9 * c.scale);
-  return probeOfResult(describeState(model, c, search.frame, [...search.minima, ...others]));
+  const result = describeState(model, c, search.frame, [...search.minima, ...others]);
+  return probeOfResult(result, saddlePoints(c));
 }
 
 /** The Probe of a given frame (already a minimum), without a new search. */

@@ -101,27 +101,34 @@ export function ProbeDetails({ pin, report }: { pin: Pin; report: ProbeReport })
               <th scope="col">State</th>
               <th scope="col">Energy</th>
               <th scope="col">Above ground</th>
+              <th scope="col" title="Unstable directions of the energy (Morse index)">
+                Stability
+              </th>
             </tr>
           </thead>
           <tbody>
             {report.competitors.map((c, k) => (
-              <tr key={k} data-phase={c.phase} data-above={c.above}>
+              <tr key={k} data-phase={c.phase} data-above={c.above} data-unstable={c.unstable}>
                 <td>
                   {c.phase}
                   {c.count > 1 && <span className="probe-family"> (degenerate family)</span>}
                 </td>
                 <td>{formatFixed(c.energy, 6)}</td>
                 <td>{k === 0 ? 'ground' : `+${formatFixed(c.above, 6)}`}</td>
+                <td>
+                  {c.unstable === 0
+                    ? 'minimum'
+                    : `saddle, ${c.unstable} unstable ${c.unstable === 1 ? 'direction' : 'directions'}`}
+                </td>
               </tr>
             ))}
           </tbody>
         </table>
-        {report.competitors.length === 1 && (
-          <p className="probe-note">
-            No other local minimum was found from the seed library: the other states are saddle
-            points here.
-          </p>
-        )}
+        <p className="probe-note">
+          Local minima met from the whole seed library, and the saddle points of the symmetric state
+          families (F, CDW, KD, AF, …) where those are not minima. A family with several members at
+          one energy is a degenerate family.
+        </p>
       </section>
 
       <div className="probe-exports">
