@@ -25,6 +25,10 @@ const USAGE = `usage:
                                          coordinates); N samples (default 200); OUT as for map
 options:
   --threads N   worker threads for map (default: all cores)
+  --column single|double
+                figure width of a map's .svg: one journal column (8.6 cm, default) or two
+                (17.8 cm)
+  --title TEXT  a title above a map's .svg figure (E_Z, u_perp, Delta_V are typeset)
   --help        this text`;
 
 /** A failure to report in one line, with the process exit code. */
@@ -42,6 +46,8 @@ interface Args {
   model?: string;
   out?: string;
   threads?: number;
+  column?: 'single' | 'double';
+  title?: string;
   from?: [number, number];
   to?: [number, number];
   n?: number;
@@ -86,7 +92,14 @@ function parseArgs(argv: readonly string[]): Args {
         throw new CliError(`--threads: expected an integer from 1 to 256, got ${value}`, 2);
       }
       args.threads = n;
-    } else if (flag === '--from') args.from = parsePoint(flag, need());
+    } else if (flag === '--column') {
+      const column = need();
+      if (column !== 'single' && column !== 'double') {
+        throw new CliError(`--column: expected single or double, got "${column}"`, 2);
+      }
+      args.column = column;
+    } else if (flag === '--title') args.title = need();
+    else if (flag === '--from') args.from = parsePoint(flag, need());
     else if (flag === '--to') args.to = parsePoint(flag, need());
     else if (flag === '--n') {
       const text = need();
@@ -183,10 +196,10 @@ function runCut(json: unknown, args: Args): void {
   writeOutput(path, text);
 }
 
-async function runMap(json: unknown, out: string | undefined, threads?: number): Promise<void> {
-  const { path, format } = outputFormat(out);
+async function runMap(json: unknown, args: Args): Promise<void> {
+  const { path, format } = outputFormat(args.out);
   const input = parseMapInput(json);
-  const pool = new ThreadPool(new URL('./mapThread.mjs', import.meta.url), threads);
+  const pool = new ThreadPool(new URL('./mapThread.mjs', import.meta.url), args.threads);
   try {
     const map = await computePhaseMap(input, pool.stages, pool.size);
     const text =
@@ -194,7 +207,7 @@ async function runMap(json: unknown, out: string | undefined, threads?: number):
         ? JSON.stringify(mapToJson(map))
         : format === 'csv'
           ? mapToCsv(map)
-          : mapFigureSvg(map);
+          : mapFigureSvg(map, { column: args.column, title: args.title });
     writeOutput(path, text);
   } finally {
     await pool.close();
@@ -208,7 +221,7 @@ export async function main(argv: readonly string[]): Promise<number> {
     const json = readJson(args.model!);
     if (args.command === 'solve') process.stdout.write(runSolve(json) + '\n');
     else if (args.command === 'cut') runCut(json, args);
-    else await runMap(json, args.out, args.threads);
+    else await runMap(json, args);
     return 0;
   } catch (error) {
     if (error instanceof CliError && error.exitCode === 2 && error.message === USAGE) {
