@@ -3,40 +3,14 @@ import { mkdtempSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { expect, test, type Page } from '@playwright/test';
+import { DEMO, PIXEL, demoModelAt, failOnConsoleErrors, mapDone, pointAt } from './demoPage';
 
-const consoleErrors: string[] = [];
+failOnConsoleErrors();
 
-test.beforeEach(({ page }) => {
-  consoleErrors.length = 0;
-  page.on('console', (message) => {
-    if (message.type() === 'error') consoleErrors.push(message.text());
-  });
-  page.on('pageerror', (error) => consoleErrors.push(error.message));
-});
-
-test.afterEach(() => {
-  expect(consoleErrors, 'console errors on the page').toEqual([]);
-});
-
-/** The demo scenario (app/scenario/demo.ts): Hartree per Fock 1.2 for uPerp, 0.7 for uZ. */
-const DEMO = { ratioPerp: 1.2, ratioZ: 0.7, zeeman: 0.6 };
-/** One pixel of the demo plane: 4 / 256. */
-const PIXEL = 4 / 256;
-
-async function mapDone(page: Page): Promise<void> {
-  await expect(page.getByTestId('map-status')).toHaveAttribute('data-phase', 'done', {
-    timeout: 30_000,
-  });
-}
-
-/** Moves the pointer over axis coordinates (x, y) of the plot (the demo plane is [-2, 2]^2). */
+/** Moves the pointer over axis coordinates (x, y) of the plot. */
 async function hoverAt(page: Page, x: number, y: number): Promise<void> {
-  const box = (await page.getByTestId('map-plot').boundingBox())!;
-  const [from, to] = [-2, 2];
-  await page.mouse.move(
-    box.x + ((x - from) / (to - from)) * box.width,
-    box.y + (1 - (y - from) / (to - from)) * box.height,
-  );
+  const [px, py] = await pointAt(page, x, y);
+  await page.mouse.move(px, py);
 }
 
 async function readout(page: Page) {
@@ -123,16 +97,7 @@ test('the hover readout matches `npm run --silent solve` for the same model', as
     const id = (await li.getAttribute('data-testid'))!.replace('readout-order-', '');
     order[id] = Number(await li.getAttribute('data-value'));
   }
-  const model = {
-    filling: 0,
-    channels: {
-      x0: { hartree: DEMO.ratioPerp * r.x, fock: r.x },
-      y0: { hartree: DEMO.ratioPerp * r.x, fock: r.x },
-      z0: { hartree: DEMO.ratioZ * r.y, fock: r.y },
-    },
-    zeeman: DEMO.zeeman,
-    valleyZeeman: 0,
-  };
+  const model = demoModelAt(r.x, r.y);
   const dir = mkdtempSync(join(tmpdir(), 'fourfold-e2e-'));
   writeFileSync(join(dir, 'point.json'), JSON.stringify(model));
   const cli = JSON.parse(

@@ -27,6 +27,8 @@ export function ProbeDetails({ pin, report }: { pin: Pin; report: ProbeReport })
       className="probe-details"
       data-testid="probe-details"
       data-pin={pin.id}
+      data-x={pin.x}
+      data-y={pin.y}
       data-phase={state.phase}
     >
       <section className="probe-card probe-state">
@@ -115,10 +117,14 @@ export function ProbeDetails({ pin, report }: { pin: Pin; report: ProbeReport })
                 </td>
                 <td>{formatFixed(c.energy, 6)}</td>
                 <td>{k === 0 ? 'ground' : `+${formatFixed(c.above, 6)}`}</td>
-                <td>
-                  {c.unstable === 0
-                    ? 'minimum'
-                    : `saddle, ${c.unstable} unstable ${c.unstable === 1 ? 'direction' : 'directions'}`}
+                <td
+                  title={
+                    c.unstable === 0
+                      ? 'A local minimum of the energy'
+                      : `A saddle point: ${c.unstable} unstable ${c.unstable === 1 ? 'direction' : 'directions'} (Morse index)`
+                  }
+                >
+                  {c.unstable === 0 ? 'minimum' : `saddle (${c.unstable})`}
                 </td>
               </tr>
             ))}

@@ -38,7 +38,7 @@ export function SpinorTable({ report }: { report: ProbeReport }) {
                   ) : (
                     <>
                       {formatFixed(m, 4)}
-                      {Math.abs(s.phase[r]!) > 5e-7 && (
+                      {Math.abs(s.phase[r]! * DEGREES) >= 0.05 && (
                         <span className="probe-phase-angle">
                           {' '}
                           ∠{formatFixed(s.phase[r]! * DEGREES, 1)}°
