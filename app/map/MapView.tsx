@@ -7,11 +7,13 @@ import {
   type PointerEvent,
   type RefObject,
 } from 'react';
+import { useCutDrawing } from '../cut/useCutDrawing';
 import { useFourfold } from '../store/index';
 import './map.css';
 import { Overlay } from './Overlay';
 import { PLOT_MARGIN, plotSide } from './plotFrame';
 import { pixelAtFraction } from './plotPixels';
+import { PIN_MARK_RADIUS } from '../probe/PinLayer';
 import { RegionLayer } from './RegionLayer';
 
 /** Width available to the view, followed as the layout changes (0 before the first measure). */
@@ -39,6 +41,7 @@ export function MapView() {
   const hasGrid = useFourfold((s) => s.map.grid !== null);
   const [ref, width] = useContentWidth();
   const side = plotSide(width);
+  const drawing = useCutDrawing();
 
   const onPointerMove = useCallback((event: PointerEvent<HTMLCanvasElement>) => {
     const { map, view, setHover } = useFourfold.getState();
@@ -57,17 +60,27 @@ export function MapView() {
       setHover(pixel);
     }
   }, []);
-  // A click pins the pixel's centre (the point the hover readout shows) for the Probe.
+  // A click pins the pixel's centre (the point the hover readout shows) for the Probe; a click
+  // on a pin's mark selects that pin instead.
   const onClick = useCallback((event: MouseEvent<HTMLCanvasElement>) => {
-    const { map, view, addPin } = useFourfold.getState();
+    const { map, view, probe, addPin, selectPin } = useFourfold.getState();
     if (map.grid === null || view.mapGesture !== 'pin') return;
     const box = event.currentTarget.getBoundingClientRect();
-    const pixel = pixelAtFraction(
-      (event.clientX - box.left) / box.width,
-      (event.clientY - box.top) / box.height,
-      map.grid.nx,
-      map.grid.ny,
+    const fx = (event.clientX - box.left) / box.width;
+    const fy = (event.clientY - box.top) / box.height;
+    const { x, y } = map.grid.input.plane;
+    const hit = probe.pins.find(
+      (pin) =>
+        Math.hypot(
+          ((pin.x - x.from) / (x.to - x.from) - fx) * box.width,
+          ((y.to - pin.y) / (y.to - y.from) - fy) * box.height,
+        ) <= PIN_MARK_RADIUS,
     );
+    if (hit) {
+      selectPin(hit.id);
+      return;
+    }
+    const pixel = pixelAtFraction(fx, fy, map.grid.nx, map.grid.ny);
     if (pixel !== null) addPin(map.grid.x[pixel.i]!, map.grid.y[pixel.j]!);
   }, []);
   const onPointerLeave = useCallback(() => {
@@ -87,8 +100,13 @@ export function MapView() {
         >
           <RegionLayer
             side={side}
-            onPointerMove={onPointerMove}
+            onPointerMove={(event) => {
+              drawing.onPointerMove(event);
+              onPointerMove(event);
+            }}
             onPointerLeave={onPointerLeave}
+            onPointerDown={drawing.onPointerDown}
+            onPointerUp={drawing.onPointerUp}
             onClick={onClick}
           />
           <Overlay side={side} />

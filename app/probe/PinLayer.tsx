@@ -3,6 +3,9 @@ import { useFourfold } from '../store/index';
 
 type Scale = ScaleLinear<number, number>;
 
+/** Radius of a pin's mark, CSS pixels: a click inside it selects the pin. */
+export const PIN_MARK_RADIUS = 8;
+
 /** Numbered marks of the pinned Probe points on the Map (the selected one ringed). */
 export function PinLayer({ x, y }: { x: Scale; y: Scale }) {
   const pins = useFourfold((s) => s.probe.pins);
@@ -21,7 +24,7 @@ export function PinLayer({ x, y }: { x: Scale; y: Scale }) {
             transform={`translate(${cx},${cy})`}
           >
             {isSelected && <circle r={12} className="map-pin-ring" />}
-            <circle r={8} className="map-pin-disc" />
+            <circle r={PIN_MARK_RADIUS} className="map-pin-disc" />
             <text className="map-pin-number" textAnchor="middle" dy="0.35em">
               {pin.id}
             </text>
