@@ -3,6 +3,7 @@ import { startMapDriver } from './mapDriver';
 import { Legend } from './map/Legend';
 import { MapView } from './map/MapView';
 import { MeanFieldCautions } from './probe/MeanFieldCautions';
+import { PinSummary } from './probe/PinSummary';
 import { ProbePanel } from './probe/ProbePanel';
 import { startProbeDriver } from './probe/probeDriver';
 import { CutPanel } from './cut/CutPanel';
@@ -48,6 +49,7 @@ export function App() {
         <section className="panel readout-column" aria-labelledby="readout-heading">
           <h2 id="readout-heading">State under the pointer</h2>
           <Readout />
+          <PinSummary />
           <MeanFieldCautions />
         </section>
         <section className="panel probe-row" aria-labelledby="probe-heading">
