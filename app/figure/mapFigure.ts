@@ -253,7 +253,7 @@ export function mapFigureSvg(map: FigureMap, options: MapFigureOptions = {}): st
     sampleX += sample + 0.5 * fs + estimateTextWidth(text, small) + 1.5 * fs;
   });
   y += lineHeight;
-  const height = Math.ceil(Math.max(legendBeside ? plotY + side + bottom : 0, y + 0.3 * fs));
+  const height = Math.ceil(Math.max(legendBeside ? plotY + side + bottom : 0, y + 0.6 * fs));
 
   const body: string[] = [];
   body.push(
