@@ -13,7 +13,7 @@ import {
   zeemanEnergyMeV,
 } from '../solver/index';
 
-type Quantity = ReturnType<typeof mathjs.unit>;
+type Quantity = mathjs.Unit;
 
 /**
  * A mathjs quantity in `unit`, as a plain number. Energies go to meV through the library's own

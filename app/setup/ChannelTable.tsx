@@ -44,6 +44,8 @@ function ChannelRow({ channel }: { readonly channel: Channel }) {
   const hartree = useFourfold((s) => s.setup.channels[channel].hartree) / scale;
   const fock = useFourfold((s) => s.setup.channels[channel].fock) / scale;
   const fromRange = useFourfold((s) => s.setup.ranges?.[channel] !== undefined);
+  // In physical units a swept channel keeps the sample's value, which places its tilt path.
+  const physical = useFourfold((s) => s.setup.physical !== undefined);
   const swept = useSweptTargets();
   const sweptHartree = swept.get(`${channel}.hartree`);
   const sweptFock = swept.get(`${channel}.fock`);
@@ -66,7 +68,7 @@ function ChannelRow({ channel }: { readonly channel: Channel }) {
           ariaLabel={`${channel} Hartree`}
           value={hartree}
           rule={COUPLING_RULE}
-          disabled={sweptHartree !== undefined || fromRange}
+          disabled={(sweptHartree !== undefined && !physical) || fromRange}
           testId={`channel-${channel}-hartree`}
           onCommit={(v) => commitChannel(channel, 'hartree', v)}
         />
@@ -78,7 +80,7 @@ function ChannelRow({ channel }: { readonly channel: Channel }) {
           ariaLabel={`${channel} Fock`}
           value={fock}
           rule={COUPLING_RULE}
-          disabled={sweptFock !== undefined || fromRange}
+          disabled={(sweptFock !== undefined && !physical) || fromRange}
           testId={`channel-${channel}-fock`}
           onCommit={(v) => commitChannel(channel, 'fock', v)}
         />
@@ -98,10 +100,14 @@ export function ChannelTable() {
       CHANNELS.filter((ch) => s.setup.channels[ch].hartree !== 0 || s.setup.channels[ch].fock !== 0)
         .length,
   );
+  const physical = useFourfold((s) => s.setup.physical !== undefined);
   return (
     <details className="setup-group channel-details">
       <summary>
-        All 15 channels <span className="setup-hint">({active} nonzero)</span>
+        All 15 channels{' '}
+        <span className="setup-hint">
+          ({active} nonzero{physical ? '; meV/T' : ''})
+        </span>
       </summary>
       <table className="coupling-table channel-table">
         <thead>

@@ -58,6 +58,7 @@ function CommonCoupling({ which }: { readonly which: Common }) {
   const fock = useFourfold((s) => s.setup.channels[first!].fock) / scale;
   const hartree = useFourfold((s) => s.setup.channels[first!].hartree) / scale;
   const fromRange = useFourfold((s) => s.setup.ranges?.[first!] !== undefined);
+  const physical = useFourfold((s) => s.setup.physical !== undefined);
   const ratio = useFourfold((s) => s.setup.ratios[which]);
   const differs = useFourfold(
     (s) =>
@@ -75,8 +76,35 @@ function CommonCoupling({ which }: { readonly which: Common }) {
   const id = `setup-${which}`;
   const name = which === 'uPerp' ? 'u_perp' : 'u_z';
 
+  const fockField = (
+    <NumberField
+      id={`${id}-fock`}
+      name={`${name} Fock`}
+      ariaLabel={`${name} Fock coupling`}
+      value={fock}
+      rule={COUPLING_RULE}
+      testId={`${id}-fock`}
+      onCommit={(v) => commitFock(which, v)}
+    />
+  );
+
   let value;
-  if (sweepingAxis !== null) {
+  if (sweepingAxis !== null && physical && !fromRange) {
+    // The axis sets the coupling across the Map; the value kept here is the sample's own,
+    // which places its tilt path.
+    value = (
+      <>
+        {fockField}
+        <span
+          className="setup-hint field-note"
+          data-testid={`${id}-swept`}
+          title={`The ${sweepingName} axis sets this coupling across the Map; the value here is the sample's own and places its tilt path.`}
+        >
+          sample; {sweepingName} axis sweeps the Map
+        </span>
+      </>
+    );
+  } else if (sweepingAxis !== null) {
     value = (
       <span
         className="swept-value"
@@ -99,17 +127,7 @@ function CommonCoupling({ which }: { readonly which: Common }) {
       </span>
     );
   } else {
-    value = (
-      <NumberField
-        id={`${id}-fock`}
-        name={`${name} Fock`}
-        ariaLabel={`${name} Fock coupling`}
-        value={fock}
-        rule={COUPLING_RULE}
-        testId={`${id}-fock`}
-        onCommit={(v) => commitFock(which, v)}
-      />
-    );
+    value = fockField;
   }
 
   return (
@@ -139,7 +157,10 @@ function CommonCoupling({ which }: { readonly which: Common }) {
         />
       </td>
       <td className="derived">
-        {sweepingAxis === null && sweptChannel === undefined ? formatDisplay(hartree) : '—'}
+        {(sweepingAxis !== null && physical && !fromRange) ||
+        (sweepingAxis === null && sweptChannel === undefined)
+          ? formatDisplay(hartree)
+          : '—'}
       </td>
     </tr>
   );

@@ -279,8 +279,10 @@ export function UnitsFields() {
               data-testid="physical-exchange-in-gap"
               onChange={(event) => commitPhysical({ exchangeInGap: event.currentTarget.checked })}
             />
-            add <var>E</var>
-            <sub>X</sub> to the quasiparticle gap
+            <span>
+              add <var>E</var>
+              <sub>X</sub> to the quasiparticle gap
+            </span>
           </label>
           <TiltNote setup={setup} />
           <p className="setup-hint">
