@@ -1,6 +1,7 @@
 import { mkdirSync, writeFileSync } from 'node:fs';
 import { arch, availableParallelism, cpus, loadavg, platform } from 'node:os';
 import { join } from 'node:path';
+import { probeModel, type Model } from '../../solver/index';
 import { median } from './measure';
 import { MAP_RESOLUTION, cliMap, inProcessMap, naiveMapEstimate } from './map';
 import { genericModels, standardModels, STANDARD_POINTS, NEIGHBOUR_STEP } from './models';
@@ -57,6 +58,18 @@ function coldRow(key: string, measurement: string, result: ColdPoints, target?: 
   };
 }
 
+/** Median time of `probeModel` over the models, each timed once after one warm-up call. */
+function probeMicrosOf(models: readonly { model: Model }[]): number {
+  probeModel(models[0]!.model);
+  return median(
+    models.map(({ model }) => {
+      const start = performance.now();
+      probeModel(model);
+      return 1000 * (performance.now() - start);
+    }),
+  );
+}
+
 export async function runBenchmark(options: BenchOptions): Promise<void> {
   const started = performance.now();
   const cores = availableParallelism();
@@ -77,6 +90,8 @@ export async function runBenchmark(options: BenchOptions): Promise<void> {
   const standard = standardModels();
   const coldStandard = coldPoints(standard, NAIVE_STARTS, 2, 5);
   const standardSingle = singleModelMicros(standard[0]!, 25);
+  log('Probe of one point');
+  const probeMicros = probeMicrosOf(standard);
   log('warm-started points');
   const warm0 = warmPoints(generic0, cold0.reference);
   const warmStandard = warmPoints(standard, coldStandard.reference);
@@ -108,6 +123,12 @@ export async function runBenchmark(options: BenchOptions): Promise<void> {
       oursMisses: countMisses(coldStandard.oursEnergy, coldStandard.reference, [0]),
       baselineMisses: countMisses(coldStandard.naiveEnergy, coldStandard.reference, [0]),
       targetMicroseconds: POINT_TARGET_MICROS,
+    },
+    {
+      key: 'probe-standard-variants',
+      measurement: `Probe of one point (search, competitors, modes), standard model, ${standard.length} (uPerp, uZ) (median)`,
+      oursMicroseconds: probeMicros,
+      baselineMicroseconds: 1000 * median(coldStandard.naiveMillis),
     },
     coldRow(
       'cold-standard-variants',
