@@ -204,6 +204,20 @@ function trackOf(input: MapInput, path: CutPath): Track {
   };
 }
 
+function checkCount(n: number): void {
+  if (!Number.isInteger(n) || n < 2 || n > MAX_CUT_POINTS) {
+    throw new ModelError(
+      `cut.n: expected an integer from 2 to ${MAX_CUT_POINTS}, got ${String(n)}`,
+    );
+  }
+}
+
+/** Throws the ModelError that `computeCut` would throw for these arguments, without solving. */
+export function checkCut(input: MapInput, path: CutPath, n: number): void {
+  checkCount(n);
+  trackOf(input, path);
+}
+
 /**
  * Profiles of the ground state along a Cut through `input`'s plane, at n evenly spaced samples:
  * about SEARCHED_SAMPLES of them get a full global search, every sample is reached by continuing
@@ -214,11 +228,7 @@ function trackOf(input: MapInput, path: CutPath): Track {
  * continued branch reaches is not seen.
  */
 export function computeCut(input: MapInput, path: CutPath, n: number): CutResult {
-  if (!Number.isInteger(n) || n < 2 || n > MAX_CUT_POINTS) {
-    throw new ModelError(
-      `cut.n: expected an integer from 2 to ${MAX_CUT_POINTS}, got ${String(n)}`,
-    );
-  }
+  checkCount(n);
   const track = trackOf(input, path);
   const nf = input.model.filling + 2;
   const tAt = (i: number): number => i / (n - 1);

@@ -117,6 +117,7 @@ export {
 } from './crossings';
 export {
   MAX_CUT_POINTS,
+  checkCut,
   computeCut,
   type CutPath,
   type CutResult,

@@ -3,6 +3,7 @@ import {
   COARSE_SEARCH,
   DEFAULT_MINIMISE,
   QUICK_SEARCH,
+  computeCut,
   couplingsOf,
   locateCrossings,
   minimiseEnergy,
@@ -18,6 +19,8 @@ import {
   type CoarseBlock,
   type CoarseNodes,
   type Crossing,
+  type CutPath,
+  type CutResult,
   type MapInput,
   type PixelBlock,
   type ProbeReport,
@@ -75,6 +78,15 @@ export const mapStagesApi = {
   /** The Probe of the plane point (x, y): ground state, competitors and derived numbers. */
   probe(json: string, x: number, y: number): ProbeReport {
     return probeModel(modelAtPoint(inputOf(json), x, y));
+  },
+  /** A Cut through the scenario's plane (a side task: the user waits on it). */
+  cut(json: string, path: CutPath, n: number): CutResult {
+    const c = computeCut(inputOf(json), path, n);
+    const arrays = [c.t, c.s, c.x, c.y, c.energy, c.slope, c.groups, c.canting, c.gap];
+    return transfer(
+      c,
+      arrays.map((a) => a.buffer),
+    );
   },
   /** The baseline: a full cold search at every pixel of rows [j0, j0 + rows). */
   coldRows(json: string, j0: number, rows: number): PixelBlock {

@@ -2,6 +2,7 @@ import { axisBottom, axisLeft, axisRight, axisTop, line, scaleLinear, select } f
 import type { ScaleLinear } from 'd3';
 import { memo, useEffect, useId, useMemo, useRef } from 'react';
 import type { Boundary, Plane } from '../../solver/index';
+import { CutLayer } from '../cut/CutLayer';
 import { PinLayer } from '../probe/PinLayer';
 import { useFourfold } from '../store/index';
 import { TiltTrajectoryLayer } from '../setup/TiltTrajectoryLayer';
@@ -47,6 +48,7 @@ export function Overlay({ side }: OverlayProps) {
           <Boundaries x={scales.x} y={scales.y} />
           <TiltTrajectoryLayer x={scales.x} y={scales.y} />
           <Crosshair x={scales.x} y={scales.y} side={side} />
+          <CutLayer x={scales.x} y={scales.y} />
           <PinLayer x={scales.x} y={scales.y} />
         </g>
         <rect className="map-frame" width={side} height={side} />

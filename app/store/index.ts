@@ -1,12 +1,13 @@
 import { create } from 'zustand';
 import { createJSONStorage, persist, type StateStorage } from 'zustand/middleware';
 import { scenarioToSetup, setupToScenario } from '../scenario/scenario';
+import { createCutSlice, cutFromJson, type CutSlice } from './cutSlice';
 import { createMapSlice, type MapSlice } from './mapSlice';
 import { createProbeSlice, pinsFromJson, type ProbeSlice } from './probeSlice';
 import { createSetupSlice, type SetupSlice } from './setupSlice';
 import { createViewSlice, type ViewSlice } from './viewSlice';
 
-export type FourfoldState = SetupSlice & MapSlice & ViewSlice & ProbeSlice;
+export type FourfoldState = SetupSlice & MapSlice & ViewSlice & ProbeSlice & CutSlice;
 
 /**
  * What survives a reload, in one table: each persisted key with how it is written and read
@@ -21,6 +22,10 @@ export const PERSISTED = {
   pins: {
     save: (s: FourfoldState) => s.probe.pins,
     load: (json: unknown) => pinsFromJson(json),
+  },
+  cut: {
+    save: (s: FourfoldState) => ({ spec: s.cut.spec, n: s.cut.n }),
+    load: (json: unknown) => cutFromJson(json),
   },
 } as const;
 
@@ -50,6 +55,7 @@ export const useFourfold = create<FourfoldState>()(
       ...createMapSlice(...a),
       ...createViewSlice(...a),
       ...createProbeSlice(...a),
+      ...createCutSlice(...a),
     }),
     {
       name: STORAGE_KEY,
@@ -73,6 +79,9 @@ export const useFourfold = create<FourfoldState>()(
           Object.assign(out, {
             probe: { pins, selected: pins[pins.length - 1]?.id ?? null, results: {} },
           });
+        }
+        if (persisted && typeof persisted === 'object' && 'cut' in persisted) {
+          Object.assign(out, { cut: { ...out.cut, ...PERSISTED.cut.load(persisted.cut) } });
         }
         return out;
       },

@@ -1,0 +1,117 @@
+import {
+  PlaneCouplings,
+  checkCut,
+  parseMapInput,
+  type CutPath,
+  type MapInput,
+} from '../../solver/index';
+import { setupToScenario } from '../scenario/scenario';
+import type { Setup } from '../scenario/setup';
+import { runSideTask } from '../sidePool';
+import type { CutSpec } from '../store/cutSlice';
+import { useFourfold } from '../store/index';
+
+/** Performance-timeline name of a finished Cut (request to result on screen). */
+export const MARK_CUT = 'fourfold:cut';
+
+/** A burst of changes (typing, a slider drag) starts one Cut after this quiet time, ms. */
+const QUIET_MS = 120;
+
+/**
+ * E_Z at zero tilt for a tilt sweep at `at`: the pin's E_Z (from the model, or from an axis that
+ * sets it), times cos(tilt) when the Setup is in physical units and so holds E_Z at its tilt.
+ */
+export function zeemanAtZeroTilt(input: MapInput, at: readonly [number, number], setup: Setup) {
+  const c = new PlaneCouplings(input).at(at[0], at[1]);
+  // eta_0z = (oneBody 0z) - E_Z / 2 (model.md section 4).
+  const zeeman = -2 * (c.eta[3]! - (input.model.oneBody['0z'] ?? 0));
+  const tilt = setup.physical?.tiltDeg;
+  return tilt === undefined ? zeeman : zeeman * Math.cos((tilt * Math.PI) / 180);
+}
+
+/** The solver's path for what the user asked. */
+export function cutPathOf(spec: CutSpec, input: MapInput, setup: Setup): CutPath {
+  if (spec.kind === 'line') return { kind: 'line', from: spec.from, to: spec.to };
+  if (spec.kind === 'tilt') {
+    return { ...spec, kind: 'tilt', zeemanPerp: zeemanAtZeroTilt(input, spec.at, setup) };
+  }
+  return { kind: spec.kind, at: spec.at, from: spec.from, to: spec.to } as CutPath;
+}
+
+function oneLine(error: unknown): string {
+  const text = error instanceof Error ? error.message : String(error);
+  return text.split('\n', 1)[0]!;
+}
+
+/**
+ * Keeps the Cut in step with its definition and the Setup: each change (after a short quiet
+ * time) sends one Cut to the Map's worker pool as a side task; a newer request supersedes an
+ * older one, whose result is ignored. Bad input is reported in one line and the last Cut stays.
+ * Returns a function that stops the driver.
+ */
+export function startCutDriver(): () => void {
+  const store = useFourfold;
+  let request = 0;
+  let timer: ReturnType<typeof setTimeout> | undefined;
+
+  const run = (): void => {
+    timer = undefined;
+    const { cut, setup, setCutRun } = store.getState();
+    const id = ++request;
+    if (cut.spec === null) {
+      setCutRun({ status: 'idle', problem: null, result: null, ms: null });
+      return;
+    }
+    let json: string;
+    let path: CutPath;
+    try {
+      const scenario = setupToScenario(setup);
+      const input = parseMapInput(scenario);
+      path = cutPathOf(cut.spec, input, setup);
+      checkCut(input, path, cut.n);
+      json = JSON.stringify(scenario);
+    } catch (error) {
+      setCutRun({ status: 'failed', problem: `${oneLine(error)}. The last Cut stays.` });
+      return;
+    }
+    const n = cut.n;
+    const started = performance.now();
+    setCutRun({ status: 'running', problem: null });
+    runSideTask((api) => api.cut(json, path, n)).then(
+      (result) => {
+        if (id !== request) return;
+        const ms = performance.now() - started;
+        setCutRun({ result, status: 'done', ms });
+        requestAnimationFrame(() =>
+          setTimeout(() => performance.measure(MARK_CUT, { start: started, detail: { n } }), 0),
+        );
+      },
+      (error: unknown) => {
+        if (id !== request) return;
+        setCutRun({ status: 'failed', problem: `The Cut failed: ${oneLine(error)}` });
+      },
+    );
+  };
+
+  const schedule = (): void => {
+    if (timer !== undefined) clearTimeout(timer);
+    timer = setTimeout(run, QUIET_MS);
+  };
+
+  const unsubscribe = store.subscribe((state, previous) => {
+    if (
+      state.cut.spec !== previous.cut.spec ||
+      state.cut.n !== previous.cut.n ||
+      state.setup !== previous.setup
+    ) {
+      schedule();
+    }
+  });
+  // A Cut restored from the autosave runs at once.
+  if (store.getState().cut.spec !== null) schedule();
+  return () => {
+    unsubscribe();
+    if (timer !== undefined) clearTimeout(timer);
+    request++;
+  };
+}

@@ -1,0 +1,60 @@
+import { useCallback, useMemo, useRef, type PointerEvent } from 'react';
+import { useFourfold } from '../store/index';
+
+/** A drag shorter than this (CSS pixels) is a click, not a cut. */
+const MIN_DRAG_PX = 6;
+
+type Pair = [number, number];
+
+/** Plane coordinates of a pointer over the plot canvas, clamped to the plot, 6 digits. */
+function planePoint(event: PointerEvent<HTMLCanvasElement>): Pair | null {
+  const plane = useFourfold.getState().map.grid?.input.plane;
+  if (!plane) return null;
+  const box = event.currentTarget.getBoundingClientRect();
+  const fx = Math.min(1, Math.max(0, (event.clientX - box.left) / box.width));
+  const fy = Math.min(1, Math.max(0, (event.clientY - box.top) / box.height));
+  const round = (v: number): number => Number(v.toPrecision(6));
+  return [
+    round(plane.x.from + fx * (plane.x.to - plane.x.from)),
+    round(plane.y.to + fy * (plane.y.from - plane.y.to)),
+  ];
+}
+
+/**
+ * Pointer handlers that draw a Cut on the Map while the Map's gesture is 'cut': press, drag,
+ * release sets the Cut to the straight line between the two points (plane coordinates). The
+ * canvas keeps the pointer during the drag.
+ */
+export function useCutDrawing() {
+  const start = useRef<{ point: Pair; x: number; y: number } | null>(null);
+  const onPointerDown = useCallback((event: PointerEvent<HTMLCanvasElement>) => {
+    if (useFourfold.getState().view.mapGesture !== 'cut' || event.button !== 0) return;
+    const point = planePoint(event);
+    if (point === null) return;
+    event.currentTarget.setPointerCapture(event.pointerId);
+    start.current = { point, x: event.clientX, y: event.clientY };
+    useFourfold.getState().setCutDraft({ from: point, to: point });
+  }, []);
+  const onPointerMove = useCallback((event: PointerEvent<HTMLCanvasElement>) => {
+    const from = start.current;
+    if (from === null) return;
+    const point = planePoint(event);
+    if (point !== null) useFourfold.getState().setCutDraft({ from: from.point, to: point });
+  }, []);
+  const onPointerUp = useCallback((event: PointerEvent<HTMLCanvasElement>) => {
+    const from = start.current;
+    if (from === null) return;
+    start.current = null;
+    const { setCutDraft, setCutSpec } = useFourfold.getState();
+    setCutDraft(null);
+    const point = planePoint(event);
+    const moved = Math.hypot(event.clientX - from.x, event.clientY - from.y);
+    if (point === null || moved < MIN_DRAG_PX) return;
+    if (point[0] === from.point[0] && point[1] === from.point[1]) return;
+    setCutSpec({ kind: 'line', from: from.point, to: point });
+  }, []);
+  return useMemo(
+    () => ({ onPointerDown, onPointerMove, onPointerUp }),
+    [onPointerDown, onPointerMove, onPointerUp],
+  );
+}
