@@ -124,7 +124,6 @@ export {
   type CutTransition,
 } from './cut';
 export { cutToCsv, cutToJson } from './cutExport';
-export { cutToCsv, cutToJson } from './cutExport';
 export { joinBoundaries, type Boundary } from './boundaries';
 export { computePhaseMap, localStages, splitRange, type MapStages } from './phaseMap';
 export { legendOf, mapToCsv, mapToJson } from './mapExport';
