@@ -138,3 +138,28 @@ test('pins: several at once, each marked on the Map, removable, kept on reload; 
   });
   await page.screenshot({ path: 'test-results/screenshots/probe-pins.png', fullPage: true });
 });
+
+test('a point pinned by typed coordinates; bad entries are named and pin nothing', async ({
+  page,
+}) => {
+  await page.goto('/');
+  await mapDone(page);
+  await page.getByTestId('pin-entry-x').fill('abc');
+  await page.getByTestId('pin-entry-y').fill('1.5');
+  await page.getByTestId('pin-entry-submit').click();
+  await expect(page.getByTestId('pin-entry-problem')).toContainText('u_perp');
+  await page.getByTestId('pin-entry-x').fill('NaN');
+  await page.getByTestId('pin-entry-submit').click();
+  await expect(page.getByTestId('pin-entry-problem')).toBeVisible();
+  await expect(page.locator('[data-testid^="map-pin-"]')).toHaveCount(0);
+
+  await page.getByTestId('pin-entry-x').fill('-1.5');
+  await page.getByTestId('pin-entry-submit').click();
+  await expect(page.getByTestId('pin-entry-problem')).toHaveCount(0);
+  await expect(page.getByTestId('probe-details')).toHaveAttribute('data-phase', 'KD', {
+    timeout: 20_000,
+  });
+  // KD: E = 2 uPerp_H - uPerp_F (model.md section 5) with the demo's uPerp_H = 1.2 uPerp_F.
+  const energy = Number(await page.getByTestId('probe-energy').getAttribute('data-value'));
+  expect(energy).toBeCloseTo(2 * DEMO.ratioPerp * -1.5 - -1.5, 9);
+});

@@ -4,6 +4,7 @@ import { AxisName } from '../readout/AxisName';
 import { useFourfold } from '../store/index';
 import type { Pin } from '../store/probeSlice';
 import './probe.css';
+import { PinEntry } from './PinEntry';
 import { ProbeDetails } from './ProbeDetails';
 
 /** The Probe: the pinned points (select, remove) and the ground state of the selected one. */
@@ -16,6 +17,7 @@ export function ProbePanel() {
   const pin = pins.find((p) => p.id === selected);
   return (
     <div className="probe" data-testid="probe">
+      <PinEntry />
       {pins.length === 0 ? (
         <p className="placeholder-note">
           Click a point of the Map to pin it: its ground state is inspected here. Several points can
