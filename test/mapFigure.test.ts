@@ -2,7 +2,7 @@ import { DOMParser, type Element } from '@xmldom/xmldom';
 import { beforeAll, describe, expect, test } from 'vitest';
 import { mapFigureSvg } from '../app/figure/mapFigure';
 import { regionOutlines } from '../app/figure/regionOutlines';
-import { computePhaseMap, parseMapInput, type PhaseMap } from '../solver/index';
+import { computePhaseMap, parseMapInput, seededRandom, type PhaseMap } from '../solver/index';
 import { INTERFACES_EXAMPLE, standardPlane } from './fixtures';
 
 // A small fixed scenario: the standard model of interfaces.md (H = F, E_Z = 0.4, Delta_V = 0)
@@ -265,4 +265,59 @@ test('region outlines of a one-label plane are its frame', () => {
   expect(new Set(regions[0]!.loops[0]!.map((p) => p.join(',')))).toEqual(
     new Set(['1,-1', '2,-1', '2,0', '1,0']),
   );
+});
+
+test('region outlines of random label grids tile the plane, each pixel in its own region', () => {
+  // Every cell configuration (two to four labels, saddles, triple and quadruple points) with
+  // crossings drawn at random along the sides; seeded.
+  const random = seededRandom(11);
+  for (let trial = 0; trial < 12; trial++) {
+    const nx = 2 + Math.floor(random() * 9);
+    const ny = 2 + Math.floor(random() * 9);
+    const plane = parseMapInput({
+      ...INTERFACES_EXAMPLE,
+      plane: standardPlane(nx, ny, [0, 1], [0, 1]),
+    }).plane;
+    const kinds = 2 + Math.floor(random() * 3);
+    const labels = Array.from({ length: nx * ny }, () => 'ABCD'[Math.floor(random() * kinds)]!);
+    const points: [number, number][] = [];
+    for (let j = 0; j < ny; j++) {
+      for (let i = 0; i < nx; i++) {
+        const p = j * nx + i;
+        const t = 0.05 + 0.9 * random();
+        if (i + 1 < nx && labels[p] !== labels[p + 1])
+          points.push([(i + 0.5 + t) / nx, (j + 0.5) / ny]);
+        if (j + 1 < ny && labels[p] !== labels[p + nx])
+          points.push([(i + 0.5) / nx, (j + 0.5 + t) / ny]);
+      }
+    }
+    const { regions } = regionOutlines({
+      plane,
+      labels,
+      boundaries: [{ between: ['A', 'B'], order: 'first', points }],
+    });
+    const loopsOf = regions.map((r) =>
+      r.loops.map((loop) => loop.map(([x, y]) => [x, y] as Point)),
+    );
+    const area = loopsOf.reduce(
+      (sum, loops) => sum + Math.abs(loops.reduce((a, loop) => a + signedArea(loop), 0)),
+      0,
+    );
+    expect(area).toBeCloseTo(1, 12);
+    const n = 61;
+    for (let a = 0; a < n; a++) {
+      for (let b = 0; b < n; b++) {
+        const inside = loopsOf.filter((loops) => winding(loops, (a + 0.5) / n, (b + 0.5) / n));
+        expect(inside).toHaveLength(1);
+      }
+    }
+    for (let j = 0; j < ny; j++) {
+      for (let i = 0; i < nx; i++) {
+        const x = (i + 0.5) / nx + 1e-3;
+        const y = (j + 0.5) / ny + 1e-3;
+        const owner = regions.findIndex((_, k) => winding(loopsOf[k]!, x, y) !== 0);
+        expect(regions[owner]!.label).toBe(labels[j * nx + i]);
+      }
+    }
+  }
 });
