@@ -159,6 +159,11 @@ test('bad physical entries are flagged beside the field and the Map keeps its la
   await expect(page.getByTestId('physical-tilt')).toHaveValue('30');
   expect(await valueOf(page, 'derived-zeeman')).toBeCloseTo(zeemanMeV(9, 30), 10);
   await mapDone(page);
+  // Without the link, the local autosave restores it.
+  await page.goto('/');
+  await expect(page.getByTestId('units-physical')).toBeChecked();
+  await expect(page.getByTestId('physical-tilt')).toHaveValue('30');
+  await mapDone(page);
 });
 
 test('interaction range: F/H of a Gaussian range follows 1/(1 + a^2/l_B^2) and the Map follows', async ({
@@ -194,4 +199,14 @@ test('interaction range: F/H of a Gaussian range follows 1/(1 + a^2/l_B^2) and t
   await page.getByTestId('range').scrollIntoViewIfNeeded();
   await page.screenshot({ path: `${SHOTS}/units-range.png`, fullPage: true });
   await page.getByTestId('range').screenshot({ path: `${SHOTS}/units-range-panel.png` });
+
+  // Back to dimensionless units: H and F stay (now plain numbers), a becomes a / l_B.
+  const ratio = await valueOf(page, 'range-ratio');
+  await page.getByTestId('units-dimensionless').check();
+  await expect.poll(() => valueOf(page, 'range-hartree')).toBeCloseTo(-0.1 * 25, 10);
+  expect(await valueOf(page, 'range-ratio')).toBeCloseTo(ratio, 10);
+  const current = Number(await page.getByTestId('range-chart').getAttribute('data-current'));
+  expect(current).toBeCloseTo(10 / magneticLengthNm(25), 10);
+  await mapDone(page);
+  await page.getByTestId('range').screenshot({ path: `${SHOTS}/units-range-dimensionless.png` });
 });

@@ -119,7 +119,7 @@ export function RangeFields() {
             <NumberField
               id="range-strength"
               name="range strength"
-              label={<>H{unit}</>}
+              label={<>H{physical ? ' (meV/T)' : ''}</>}
               value={range.strength}
               rule={COUPLING_RULE}
               testId="range-strength"
@@ -128,7 +128,7 @@ export function RangeFields() {
             <NumberField
               id="range-length"
               name="range a"
-              label={<>a {physical ? 'nm' : 'in l_B'}</>}
+              label={<>a ({physical ? 'nm' : 'l_B'})</>}
               value={range.range}
               rule={RANGE_RULE}
               disabled={range.profile === 'contact'}
