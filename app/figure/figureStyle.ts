@@ -332,14 +332,14 @@ export interface FigureDocumentOptions {
 }
 
 /**
- * A complete SVG 1.1 document around `body`: XML declaration, physical width and height (cm),
- * viewBox in pt, the figure font and ink set once on the root, white background.
+ * A complete SVG 1.1 document around `body` (UTF-8, so no XML declaration is needed): physical
+ * width and height (cm), viewBox in pt, the figure font and ink set once on the root, white
+ * background.
  */
 export function figureDocument(options: FigureDocumentOptions, body: string): string {
   const w = options.widthPt;
   const h = options.heightPt;
   const head = [
-    '<?xml version="1.0" encoding="UTF-8" standalone="no"?>',
     `<svg xmlns="http://www.w3.org/2000/svg" version="1.1" width="${svgNumber(w / PT_PER_CM, 3)}cm" height="${svgNumber(h / PT_PER_CM, 3)}cm" viewBox="0 0 ${svgNumber(w)} ${svgNumber(h)}" font-family="${FIGURE_FONT.family}" font-size="${FIGURE_FONT.size}" fill="${FIGURE_INK}">`,
   ];
   // Text content needs only &, < and > escaped; quotes stay readable (JSON in <desc>).
