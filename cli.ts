@@ -26,9 +26,9 @@ const USAGE = `usage:
 options:
   --threads N   worker threads for map (default: all cores)
   --column single|double
-                figure width of a map's .svg: one journal column (8.6 cm, default) or two
-                (17.8 cm)
-  --title TEXT  a title above a map's .svg figure (E_Z, u_perp, Delta_V are typeset)
+                figure width of a map's or a cut's .svg: one journal column (8.6 cm,
+                default) or two (17.8 cm)
+  --title TEXT  a title above a map's or a cut's .svg figure (E_Z, u_perp, Delta_V are typeset)
   --help        this text`;
 
 /** A failure to report in one line, with the process exit code. */
@@ -192,7 +192,7 @@ function runCut(json: unknown, args: Args): void {
       ? JSON.stringify(cutToJson(cut, input))
       : format === 'csv'
         ? cutToCsv(cut, input)
-        : cutFigureSvg(cut, { plane: input.plane });
+        : cutFigureSvg(cut, { plane: input.plane, column: args.column, title: args.title });
   writeOutput(path, text);
 }
 

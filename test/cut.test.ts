@@ -8,6 +8,8 @@ import {
   parseMapInput,
   type CutResult,
 } from '../solver/index';
+import { cutFigureSvg } from '../app/figure/cutFigure';
+import { DEFAULT_CUT_POINTS, cutFromJson } from '../app/store/cutSlice';
 
 /** The standard model (H = F) on the (uPerp, uZ) plane of interfaces.md, at E_Z and Delta_V. */
 function standardInput(zeeman: number, valleyZeeman = 0) {
@@ -198,5 +200,52 @@ describe('Cut: bad input is refused with a message naming it', () => {
         computeCut(input, { kind: 'tilt', at: [-1, 2], from: 0, to: 90, zeemanPerp: 0.4 }, 10),
       ),
     ).toContain('cut.to');
+  });
+});
+
+describe('Cut figure (SVG, the same function as the CLI and the app)', () => {
+  const cut = computeCut(
+    standardInput(0.4),
+    { kind: 'line', from: [-1.9, 1.2], to: [1.9, -1.4] },
+    60,
+  );
+  test('sized for a journal column, typeset title, one line per transition, solid or dashed', () => {
+    const single = cutFigureSvg(cut);
+    const double = cutFigureSvg(cut, { column: 'double', title: 'E_Z = 0.4' });
+    expect(single).toContain('width="8.6cm"');
+    expect(double).toContain('width="17.8cm"');
+    // E_Z typeset as E with subscript Z.
+    expect(double).toMatch(/<tspan[^>]*font-style="italic"[^>]*>E<\/tspan><tspan[^>]*>Z<\/tspan>/);
+    const lines = /<g class="transitions"[^>]*>([\s\S]*?)<\/g>/.exec(single)![1]!;
+    expect(lines.match(/<path /g)).toHaveLength(cut.transitions.length);
+    expect(lines.match(/stroke-dasharray/g) ?? []).toHaveLength(
+      cut.transitions.filter((t) => t.order === 'continuous').length,
+    );
+    expect(single).toContain('Mean-field');
+  });
+});
+
+describe('Cut in the autosave: anything malformed is dropped', () => {
+  test('stored Cuts read back', () => {
+    expect(cutFromJson({ spec: { kind: 'line', from: [0, 1], to: [2, 3] }, n: 50 })).toEqual({
+      spec: { kind: 'line', from: [0, 1], to: [2, 3] },
+      n: 50,
+    });
+    expect(
+      cutFromJson({ spec: { kind: 'tilt', at: [-1, 2], from: 0, to: 80 }, n: 10 }).spec,
+    ).toEqual({ kind: 'tilt', at: [-1, 2], from: 0, to: 80 });
+    for (const bad of [
+      null,
+      'x',
+      { spec: { kind: 'line', from: [0, 'a'], to: [1, 1] } },
+      { spec: { kind: 'line', from: [1, 1], to: [1, 1] } },
+      { spec: { kind: 'spin', at: [0, 0], from: 0, to: 1 } },
+      { spec: { kind: 'zeeman', at: [0, 0], from: 1, to: 1 } },
+      { spec: { kind: 'zeeman', at: [0, null], from: 0, to: 1 } },
+    ]) {
+      expect(cutFromJson(bad).spec).toBeNull();
+    }
+    expect(cutFromJson({ spec: null, n: 1e9 }).n).toBe(DEFAULT_CUT_POINTS);
+    expect(cutFromJson({ spec: null, n: 2.5 }).n).toBe(DEFAULT_CUT_POINTS);
   });
 });

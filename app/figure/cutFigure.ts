@@ -22,6 +22,8 @@ export interface CutFigureOptions {
   readonly column?: 'single' | 'double';
   /** Append the mean-field caution under the charts (default true). */
   readonly caution?: boolean;
+  /** A title above the charts, typeset like the Map figure's (default none). */
+  readonly title?: string;
 }
 
 /** Panel height and the gap between panels, pt. */
@@ -68,7 +70,8 @@ export function cutFigureSvg(cut: CutResult, options: CutFigureOptions = {}): st
   const runs = curveRuns(cut);
   const left = 46;
   const right = 8;
-  const top = 6;
+  const title = options.title?.trim() ?? '';
+  const top = title === '' ? 6 : 2.2 * font;
   const plotWidth = width - left - right;
   const x = scaleLinear().domain([cut.axis.from, cut.axis.to]).range([0, plotWidth]);
   const parts: string[] = [];
@@ -156,7 +159,7 @@ export function cutFigureSvg(cut: CutResult, options: CutFigureOptions = {}): st
   parts.push('</g>');
 
   // Legend of the group curves, under the panels.
-  let yLegend = plotsBottom + 2.4 * font + font;
+  let yLegend = plotsBottom + 4 * font;
   const groups = panels.find((p) => p.key === 'groups')!;
   const legendColumns = options.column === 'double' ? 4 : 2;
   const cell = plotWidth / legendColumns;
@@ -189,6 +192,11 @@ export function cutFigureSvg(cut: CutResult, options: CutFigureOptions = {}): st
     yLegend += 2;
   }
   parts.push('</g>', '</g>');
+  if (title !== '') {
+    parts.push(
+      `<text x="${svgNumber(left + plotWidth / 2)}" y="${svgNumber(1.3 * font)}" text-anchor="middle" font-size="${font + 1}">${typesetLabel(title, font + 1).markup}</text>`,
+    );
+  }
   const description =
     cut.path.kind === 'line'
       ? `Cut from (${cut.path.from.join(', ')}) to (${cut.path.to.join(', ')})${options.plane ? ` in the plane of ${options.plane.x.label || 'x'} and ${options.plane.y.label || 'y'}` : ''}`
@@ -197,7 +205,7 @@ export function cutFigureSvg(cut: CutResult, options: CutFigureOptions = {}): st
     {
       widthPt: width,
       heightPt: top + yLegend,
-      title: 'Fourfold Cut',
+      title: title === '' ? 'Fourfold Cut' : title,
       description: `${description}; ${cut.transitions.length} transition(s).`,
     },
     parts.join('\n'),
