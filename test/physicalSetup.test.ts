@@ -167,6 +167,8 @@ describe('tilt path on the Map', () => {
       expect(p[1]).toBeCloseTo(c * s.channels.z0.fock, 12);
     });
     expect(tiltTrajectory(sample({ valleyZeeman: 0.2 }))!.exact).toBe(false);
+    // A Hartree part off the axis ratio puts the sample beside the plane.
+    expect(tiltTrajectory(sample({ ratios: { uPerp: 0.5, uZ: 1 } }))!.exact).toBe(false);
   });
 
   test('the ray is physical: the sample at each tilt has the state of its point on the Map (derived from model.md section 4)', () => {

@@ -221,7 +221,7 @@ function TiltNote({ setup }: { readonly setup: Setup }) {
     text = `On the Map: the sample's path as the tilt goes from 0° to ${max}° at fixed B⊥, a ray towards the origin (the state depends on the couplings over E_Z only).`;
     if (!path.exact) {
       text +=
-        ' Dotted, a guide only: Δ_V or couplings off the axes stay fixed on the Map but would scale along the ray.';
+        ' Dotted, a guide only: Δ_V or couplings off the axes stay fixed on the Map but would scale along the ray, or the sample lies beside the plane (a Hartree part off the axis ratio).';
     }
   }
   return (

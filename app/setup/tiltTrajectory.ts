@@ -1,4 +1,5 @@
-import { CHANNELS } from '../../solver/index';
+import { CHANNELS, type Channel } from '../../solver/index';
+import { axisTargets } from '../scenario/scenario';
 import { zeemanAtTilt } from '../scenario/physical';
 import type { AxisSetup, Setup } from '../scenario/setup';
 import { axisTargetNames } from './sweep';
@@ -38,6 +39,36 @@ function sampleCoordinate(axis: AxisSetup, setup: Setup): number | null {
   }
 }
 
+/** The sample's value of a plane target (`zeeman`, `valleyZeeman`, `CH.fock`, `CH.hartree`). */
+function sampleTarget(setup: Setup, target: string): number {
+  if (target === 'zeeman') return setup.zeeman;
+  if (target === 'valleyZeeman') return setup.valleyZeeman;
+  const [ch, part] = target.split('.') as [Channel, 'fock' | 'hartree'];
+  return setup.channels[ch][part];
+}
+
+/**
+ * Whether the sample lies in the plane: every target the axes set, at the sample's axis
+ * coordinates, has the sample's own value (a Hartree part off the axis ratio, for example,
+ * puts the sample beside the plane).
+ */
+function sampleInPlane(setup: Setup, xs: number, ys: number): boolean {
+  const expected = new Map<string, number>();
+  for (const [axis, t] of [
+    [setup.x, xs],
+    [setup.y, ys],
+  ] as const) {
+    for (const [target, coefficient] of Object.entries(axisTargets(axis, setup))) {
+      expected.set(target, (expected.get(target) ?? 0) + coefficient * t);
+    }
+  }
+  for (const [target, value] of expected) {
+    const own = sampleTarget(setup, target);
+    if (Math.abs(own - value) > 1e-9 * Math.max(1, Math.abs(own))) return false;
+  }
+  return true;
+}
+
 /**
  * The path of a physical sample on the Map of `setup`'s plane as the tilt goes from 0 to
  * `tiltMaxDeg` at fixed B_perp (model.md section 9): the couplings stay, E_Z(theta) =
@@ -56,6 +87,8 @@ function sampleCoordinate(axis: AxisSetup, setup: Setup): number | null {
  *   everything the axes do not set scales along, i.e. Delta_V and the couplings off the axes are
  *   zero; otherwise `exact` is false and the path is a guide (the map keeps them fixed while the
  *   rescaled sample's shrink by cos(theta) / cos(current)).
+ *
+ * Either path is exact only if the sample lies in the plane at all (`sampleInPlane`).
  */
 export function tiltTrajectory(setup: Setup, samples = 48): TiltTrajectory | null {
   const physical = setup.physical;
@@ -79,7 +112,7 @@ export function tiltTrajectory(setup: Setup, samples = 48): TiltTrajectory | nul
       tilts,
       current: at(physical.tiltDeg),
       kind: 'zeeman',
-      exact: true,
+      exact: sampleInPlane(setup, xs, ys),
     };
   }
   const at = (tilt: number): [number, number] => {
@@ -98,6 +131,6 @@ export function tiltTrajectory(setup: Setup, samples = 48): TiltTrajectory | nul
     tilts,
     current: at(physical.tiltDeg),
     kind: 'scaled',
-    exact: !offAxes && !substrate,
+    exact: !offAxes && !substrate && sampleInPlane(setup, xs, ys),
   };
 }
