@@ -1,4 +1,4 @@
-import { mkdirSync, readFileSync } from 'node:fs';
+import { mkdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { DOMParser } from '@xmldom/xmldom';
 import { expect, test, type Download, type Page } from '@playwright/test';
 import { pngResolution } from '../app/figure/pngResolution';
@@ -105,6 +105,8 @@ test('PNG at the chosen resolution, CSV of every grid point and JSON with the mo
   // Single column, 8.6 cm = 3.386 in, at 300 dpi: 1016 pixels wide, marked 300 dpi.
   expect(png.bytes.readUInt32BE(16)).toBe(1016);
   expect(pngResolution(new Uint8Array(png.bytes))).toBeCloseTo(300, 0);
+  mkdirSync('test-results/screenshots', { recursive: true });
+  writeFileSync('test-results/screenshots/figure-map-300dpi.png', png.bytes);
 
   const csv = await download(page, 'export-csv', 120_000);
   expect(csv.name).toBe('fourfold-map.csv');

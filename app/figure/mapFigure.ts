@@ -223,7 +223,7 @@ export function mapFigureSvg(map: FigureMap, options: MapFigureOptions = {}): st
       small,
     );
     legendParts.push(
-      `<rect x="${svgNumber(legendX)}" y="${svgNumber(y)}" width="${svgNumber(swatch)}" height="${svgNumber(swatch)}" fill="${fillOf(entry.label)}" stroke="${FIGURE_INK}" stroke-width="0.4"/>`,
+      `<rect x="${svgNumber(legendX)}" y="${svgNumber(y)}" width="${svgNumber(swatch)}" height="${svgNumber(swatch)}" fill="${fillOf(entry.label)}" stroke="${FIGURE_INK}" stroke-width="${FIGURE_LINE.tick}"/>`,
       `<text x="${svgNumber(legendX + swatch + 0.6 * fs)}" y="${svgNumber(y + 0.82 * fs)}">${escapeXml(entry.label || '-')}</text>`,
     );
     meaning.forEach((line, n) =>
