@@ -32,6 +32,11 @@ describe('figure style', () => {
       '<tspan font-style="italic">B</tspan><tspan dy="2.5" font-size="7">tot</tspan><tspan dy="-2.5"> (T)</tspan>',
     );
     expect(typesetLabel('a<b & c').markup).not.toMatch(/<b|& /);
+    // Only scripted or lone letters are variables: the sample name and the unit stay upright.
+    const title = typesetLabel('Sample A, B_perp = 9 T').markup;
+    expect(title.match(/italic/g)).toHaveLength(1);
+    expect(title).toContain('<tspan font-style="italic">B</tspan>');
+    expect(typesetLabel('x').markup).toBe('<tspan font-style="italic">x</tspan>');
   });
 
   test('an axis: one tick per round value, numbers with a true minus, a typeset title', () => {

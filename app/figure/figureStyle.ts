@@ -264,7 +264,8 @@ interface Piece {
 /**
  * Typesets a plain-text label as SVG text: `_x` or `_{...}` makes a subscript, `^x` or `^{...}` a
  * superscript; Greek names ('Delta', 'theta') and 'perp' become their symbols; a single Latin
- * letter outside parentheses is set in italic (a variable), everything else upright.
+ * letter outside parentheses that carries a sub- or superscript, or is the whole label, is set
+ * in italic (a variable), everything else upright.
  * 'u_perp' gives u with subscript ⊥, 'E_Z' E with subscript Z, 'B_tot (T)' B with subscript tot
  * then ' (T)'. Sub- and superscripts shift with `dy` and come back for text that follows; the
  * markup is meant as the whole content of one <text>.
@@ -277,10 +278,10 @@ export function typesetLabel(label: string, fontSize: number = FIGURE_FONT.size)
     if (last && last.italic === italic && last.level === level) last.text += text;
     else pieces.push({ text, italic, level });
   };
-  const word = (w: string, level: Level) => {
+  const word = (w: string, level: Level, variable = false) => {
     const named = NAMED_SYMBOLS[w];
     if (named !== undefined) push(named, false, level);
-    else push(w, level === 0 && depth === 0 && /^[A-Za-z]$/.test(w), level);
+    else push(w, variable && depth === 0 && /^[A-Za-z]$/.test(w), level);
   };
   const tokens = label.match(/[A-Za-z]+|[0-9.]+|[_^]\{[^}]*\}|[_^][A-Za-z0-9]+|./gu) ?? [];
   for (let k = 0; k < tokens.length; k++) {
@@ -296,7 +297,10 @@ export function typesetLabel(label: string, fontSize: number = FIGURE_FONT.size)
     }
     if (t === '(') depth++;
     if (t === ')') depth = Math.max(0, depth - 1);
-    if (/^[A-Za-z]+$/.test(t)) word(t, 0);
+    // A lone letter is a variable when scripted or when it is the whole label ('x'); 'Sample A'
+    // and the unit in '9 T' stay upright.
+    const scripted = /^[_^]/.test(tokens[k + 1] ?? '');
+    if (/^[A-Za-z]+$/.test(t)) word(t, 0, scripted || tokens.length === 1);
     else push(t, false, 0);
   }
   const shift = (level: Level) => (level === -1 ? 0.25 : level === 1 ? -0.38 : 0) * fontSize;
