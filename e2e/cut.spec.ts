@@ -1,3 +1,4 @@
+import { readFileSync } from 'node:fs';
 import { expect, test, type Page } from '@playwright/test';
 import { DEMO, failOnConsoleErrors, mapDone, pointAt } from './demoPage';
 
@@ -71,6 +72,15 @@ test('a Cut dragged across the F/CAF boundary finds it at uPerp = -E_Z / 4, cont
   await page.screenshot({ path: 'test-results/screenshots/cut-drawn.png', fullPage: true });
   await page.getByTestId('cut').screenshot({ path: 'test-results/screenshots/cut-panel.png' });
   await page.getByTestId('map').screenshot({ path: 'test-results/screenshots/cut-on-map.png' });
+  // The figure export is the CLI's SVG: one dashed (continuous) transition line.
+  const [download] = await Promise.all([
+    page.waitForEvent('download'),
+    page.getByTestId('cut-export-svg').click(),
+  ]);
+  const svg = readFileSync(await download.path(), 'utf8');
+  expect(svg).toContain('<svg xmlns="http://www.w3.org/2000/svg"');
+  const lines = /<g class="transitions"[^>]*>([\s\S]*?)<\/g>/.exec(svg)![1]!;
+  expect(lines.match(/stroke-dasharray/g)).toHaveLength(1);
 });
 
 test('a Cut typed end to end, then a tilt sweep at a pin, read their transitions', async ({

@@ -10,6 +10,9 @@ import {
 } from '../solver/index';
 import { cutFigureSvg } from '../app/figure/cutFigure';
 import { DEFAULT_CUT_POINTS, cutFromJson } from '../app/store/cutSlice';
+import { cutPathOf } from '../app/cut/cutPath';
+import { DEMO_SETUP } from '../app/scenario/demo';
+import { setupToScenario } from '../app/scenario/scenario';
 
 /** The standard model (H = F) on the (uPerp, uZ) plane of interfaces.md, at E_Z and Delta_V. */
 function standardInput(zeeman: number, valleyZeeman = 0) {
@@ -247,5 +250,40 @@ describe('Cut in the autosave: anything malformed is dropped', () => {
     }
     expect(cutFromJson({ spec: null, n: 1e9 }).n).toBe(DEFAULT_CUT_POINTS);
     expect(cutFromJson({ spec: null, n: 2.5 }).n).toBe(DEFAULT_CUT_POINTS);
+  });
+});
+
+describe('Cut in the app: the tilt sweep takes E_Z at zero tilt from the Setup', () => {
+  const input = parseMapInput(setupToScenario(DEMO_SETUP));
+  const spec = { kind: 'tilt', at: [-1, 1.5], from: 0, to: 80 } as const;
+  test('dimensionless: the Setup E_Z is E_Z at zero tilt', () => {
+    expect(cutPathOf(spec, input, DEMO_SETUP)).toEqual({ ...spec, zeemanPerp: DEMO_SETUP.zeeman });
+  });
+  test('physical units: the Setup holds E_Z at its tilt, so E_Z(0) = E_Z cos(tilt) (model.md section 9)', () => {
+    const physical = {
+      ...DEMO_SETUP,
+      physical: {
+        bPerpTesla: 10,
+        tiltDeg: 60,
+        gFactor: 2,
+        epsilonR: 4,
+        exchangeInGap: false,
+        tiltMaxDeg: 80,
+      },
+    };
+    const path = cutPathOf(spec, input, physical);
+    expect(path.kind === 'tilt' && path.zeemanPerp).toBeCloseTo(DEMO_SETUP.zeeman * 0.5, 14);
+  });
+  test('an axis that sets E_Z gives the pin its own E_Z', () => {
+    const setup = {
+      ...DEMO_SETUP,
+      y: { quantity: 'zeeman', from: 0, to: 2, hartreeRatio: 1 },
+    } as const;
+    const path = cutPathOf(
+      { ...spec, at: [-1, 1.3] },
+      parseMapInput(setupToScenario(setup)),
+      setup,
+    );
+    expect(path.kind === 'tilt' && path.zeemanPerp).toBeCloseTo(1.3, 14);
   });
 });
