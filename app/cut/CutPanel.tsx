@@ -245,10 +245,10 @@ function SweepFields({ spec, plane }: { spec: CutSpec | null; plane: Plane | nul
 
 function Transitions() {
   const result = useFourfold((s) => s.cut.result);
+  const plane = useFourfold((s) => s.map.grid?.input.plane ?? null);
   if (result === null) return null;
   if (result.transitions.length === 0)
     return <p className="cut-note">No transition along this cut.</p>;
-  const plane = useFourfold.getState().map.grid?.input.plane ?? null;
   return (
     <ol className="cut-transitions" aria-label="Transitions along the Cut">
       {result.transitions.map((tr, k) => (
