@@ -316,7 +316,9 @@ export function typesetLabel(label: string, fontSize: number = FIGURE_FONT.size)
     if (piece.level !== 0)
       attrs.push(`font-size="${svgNumber(FIGURE_FONT.scriptScale * fontSize)}"`);
     if (piece.italic) attrs.push('font-style="italic"');
-    const text = escapeXml(piece.text);
+    // Spaces at the edge of a piece become no-break spaces: some renderers (librsvg) strip them
+    // at tspan boundaries, and 'E_Z = 0.6' would lose the space after the subscript.
+    const text = escapeXml(piece.text).replace(/^ | $/g, '\u00a0');
     markup += attrs.length === 0 ? text : `<tspan ${attrs.join(' ')}>${text}</tspan>`;
     width += estimateTextWidth(
       piece.text,
