@@ -29,7 +29,7 @@ describe('figure style', () => {
     // After a subscript the baseline comes back for the text that follows.
     const field = typesetLabel('B_tot (T)', 10);
     expect(field.markup).toBe(
-      '<tspan font-style="italic">B</tspan><tspan dy="2.5" font-size="7">tot</tspan><tspan dy="-2.5">\u00a0(T)</tspan>',
+      '<tspan font-style="italic">B</tspan><tspan dy="2.5" font-size="7">tot</tspan><tspan dy="-2.5" xml:space="preserve"> (T)</tspan>',
     );
     expect(typesetLabel('a<b & c').markup).not.toMatch(/<b|& /);
     // Only scripted or lone letters are variables: the sample name and the unit stay upright.

@@ -316,9 +316,12 @@ export function typesetLabel(label: string, fontSize: number = FIGURE_FONT.size)
     if (piece.level !== 0)
       attrs.push(`font-size="${svgNumber(FIGURE_FONT.scriptScale * fontSize)}"`);
     if (piece.italic) attrs.push('font-style="italic"');
-    // Spaces at the edge of a piece become no-break spaces: some renderers (librsvg) strip them
-    // at tspan boundaries, and 'E_Z = 0.6' would lose the space after the subscript.
-    const text = escapeXml(piece.text).replace(/^ | $/g, '\u00a0');
+    // Some renderers (librsvg) drop a space at the start of a tspan ('E_Z = 0.6' lost the space
+    // after the subscript): a piece with a space at its edge keeps it with xml:space.
+    if (/^ | $/.test(piece.text) && (attrs.length > 0 || markup !== '')) {
+      attrs.push('xml:space="preserve"');
+    }
+    const text = escapeXml(piece.text);
     markup += attrs.length === 0 ? text : `<tspan ${attrs.join(' ')}>${text}</tspan>`;
     width += estimateTextWidth(
       piece.text,
