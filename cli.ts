@@ -1,17 +1,22 @@
 import { readFileSync, writeFileSync } from 'node:fs';
 import { cutFigureSvg } from './app/figure/cutFigure';
 import { mapFigureSvg } from './app/figure/mapFigure';
+import { latticeSvg } from './app/probe/latticeSvg';
+import { probeDocument } from './app/probe/probeDocument';
 import {
   MAX_CUT_POINTS,
   ModelError,
   computeCut,
   computePhaseMap,
+  isPlainObject,
   cutToCsv,
   cutToJson,
   mapToCsv,
   mapToJson,
+  modelAtPoint,
   parseMapInput,
   parseModel,
+  probeModel,
   solve,
   solveResultToJson,
 } from './solver/index';
@@ -23,6 +28,12 @@ const USAGE = `usage:
   fourfold cut --model FILE --from x,y --to x,y [--n N] --out OUT
                                          Cut along a straight line of the model's plane (plane
                                          coordinates); N samples (default 200); OUT as for map
+  fourfold probe --model FILE [--at x,y] [--out LATTICE.svg]
+                                         Probe of one model (or an array): spinors, entanglement,
+                                         sublattice spins, bond order, levels, modes and their
+                                         symmetries, competitors, as JSON; --at takes the point
+                                         x,y of the model's plane; --out writes the lattice
+                                         picture of one model as SVG
 options:
   --threads N   worker threads for map (default: all cores)
   --column single|double
@@ -51,6 +62,7 @@ interface Args {
   from?: [number, number];
   to?: [number, number];
   n?: number;
+  at?: [number, number];
 }
 
 /** A plane point typed as `x,y` (two finite numbers). */
@@ -71,8 +83,11 @@ function parseArgs(argv: readonly string[]): Args {
   if (command === undefined || command === '--help' || command === '-h') {
     throw new CliError(USAGE, 2);
   }
-  if (command !== 'solve' && command !== 'map' && command !== 'cut') {
-    throw new CliError(`unknown command "${command}"; use solve, map or cut (--help for usage)`, 2);
+  if (command !== 'solve' && command !== 'map' && command !== 'cut' && command !== 'probe') {
+    throw new CliError(
+      `unknown command "${command}"; use solve, map, cut or probe (--help for usage)`,
+      2,
+    );
   }
   const args: Args = { command };
   for (let k = 0; k < rest.length; k++) {
@@ -101,6 +116,7 @@ function parseArgs(argv: readonly string[]): Args {
     } else if (flag === '--title') args.title = need();
     else if (flag === '--from') args.from = parsePoint(flag, need());
     else if (flag === '--to') args.to = parsePoint(flag, need());
+    else if (flag === '--at') args.at = parsePoint(flag, need());
     else if (flag === '--n') {
       const text = need();
       const n = text.trim() === '' ? NaN : Number(text);
@@ -125,6 +141,15 @@ function parseArgs(argv: readonly string[]): Args {
     for (const flag of ['from', 'to', 'n'] as const) {
       if (args[flag] !== undefined) throw new CliError(`--${flag}: only for the cut command`, 2);
     }
+  }
+  if (command !== 'probe' && args.at !== undefined) {
+    throw new CliError('--at: only for the probe command', 2);
+  }
+  if (command === 'probe' && args.out !== undefined && !/\.svg$/i.test(args.out)) {
+    throw new CliError(
+      `--out ${args.out}: the probe writes its lattice picture; end it in .svg`,
+      2,
+    );
   }
   return args;
 }
@@ -160,6 +185,37 @@ function runSolve(json: unknown): string {
     return JSON.stringify(results, null, 2);
   }
   return JSON.stringify(solveResultToJson(solve(parseModel(json))), null, 2);
+}
+
+/**
+ * The Probe of one model (or of each model of an array), or of the plane point `--at`; with
+ * `--out`, the lattice picture of the (single) Probe as SVG. The JSON goes to stdout.
+ */
+function runProbe(json: unknown, args: Args): string {
+  if (args.at !== undefined) {
+    const [x, y] = args.at;
+    if (!isPlainObject(json) || json.plane === undefined) {
+      throw new CliError(
+        '--at: the model file has no plane to take the point in (add one, or drop --at)',
+        2,
+      );
+    }
+    const report = probeModel(modelAtPoint(parseMapInput(json), x, y));
+    if (args.out !== undefined) writeOutput(args.out, latticeSvg(report));
+    return probeDocument(report, { x, y });
+  }
+  if (Array.isArray(json)) {
+    if (json.length === 0)
+      throw new ModelError('model file: empty array (give at least one model)');
+    if (args.out !== undefined) {
+      throw new CliError('--out: a lattice picture needs one model, not an array', 2);
+    }
+    const reports = json.map((m, k) => probeModel(parseModel(m, `[${k}]`)));
+    return JSON.stringify(reports, null, 2) + '\n';
+  }
+  const report = probeModel(parseModel(json));
+  if (args.out !== undefined) writeOutput(args.out, latticeSvg(report));
+  return probeDocument(report);
 }
 
 /** The output file and the format its ending names. */
@@ -221,6 +277,7 @@ export async function main(argv: readonly string[]): Promise<number> {
     const json = readJson(args.model!);
     if (args.command === 'solve') process.stdout.write(runSolve(json) + '\n');
     else if (args.command === 'cut') runCut(json, args);
+    else if (args.command === 'probe') process.stdout.write(runProbe(json, args));
     else await runMap(json, args);
     return 0;
   } catch (error) {

@@ -496,3 +496,61 @@ describe('fourfold cut (a straight line of the plane)', () => {
     expect(existsSync(out)).toBe(false);
   });
 });
+
+describe('fourfold probe', () => {
+  interface ProbeOut {
+    point?: { x: number; y: number };
+    format: string;
+    state: SolveJson;
+    sublattices: { a: { angleToField: number } };
+    modes: { goldstone: number; gapless: { generators: string[] }[] };
+    competitors: { phase: string; above: number }[];
+  }
+
+  test('the interfaces.md example: the solve result plus canting, the broken symmetry and competitors', () => {
+    const model = file('probe.model.json', INTERFACES_EXAMPLE);
+    const run = fourfold('probe', '--model', model);
+    expect(run.status).toBe(0);
+    const probe = JSON.parse(run.stdout) as ProbeOut;
+    const solve = JSON.parse(fourfold('solve', '--model', model).stdout) as SolveJson;
+    expect(probe.format).toBe('fourfold-probe');
+    expect(probe.state.energy).toBe(solve.energy);
+    expect(probe.state.phase).toBe(solve.phase);
+    expect(probe.state.modes).toEqual(solve.modes);
+    // CAF canting cos(theta) = E_Z / (4 |uPerp_F|) = 0.1 (model.md section 5, derived).
+    expect(Math.cos(probe.sublattices.a.angleToField)).toBeCloseTo(0.1, 10);
+    expect(probe.modes.gapless.map((m) => m.generators)).toEqual([['0z']]);
+    expect(probe.competitors[0]).toMatchObject({ phase: 'CAF', above: 0 });
+  });
+
+  test('--at takes the point of the plane; --out writes the lattice picture', () => {
+    const model = file('probe-plane.model.json', { ...INTERFACES_EXAMPLE, plane: PLANE_24 });
+    const out = join(dir, 'probe-lattice.svg');
+    const run = fourfold('probe', '--model', model, '--at', '-1.5,1.5', '--out', out);
+    expect(run.status).toBe(0);
+    const probe = JSON.parse(run.stdout) as ProbeOut;
+    expect(probe.point).toEqual({ x: -1.5, y: 1.5 });
+    // uPerp = -1.5, uZ = 1.5, E_Z = 0.4: CAF with E = -uZ - E_Z^2 / (8 |uPerp|) (model.md section 5).
+    expect(probe.state.phase).toBe('CAF');
+    expect(probe.state.energy).toBeCloseTo(-1.5 - 0.16 / 12, 12);
+    const svg = readFileSync(out, 'utf8');
+    expect(svg).toContain('<svg xmlns="http://www.w3.org/2000/svg" version="1.1"');
+    expect(svg).toContain('Fourfold Probe lattice picture: CAF');
+  });
+
+  test('bad flags end in one line naming the flag', () => {
+    const planeless = file('probe-no-plane.json', INTERFACES_EXAMPLE);
+    expectOneLineError(fourfold('probe', '--model', planeless, '--at', '1,1'), ['--at', 'plane']);
+    expectOneLineError(fourfold('probe', '--model', planeless, '--at', '1'), ['--at']);
+    expectOneLineError(fourfold('probe', '--model', planeless, '--out', 'x.png'), [
+      '--out',
+      '.svg',
+    ]);
+    const pair = file('probe-pair.json', [INTERFACES_EXAMPLE, INTERFACES_EXAMPLE]);
+    expectOneLineError(fourfold('probe', '--model', pair, '--out', join(dir, 'p.svg')), [
+      '--out',
+      'one model',
+    ]);
+    expectOneLineError(fourfold('solve', '--model', planeless, '--at', '1,1'), ['--at', 'probe']);
+  });
+});

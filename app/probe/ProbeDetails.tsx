@@ -5,14 +5,10 @@ import { formatFixed } from '../format';
 import type { Pin } from '../store/probeSlice';
 import { LevelDiagram } from './LevelDiagram';
 import { latticeSvg } from './latticeSvg';
+import { probeDocument } from './probeDocument';
 import { ModeList } from './ModeList';
 import { OrientationDiscs } from './OrientationDiscs';
 import { SpinorTable } from './SpinorTable';
-
-/** The Probe JSON: the report plus where it was taken. */
-export function probeDocument(pin: Pin, report: ProbeReport): string {
-  return JSON.stringify({ point: { x: pin.x, y: pin.y }, ...report }, null, 2) + '\n';
-}
 
 /** Every section of one pin's Probe. */
 export function ProbeDetails({ pin, report }: { pin: Pin; report: ProbeReport }) {
@@ -144,7 +140,7 @@ export function ProbeDetails({ pin, report }: { pin: Pin; report: ProbeReport })
           onClick={() =>
             downloadText(
               `fourfold-probe-${pin.id}.json`,
-              probeDocument(pin, report),
+              probeDocument(report, { x: pin.x, y: pin.y }),
               'application/json',
             )
           }
