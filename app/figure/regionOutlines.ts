@@ -100,7 +100,8 @@ function clamp01(t: number): number {
  * boundaries there (bottom with right, top with left); any other cell (three labels meeting, or
  * four) is cut by spokes from its crossings to their mean. The half-pixel strips between the
  * outermost pixel centres and the frame are cells of the same kind whose outer corners copy the
- * nearest pixel's label, so boundaries run straight on to the frame.
+ * nearest pixel's label; a boundary that crosses one meets the frame where its last segment,
+ * continued straight, does.
  *
  * Sides shared by two cells always lie inside one label's region, so only the chords, the spokes
  * and the frame are region outline: each label's directed outline edges (counter-clockwise in
