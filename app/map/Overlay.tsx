@@ -32,6 +32,9 @@ function planeScales(plane: Plane, side: number): { x: Scale; y: Scale } {
 export function Overlay({ side }: OverlayProps) {
   const plane = useFourfold((s) => s.map.grid?.input.plane ?? null);
   const scales = useMemo(() => (plane ? planeScales(plane, side) : null), [plane, side]);
+  // Every axis of a physical setup is an energy in meV (couplings at the sample's field, E_Z,
+  // Delta_V).
+  const unit = useFourfold((s) => (s.setup.physical ? 'meV' : null));
   const clipId = `map-clip-${useId().replace(/[^A-Za-z0-9_-]/g, '')}`;
   if (plane === null || scales === null) return null;
   const width = PLOT_MARGIN.left + side + PLOT_MARGIN.right;
@@ -55,11 +58,13 @@ export function Overlay({ side }: OverlayProps) {
         <Axes x={scales.x} y={scales.y} side={side} />
         <AxisTitleText
           label={plane.x.label}
+          unit={unit}
           fallback="x"
           transform={`translate(${side / 2},${side + PLOT_MARGIN.bottom - 8})`}
         />
         <AxisTitleText
           label={plane.y.label}
+          unit={unit}
           fallback="y"
           transform={`translate(${-PLOT_MARGIN.left + 15},${side / 2}) rotate(-90)`}
         />
@@ -95,10 +100,13 @@ function Axes({ x, y, side }: { x: Scale; y: Scale; side: number }) {
 /** An axis title as SVG text: the symbol (italic when a single Latin letter), its subscript. */
 function AxisTitleText({
   label,
+  unit,
   fallback,
   transform,
 }: {
   label: string;
+  /** Unit of the axis values (meV in physical units), or null when dimensionless. */
+  unit: string | null;
   fallback: string;
   transform: string;
 }) {
@@ -112,6 +120,7 @@ function AxisTitleText({
           {subscript}
         </tspan>
       )}
+      {unit !== null && <tspan dy={subscript !== '' ? '-0.32em' : undefined}> ({unit})</tspan>}
     </text>
   );
 }

@@ -21,6 +21,7 @@ export function Readout() {
   const hover = useFourfold((s) => s.view.hover);
   const grid = useFourfold((s) => s.map.grid);
   const phase = useFourfold((s) => s.map.phase);
+  const unit = useFourfold((s) => (s.setup.physical ? ' (meV)' : ''));
   // Redraw when the grid under the pointer is refined.
   useFourfold((s) => s.map.version);
   if (!grid || !hover || hover.i >= grid.nx || hover.j >= grid.ny) {
@@ -31,6 +32,7 @@ export function Readout() {
     );
   }
   const p = hover.j * grid.nx + hover.i;
+  const exchange = grid.input.model.exchange ?? 0;
   // Inside regions pixels are solved when asked for, once the boundary cells are done (a
   // single descent from the nearest coarse node; the grid keeps the result).
   if (phase === 'boundaries' || phase === 'done') grid.solvePixelNow(p);
@@ -78,18 +80,23 @@ export function Readout() {
         <>
           <dl className="figures">
             <div>
-              <dt>Energy per flux quantum</dt>
+              <dt>Energy per flux quantum{unit}</dt>
               <dd data-testid="readout-energy" data-value={grid.energy[p]}>
                 {formatFixed(grid.energy[p]!, 6)}
               </dd>
             </div>
             <div>
               <dt title="Lowest empty minus highest occupied Hartree-Fock level; an upper estimate of transport gaps">
-                Quasiparticle gap*
+                Quasiparticle gap*{unit}
               </dt>
               <dd data-testid="readout-gap" data-value={grid.gap[p]}>
                 {formatFixed(grid.gap[p]!, 6)}
               </dd>
+              {exchange > 0 && (
+                <dd className="readout-note" data-testid="readout-gap-exchange">
+                  includes the Coulomb exchange E_X = {formatFixed(exchange, 4)}
+                </dd>
+              )}
               {grid.gap[p]! < 0 && (
                 <dd className="readout-warning" data-testid="readout-gap-negative">
                   Negative: an occupied level lies above an empty one (no Aufbau), so this uniform
