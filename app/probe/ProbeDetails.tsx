@@ -2,6 +2,7 @@ import { useMemo } from 'react';
 import { TOKEN_MEANINGS, type ProbeReport } from '../../solver/index';
 import { downloadText } from '../download';
 import { formatFixed } from '../format';
+import { useFourfold } from '../store/index';
 import type { Pin } from '../store/probeSlice';
 import { LevelDiagram } from './LevelDiagram';
 import { latticeSvg } from './latticeSvg';
@@ -13,6 +14,7 @@ import { SpinorTable } from './SpinorTable';
 /** Every section of one pin's Probe. */
 export function ProbeDetails({ pin, report }: { pin: Pin; report: ProbeReport }) {
   const state = report.state;
+  const unit = useFourfold((s) => (s.setup.physical ? ' (meV)' : ''));
   const lattice = useMemo(() => latticeSvg(report, `Pin ${pin.id}`), [report, pin.id]);
   const meaning = state.phase
     .split('+')
@@ -35,13 +37,13 @@ export function ProbeDetails({ pin, report }: { pin: Pin; report: ProbeReport })
         </p>
         <dl className="probe-figures">
           <div>
-            <dt>Energy per flux quantum</dt>
+            <dt>Energy per flux quantum{unit}</dt>
             <dd data-testid="probe-energy" data-value={state.energy}>
               {formatFixed(state.energy, 9)}
             </dd>
           </div>
           <div>
-            <dt>Quasiparticle gap*</dt>
+            <dt>Quasiparticle gap*{unit}</dt>
             <dd data-testid="probe-gap" data-value={state.gap}>
               {formatFixed(state.gap, 6)}
             </dd>
@@ -50,7 +52,7 @@ export function ProbeDetails({ pin, report }: { pin: Pin; report: ProbeReport })
         <p className="probe-note">
           {report.exchange > 0
             ? `The gap and the occupied levels include the Coulomb exchange E_X = ${formatFixed(report.exchange, 4)}.`
-            : 'Without the Coulomb exchange E_X: it lowers every occupied level alike and adds E_X to the gap (set it in physical units or as "exchange" in the model file).'}
+            : 'Without the Coulomb exchange E_X: it lowers every occupied level alike and adds E_X to the gap (in physical units tick "add E_X to the quasiparticle gap", or set "exchange" in the model file).'}
         </p>
         {!state.aufbau && (
           <p className="probe-warning" data-testid="probe-no-aufbau">
