@@ -1,13 +1,18 @@
-/** Saves text as a file through the browser's download (no server involved). */
-export function downloadText(fileName: string, text: string, type: string): void {
-  const blob = new Blob([text], { type });
+/** Hands `blob` to the browser as a download named `fileName` (no server involved). */
+export function downloadBlob(fileName: string, blob: Blob): void {
   const url = URL.createObjectURL(blob);
   const link = document.createElement('a');
   link.href = url;
   link.download = fileName;
+  link.style.display = 'none';
   document.body.append(link);
   link.click();
   link.remove();
-  // The click has started the download; release the blob after the browser has taken it.
-  setTimeout(() => URL.revokeObjectURL(url), 0);
+  // Revoke later: the download has to start reading the URL first.
+  setTimeout(() => URL.revokeObjectURL(url), 60_000);
+}
+
+/** Saves text as a file of the given MIME type. */
+export function downloadText(fileName: string, text: string, type: string): void {
+  downloadBlob(fileName, new Blob([text], { type }));
 }

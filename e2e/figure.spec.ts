@@ -3,26 +3,9 @@ import { DOMParser } from '@xmldom/xmldom';
 import { expect, test, type Download, type Page } from '@playwright/test';
 import { pngResolution } from '../app/figure/pngResolution';
 import { SOFTWARE_VERSION } from '../solver/index';
+import { failOnConsoleErrors, mapDone } from './demoPage';
 
-const consoleErrors: string[] = [];
-
-test.beforeEach(({ page }) => {
-  consoleErrors.length = 0;
-  page.on('console', (message) => {
-    if (message.type() === 'error') consoleErrors.push(message.text());
-  });
-  page.on('pageerror', (error) => consoleErrors.push(error.message));
-});
-
-test.afterEach(() => {
-  expect(consoleErrors, 'console errors on the page').toEqual([]);
-});
-
-async function mapDone(page: Page): Promise<void> {
-  await expect(page.getByTestId('map-status')).toHaveAttribute('data-phase', 'done', {
-    timeout: 30_000,
-  });
-}
+failOnConsoleErrors();
 
 /** Clicks `testId` and returns the downloaded file's name and bytes. */
 async function download(page: Page, testId: string, timeout = 30_000) {

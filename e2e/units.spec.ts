@@ -1,22 +1,14 @@
 import { expect, test, type Page } from '@playwright/test';
+import { failOnConsoleErrors, mapDone } from './demoPage';
 
 /** Where screenshots go (another checkout's run empties test-results/ when it starts). */
 const SHOTS = process.env.FOURFOLD_E2E_SHOTS ?? 'test-results/screenshots';
 
-const consoleErrors: string[] = [];
+failOnConsoleErrors();
 
-test.beforeEach(({ page }) => {
+test.beforeEach(() => {
   // Each test maps the 256 x 256 demo plane several times; the machine may be shared.
   test.setTimeout(120_000);
-  consoleErrors.length = 0;
-  page.on('console', (message) => {
-    if (message.type() === 'error') consoleErrors.push(message.text());
-  });
-  page.on('pageerror', (error) => consoleErrors.push(error.message));
-});
-
-test.afterEach(() => {
-  expect(consoleErrors, 'console errors on the page').toEqual([]);
 });
 
 // CODATA 2018 (E. Tiesinga et al., Rev. Mod. Phys. 93, 025010 (2021)); e and h exact in the SI.
@@ -29,12 +21,6 @@ const zeemanMeV = (b: number, tiltDeg: number, g = 2) =>
   (g * MU_B * b) / Math.cos((tiltDeg * Math.PI) / 180) / (E * 1e-3);
 /** l_B = sqrt(hbar / (e B_perp)) in nm. */
 const magneticLengthNm = (b: number) => Math.sqrt(HBAR / (E * b)) * 1e9;
-
-async function mapDone(page: Page): Promise<void> {
-  await expect(page.getByTestId('map-status')).toHaveAttribute('data-phase', 'done', {
-    timeout: 30_000,
-  });
-}
 
 async function valueOf(page: Page, testId: string): Promise<number> {
   return Number(await page.getByTestId(testId).getAttribute('data-value'));

@@ -1,6 +1,7 @@
-import { useEffect, useLayoutEffect, useRef, useState } from 'react';
+import { useEffect, useState } from 'react';
 import { cutToCsv, cutToJson, parseMapInput, type CutResult, type Plane } from '../../solver/index';
 import { downloadText } from '../download';
+import { useContentWidth } from '../useContentWidth';
 import { cutFigureSvg } from '../figure/cutFigure';
 import { MeanFieldCautions } from '../probe/MeanFieldCautions';
 import { AxisName } from '../readout/AxisName';
@@ -37,22 +38,6 @@ function defaultRange(kind: SweepKind, plane: Plane | null, zeeman: number): Pai
   if (kind === 'valleyZeeman') return [-1, 1];
   if (kind === 'tilt') return [0, 80];
   return [-1, 1];
-}
-
-function useWidth(): [React.RefObject<HTMLDivElement | null>, number] {
-  const ref = useRef<HTMLDivElement>(null);
-  const [width, setWidth] = useState(0);
-  useLayoutEffect(() => {
-    const element = ref.current;
-    if (!element) return;
-    setWidth(element.clientWidth);
-    const observer = new ResizeObserver((entries) => {
-      for (const entry of entries) setWidth(entry.contentRect.width);
-    });
-    observer.observe(element);
-    return () => observer.disconnect();
-  }, []);
-  return [ref, width];
 }
 
 /** What the shown Cut follows, for test drivers: `line:x0,y0:x1,y1` or `kind:from:to`. */
@@ -360,7 +345,7 @@ export function CutPanel() {
   const [mode, setMode] = useState<'line' | 'sweep'>(
     spec !== null && spec.kind !== 'line' ? 'sweep' : 'line',
   );
-  const [ref, width] = useWidth();
+  const [ref, width] = useContentWidth();
   // A line drawn on the Map switches the panel to lines.
   useEffect(() => {
     if (spec?.kind === 'line') setMode('line');

@@ -2,7 +2,8 @@ import { useState } from 'react';
 import { mapToCsv, mapToJson } from '../../solver/index';
 import { useFourfold } from '../store/index';
 import { completeMap } from './completeMap';
-import { downloadBlob, svgToPng } from './download';
+import { downloadBlob } from '../download';
+import { svgToPng } from './download';
 import { mapFigureSvg } from './mapFigure';
 import './figure.css';
 

@@ -1,19 +1,5 @@
 import { pngWithResolution } from './pngResolution';
 
-/** Hands `blob` to the browser as a download named `name`. */
-export function downloadBlob(name: string, blob: Blob): void {
-  const url = URL.createObjectURL(blob);
-  const a = document.createElement('a');
-  a.href = url;
-  a.download = name;
-  a.style.display = 'none';
-  document.body.appendChild(a);
-  a.click();
-  a.remove();
-  // Revoke later: the download has to start reading the URL first.
-  setTimeout(() => URL.revokeObjectURL(url), 60_000);
-}
-
 /** Largest PNG side accepted, pixels (a double-column figure at 600 dpi is about 4200). */
 export const MAX_PNG_SIDE = 8192;
 

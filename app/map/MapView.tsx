@@ -1,13 +1,6 @@
-import {
-  useCallback,
-  useLayoutEffect,
-  useRef,
-  useState,
-  type MouseEvent,
-  type PointerEvent,
-  type RefObject,
-} from 'react';
+import { useCallback, type MouseEvent, type PointerEvent } from 'react';
 import { useCutDrawing } from '../cut/useCutDrawing';
+import { useContentWidth } from '../useContentWidth';
 import { useFourfold } from '../store/index';
 import './map.css';
 import { Overlay } from './Overlay';
@@ -15,23 +8,6 @@ import { PLOT_MARGIN, plotSide } from './plotFrame';
 import { pixelAtFraction } from './plotPixels';
 import { PIN_MARK_RADIUS } from '../probe/PinLayer';
 import { RegionLayer } from './RegionLayer';
-
-/** Width available to the view, followed as the layout changes (0 before the first measure). */
-function useContentWidth(): [RefObject<HTMLDivElement | null>, number] {
-  const ref = useRef<HTMLDivElement>(null);
-  const [width, setWidth] = useState(0);
-  useLayoutEffect(() => {
-    const element = ref.current;
-    if (!element) return;
-    setWidth(element.clientWidth);
-    const observer = new ResizeObserver((entries) => {
-      for (const entry of entries) setWidth(entry.contentRect.width);
-    });
-    observer.observe(element);
-    return () => observer.disconnect();
-  }, []);
-  return [ref, width];
-}
 
 /**
  * The Map: the region canvas with its vector overlay (axes, boundaries, crosshair) in a square

@@ -1,6 +1,7 @@
 import { ModelError, SOFTWARE_VERSION, isPlainObject } from '../../solver/index';
 import { scenarioToSetup, setupToScenario } from './scenario';
 import type { Setup } from './setup';
+import { downloadText } from '../download';
 
 export const SCENARIO_FILE_NAME = 'fourfold-scenario.json';
 
@@ -42,14 +43,5 @@ export function parseScenarioFile(text: string, source: string): Setup {
 
 /** Starts the browser download of the scenario file. */
 export function downloadScenarioFile(setup: Setup): void {
-  const blob = new Blob([scenarioFileText(setup)], { type: 'application/json' });
-  const url = URL.createObjectURL(blob);
-  const link = document.createElement('a');
-  link.href = url;
-  link.download = SCENARIO_FILE_NAME;
-  document.body.append(link);
-  link.click();
-  link.remove();
-  // The click has started the download; release the blob after the browser has taken it.
-  setTimeout(() => URL.revokeObjectURL(url), 0);
+  downloadText(SCENARIO_FILE_NAME, scenarioFileText(setup), 'application/json');
 }
