@@ -135,7 +135,10 @@ export function latticeSvg(report: ProbeReport, title?: string): string {
     `B (K'): charge ${fixed(b.charge)}, spin ${vec(b.spin)}`,
     ...(pic.maxModulation > 1e-9
       ? [
-          `Bond classes 0, 1, 2: ${strengths} (Kekule phase ${fixed((report.bonds.phase * 180) / Math.PI, 1)} deg)`,
+          `Bond classes 0, 1, 2: ${strengths}` +
+            (Number.isNaN(report.bonds.phase)
+              ? ''
+              : ` (Kekule phase ${fixed((report.bonds.phase * 180) / Math.PI, 1)} deg)`),
           spinResolved
             ? 'Bonds: one stroke per spin (up blue, down orange), wide = strong'
             : 'Bonds: dark and wide = strong, light and thin = weak',
