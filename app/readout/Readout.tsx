@@ -2,6 +2,9 @@ import {
   CHANNELS,
   ORDER_GROUPS,
   ORDER_TOLERANCE,
+  couplingsOf,
+  isSymmetry,
+  modelAtPoint,
   PIXEL_SOLVED,
   TOKEN_MEANINGS,
   groupMagnitudes,
@@ -12,6 +15,8 @@ import { useFourfold } from '../store/index';
 import { AxisName } from './AxisName';
 
 const DEGREES = 180 / Math.PI;
+/** Index of tau_z (x) 1, the generator of valley rotations (channel z0). */
+const VALLEY_ROTATION = 12;
 
 /**
  * The state under the pointer: position, phase label, energy, gap, and the order parameters
@@ -119,6 +124,15 @@ export function Readout() {
                 <dd data-testid="readout-bond-phase">
                   {formatFixed(angles.bondPhase * DEGREES, 2)}°
                 </dd>
+                {isSymmetry(
+                  couplingsOf(modelAtPoint(grid.input, grid.x[hover.i]!, grid.y[hover.j]!)),
+                  VALLEY_ROTATION,
+                ) && (
+                  <dd className="readout-note">
+                    any phase is equivalent here: valley rotation about τ<sub>z</sub> is a symmetry
+                    of the model
+                  </dd>
+                )}
               </div>
             )}
           </dl>
