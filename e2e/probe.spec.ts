@@ -76,8 +76,9 @@ test('a clicked point shows the same ground state as `npm run --silent solve`', 
   await page.getByTestId('probe').screenshot({ path: 'test-results/screenshots/probe-caf.png' });
 });
 
-test('pins: several at once, each marked on the Map, removable, kept on reload; Probe JSON export', async ({
+test('pins: several at once, each marked on the Map, removable, kept on reload and in the link; Probe JSON export', async ({
   page,
+  browser,
 }) => {
   await page.goto('/');
   await mapDone(page);
@@ -137,6 +138,18 @@ test('pins: several at once, each marked on the Map, removable, kept on reload; 
     timeout: 20_000,
   });
   await page.screenshot({ path: 'test-results/screenshots/probe-pins.png', fullPage: true });
+
+  // The link carries the pins: a fresh browser (no autosave) opened on it shows them.
+  await expect(page).toHaveURL(/#s=/);
+  const fresh = await browser.newContext();
+  const other = await fresh.newPage();
+  await other.goto(page.url());
+  await mapDone(other);
+  await expect(other.locator('[data-testid^="map-pin-"]')).toHaveCount(2);
+  await expect(other.getByTestId('probe-details')).toHaveAttribute('data-phase', 'CDW', {
+    timeout: 20_000,
+  });
+  await fresh.close();
 });
 
 test('a point pinned by typed coordinates; bad entries are named and pin nothing', async ({

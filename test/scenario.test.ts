@@ -14,8 +14,10 @@ import {
   decodeBase64Url,
   encodeBase64Url,
   readScenarioHash,
+  readScenarioLink,
   scenarioHash,
 } from '../app/scenario/urlState';
+import { pinsOfScenarioText } from '../app/scenario/scenarioPins';
 
 /** An invented generic model: several channels with H != F, a channel axis and a field axis. */
 const GENERIC_SETUP: Setup = {
@@ -255,5 +257,54 @@ describe('app limits', () => {
     expect(fitted.setup.channels).toBe(loaded.channels);
     expect(fitted.note).toContain('2048 × 300');
     expect(fitSetupToApp(GENERIC_SETUP)).toEqual({ setup: GENERIC_SETUP, note: null });
+  });
+});
+
+describe('Probe pins in the scenario file and the link', () => {
+  const pins = [
+    { id: 3, x: -0.7, y: 0.9 },
+    { id: 5, x: 1.25, y: -1.5 },
+  ];
+
+  test('they ride in fourfold.pins, in order, and come back numbered from 1', () => {
+    const text = scenarioFileText(DEMO_SETUP, pins);
+    expect(JSON.parse(text).fourfold.pins).toEqual([
+      [-0.7, 0.9],
+      [1.25, -1.5],
+    ]);
+    expect(pinsOfScenarioText(text, 'f.json')).toEqual([
+      { id: 1, x: -0.7, y: 0.9 },
+      { id: 2, x: 1.25, y: -1.5 },
+    ]);
+    // The setup is the same with or without pins, and the model the workers solve has none.
+    expect(parseScenarioFile(text, 'f.json')).toEqual(
+      parseScenarioFile(scenarioFileText(DEMO_SETUP), 'f.json'),
+    );
+    expect(JSON.stringify(setupToScenario(DEMO_SETUP))).not.toContain('pins');
+    expect(pinsOfScenarioText(scenarioFileText(DEMO_SETUP), 'f.json')).toBeNull();
+
+    const link = readScenarioLink(scenarioHash(DEMO_SETUP, '#view=1', pins))!;
+    expect(link.pins!.map((p) => [p.x, p.y])).toEqual([
+      [-0.7, 0.9],
+      [1.25, -1.5],
+    ]);
+    expect(link.setup).toEqual(readScenarioHash(scenarioHash(DEMO_SETUP))!);
+  });
+
+  test('malformed pins give one line naming the entry', () => {
+    const document = (value: unknown) =>
+      JSON.stringify({ ...setupToScenario(DEMO_SETUP), fourfold: { pins: value } });
+    expect(errorOf(() => pinsOfScenarioText(document('here'), 'f.json'))).toBe(
+      'f.json: fourfold.pins: expected a list of [x, y] points',
+    );
+    expect(errorOf(() => pinsOfScenarioText(document([[0, 1], [2]]), 'f.json'))).toBe(
+      'f.json: fourfold.pins[1]: expected [x, y] with two finite numbers',
+    );
+    expect(errorOf(() => pinsOfScenarioText(document([[0, 'NaN']]), 'link'))).toMatch(
+      /^link: fourfold\.pins\[0\]/,
+    );
+    expect(
+      errorOf(() => pinsOfScenarioText(document(Array.from({ length: 99 }, () => [0, 0])), 'f')),
+    ).toMatch(/at most/);
   });
 });

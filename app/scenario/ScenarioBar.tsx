@@ -3,6 +3,7 @@ import { ModelError } from '../../solver/index';
 import { useFourfold } from '../store/index';
 import { DEMO_SETUP } from './demo';
 import { SCENARIO_FILE_MAX_BYTES, downloadScenarioFile, parseScenarioFile } from './scenarioFile';
+import { pinsOfScenarioText } from './scenarioPins';
 import { fitSetupToApp } from './setupCheck';
 import { scenarioHash } from './urlState';
 import './scenarioBar.css';
@@ -13,7 +14,7 @@ function oneLine(error: unknown): string {
 }
 
 async function loadScenarioFile(file: File): Promise<void> {
-  const { setNotice, replaceSetup } = useFourfold.getState();
+  const { setNotice, replaceSetup, replacePins } = useFourfold.getState();
   if (file.size > SCENARIO_FILE_MAX_BYTES) {
     setNotice({
       kind: 'error',
@@ -30,7 +31,9 @@ async function loadScenarioFile(file: File): Promise<void> {
   }
   try {
     const fitted = fitSetupToApp(parseScenarioFile(text, file.name));
+    const pins = pinsOfScenarioText(text, file.name);
     replaceSetup(fitted.setup);
+    if (pins !== null) replacePins(pins);
     setNotice({
       kind: 'info',
       text: fitted.note === null ? `Loaded ${file.name}.` : `Loaded ${file.name}: ${fitted.note}.`,
@@ -42,9 +45,9 @@ async function loadScenarioFile(file: File): Promise<void> {
 }
 
 async function copyLink(): Promise<void> {
-  const { setup, setNotice } = useFourfold.getState();
+  const { setup, probe, setNotice } = useFourfold.getState();
   const { origin, pathname, search } = window.location;
-  const hash = scenarioHash(setup, window.location.hash);
+  const hash = scenarioHash(setup, window.location.hash, probe.pins);
   // The address bar shows the same link at once (the debounced sync would do it shortly).
   window.history.replaceState(window.history.state, '', `${pathname}${search}${hash}`);
   const link = `${origin}${pathname}${search}${hash}`;
@@ -73,7 +76,10 @@ export function ScenarioBar() {
       <button
         type="button"
         data-testid="scenario-save"
-        onClick={() => downloadScenarioFile(useFourfold.getState().setup)}
+        onClick={() => {
+          const { setup, probe } = useFourfold.getState();
+          downloadScenarioFile(setup, probe.pins);
+        }}
       >
         Save scenario
       </button>

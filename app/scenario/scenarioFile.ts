@@ -2,6 +2,8 @@ import { ModelError, SOFTWARE_VERSION, isPlainObject } from '../../solver/index'
 import { scenarioToSetup, setupToScenario } from './scenario';
 import type { Setup } from './setup';
 import { downloadText } from '../download';
+import type { Pin } from '../store/probeSlice';
+import { withPins } from './scenarioPins';
 
 export const SCENARIO_FILE_NAME = 'fourfold-scenario.json';
 
@@ -11,10 +13,10 @@ export const SCENARIO_FILE_MAX_BYTES = 1_000_000;
 /**
  * The scenario file: the interfaces.md model with its plane (what `npm run map -- --model FILE`
  * reads), pretty-printed, plus the accepted extra field `fourfold` with the software version (and
- * the physical units and interaction ranges, when set).
+ * the physical units, interaction ranges and Probe pins, when set).
  */
-export function scenarioFileText(setup: Setup): string {
-  const scenario = setupToScenario(setup);
+export function scenarioFileText(setup: Setup, pins: readonly Pin[] = []): string {
+  const scenario = withPins(setupToScenario(setup), pins);
   const extra = isPlainObject(scenario.fourfold) ? scenario.fourfold : {};
   const document = { ...scenario, fourfold: { version: SOFTWARE_VERSION, ...extra } };
   return `${JSON.stringify(document, null, 2)}\n`;
@@ -42,6 +44,6 @@ export function parseScenarioFile(text: string, source: string): Setup {
 }
 
 /** Starts the browser download of the scenario file. */
-export function downloadScenarioFile(setup: Setup): void {
-  downloadText(SCENARIO_FILE_NAME, scenarioFileText(setup), 'application/json');
+export function downloadScenarioFile(setup: Setup, pins: readonly Pin[] = []): void {
+  downloadText(SCENARIO_FILE_NAME, scenarioFileText(setup, pins), 'application/json');
 }

@@ -1,6 +1,8 @@
 import { ModelError } from '../../solver/index';
 import { setupToScenario } from './scenario';
 import { parseScenarioFile } from './scenarioFile';
+import type { Pin } from '../store/probeSlice';
+import { pinsOfScenarioText, withPins } from './scenarioPins';
 import type { Setup } from './setup';
 
 /** The hash parameter that holds the scenario: `#s=<base64url of the compact JSON>`. */
@@ -36,9 +38,10 @@ function hashParams(hash: string): URLSearchParams {
  * The location hash that carries the setup, keeping any other parameters of `currentHash`.
  * The scenario document is written as compact JSON (no spaces) and base64url-encoded.
  */
-export function scenarioHash(setup: Setup, currentHash = ''): string {
+export function scenarioHash(setup: Setup, currentHash = '', pins: readonly Pin[] = []): string {
   const params = hashParams(currentHash);
-  params.set(SCENARIO_HASH_KEY, encodeBase64Url(JSON.stringify(setupToScenario(setup))));
+  const document = withPins(setupToScenario(setup), pins);
+  params.set(SCENARIO_HASH_KEY, encodeBase64Url(JSON.stringify(document)));
   return `#${params.toString()}`;
 }
 
@@ -50,8 +53,14 @@ const LINK = `link (#${SCENARIO_HASH_KEY}=)`;
  * JSON, or the scenario field that fails validation.
  */
 export function readScenarioHash(hash: string): Setup | null {
+  return readScenarioLink(hash)?.setup ?? null;
+}
+
+/** The setup and the Probe pins (null when the link has none) of a location hash. */
+export function readScenarioLink(hash: string): { setup: Setup; pins: Pin[] | null } | null {
   const code = hashParams(hash).get(SCENARIO_HASH_KEY);
   if (code === null) return null;
   if (code === '') throw new ModelError(`${LINK}: empty; the link holds no scenario`);
-  return parseScenarioFile(decodeBase64Url(code, LINK), LINK);
+  const text = decodeBase64Url(code, LINK);
+  return { setup: parseScenarioFile(text, LINK), pins: pinsOfScenarioText(text, LINK) };
 }

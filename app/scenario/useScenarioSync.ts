@@ -1,10 +1,11 @@
 import { useEffect } from 'react';
 import { ModelError } from '../../solver/index';
 import { useFourfold } from '../store/index';
+import type { Pin } from '../store/probeSlice';
 import { setupToScenario } from './scenario';
 import { fitSetupToApp } from './setupCheck';
 import type { Setup } from './setup';
-import { readScenarioHash, scenarioHash } from './urlState';
+import { readScenarioLink, scenarioHash } from './urlState';
 
 /** Quiet time after the last setup change before the address is rewritten, ms. */
 export const HASH_WRITE_DELAY_MS = 250;
@@ -13,13 +14,17 @@ function sameScenario(a: Setup, b: Setup): boolean {
   return JSON.stringify(setupToScenario(a)) === JSON.stringify(setupToScenario(b));
 }
 
+function samePins(a: readonly Pin[], b: readonly Pin[]): boolean {
+  return a.length === b.length && a.every((p, k) => p.x === b[k]!.x && p.y === b[k]!.y);
+}
+
 function messageOf(error: unknown): string {
   const text = error instanceof Error ? error.message : String(error);
   return text.split('\n', 1)[0] ?? text;
 }
 
 /**
- * Keeps the setup and the address in step; mount once, in App. On start a scenario in the hash
+ * Keeps the setup (and the Probe pins) and the address in step; mount once, in App. On start a scenario in the hash
  * (`#s=`) replaces the autosaved setup (a shared link wins); a malformed one is reported as an
  * error notice and changes nothing. Afterwards every setup change is written back to the hash
  * with `history.replaceState` (no history entries), debounced. A hash edited by hand, or a
@@ -31,9 +36,10 @@ export function useScenarioSync(): void {
     let timer: ReturnType<typeof setTimeout> | undefined;
     let written: string | null = null;
 
-    const writeHash = (setup: Setup) => {
+    const writeHash = () => {
       timer = undefined;
-      const hash = scenarioHash(setup, window.location.hash);
+      const { setup, probe } = store.getState();
+      const hash = scenarioHash(setup, window.location.hash, probe.pins);
       written = hash;
       if (hash === window.location.hash) return;
       const { pathname, search } = window.location;
@@ -42,19 +48,23 @@ export function useScenarioSync(): void {
 
     /** Applies the hash's scenario; false when the hash holds a malformed one. */
     const applyHash = (): boolean => {
-      let setup: Setup | null;
+      let link: ReturnType<typeof readScenarioLink>;
       try {
-        setup = readScenarioHash(window.location.hash);
+        link = readScenarioLink(window.location.hash);
       } catch (error) {
         const text = error instanceof ModelError ? error.message : messageOf(error);
         store.getState().setNotice({ kind: 'error', text: `${text}. The setup is unchanged.` });
         return false;
       }
-      if (setup === null) return true;
-      const fitted = fitSetupToApp(setup);
+      if (link === null) return true;
+      const fitted = fitSetupToApp(link.setup);
       // A reload shows the same setup in the hash and the autosave: keep it (and its Map).
       if (!sameScenario(fitted.setup, store.getState().setup)) {
         store.getState().replaceSetup(fitted.setup);
+      }
+      // Pins of the link (a reload shows the autosaved ones again: keep those and their Probes).
+      if (link.pins !== null && !samePins(link.pins, store.getState().probe.pins)) {
+        store.getState().replacePins(link.pins);
       }
       if (fitted.note !== null) {
         store.getState().setNotice({ kind: 'info', text: `Setup from the link: ${fitted.note}.` });
@@ -63,7 +73,7 @@ export function useScenarioSync(): void {
     };
 
     const start = () => {
-      if (applyHash()) writeHash(store.getState().setup);
+      if (applyHash()) writeHash();
     };
 
     let stopHydrationWait: (() => void) | undefined;
@@ -71,9 +81,12 @@ export function useScenarioSync(): void {
     else stopHydrationWait = store.persist.onFinishHydration(start);
 
     const stopSubscription = store.subscribe((state, previous) => {
-      if (state.setup === previous.setup) return;
+      if (state.setup === previous.setup && state.probe.pins === previous.probe.pins) return;
       clearTimeout(timer);
-      timer = setTimeout(() => writeHash(store.getState().setup), HASH_WRITE_DELAY_MS);
+      // Slider drags are debounced; a pin (a click) is written at once, so that a reload right
+      // after it does not read a link that still has the old pins.
+      if (state.setup === previous.setup) writeHash();
+      else timer = setTimeout(writeHash, HASH_WRITE_DELAY_MS);
     });
 
     const onHashChange = () => {
@@ -83,7 +96,7 @@ export function useScenarioSync(): void {
     const onPageHide = () => {
       if (timer !== undefined) {
         clearTimeout(timer);
-        writeHash(store.getState().setup);
+        writeHash();
       }
     };
     window.addEventListener('hashchange', onHashChange);
