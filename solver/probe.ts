@@ -4,8 +4,8 @@ import { brokenSymmetries, type GaplessMode } from './goldstoneModes';
 import { describeState, type SolveResult } from './groundState';
 import { DEFAULT_MINIMISE, minimiseEnergy, type MinimiseOptions } from './minimise';
 import type { Model } from './model';
-import { sublatticeSpins } from './orderParameters';
-import { phaseLabel } from './phaseLabel';
+import { groupMagnitudes, sublatticeSpins } from './orderParameters';
+import { ORDER_TOLERANCE, phaseLabel } from './phaseLabel';
 import { orderOfProjector, projectorOf } from './state';
 import { modelSymmetry } from './symmetry';
 import { solveResultToJson, type SolveJson } from './solveJson';
@@ -108,6 +108,8 @@ export interface Competitor {
   readonly above: number;
   /** Unstable directions (Morse index): 0 for a local minimum, more for a saddle point. */
   readonly unstable: number;
+  /** Orientation where the label does not give it ("charge on B", "spin against the field"). */
+  readonly note: string;
   /**
    * Distinct minima of this label and energy that the search met: more than one means a
    * degenerate family (a continuous set of states of equal energy, such as all spin directions
@@ -120,37 +122,87 @@ export interface Competitor {
 export const MAX_COMPETITORS = 10;
 
 /**
- * The ground state's family first, then the other local minima and the saddle points of the
- * symmetric state families by energy, merged by label, energy and stability.
+ * Which way a state points where its label alone does not say: the sublattice that holds the
+ * charge imbalance, and whether the spin moment is along or against the field (e.g. a CDW on
+ * the other sublattice, or a ferromagnet reversed, competing with the ground state).
  */
-function mergeCompetitors(r: SolveResult, saddles: readonly StationaryState[]): Competitor[] {
+function orientationNote(order: Float64Array, tol: number): string {
+  const notes: string[] = [];
+  if (Math.abs(order[12]!) > tol) notes.push(order[12]! > 0 ? 'charge on A' : 'charge on B');
+  if (Math.abs(order[3]!) > tol) {
+    notes.push(order[3]! > 0 ? 'spin along the field' : 'spin against the field');
+  }
+  return notes.join(', ');
+}
+
+/**
+ * What tells two states apart up to the rotations about the field and about tau_z: the group
+ * magnitudes and the components along both axes (o_0z, o_z0, o_zz).
+ */
+function invariantsOf(order: Float64Array): number[] {
+  return [...groupMagnitudes(order), order[3]!, order[12]!, order[15]!];
+}
+
+/**
+ * The ground state's family first, then the other local minima and the saddle points of the
+ * symmetric state families by energy, merged by label, orientation, energy and stability.
+ */
+function mergeCompetitors(r: SolveResult, others: readonly StationaryState[]): Competitor[] {
   const c = r.couplings;
   const tol = 1e-9 * c.scale;
   const symmetry = modelSymmetry(c);
-  const labelled = [
-    ...r.minima.map((m) => ({ ...m, unstable: 0 })),
-    ...saddles.map((s) => ({
-      phase: phaseLabel(
-        orderOfProjector(projectorOf(s.frame, c.nf, new Float64Array(32)), new Float64Array(16)),
-        c,
-        symmetry,
-      ),
-      energy: s.energy,
-      unstable: s.unstable,
-    })),
-  ].sort((a, b) => a.energy - b.energy);
-  const out: { phase: string; energy: number; count: number; unstable: number }[] = [
-    { phase: r.phase, energy: r.energy, count: 0, unstable: 0 },
+  const ground = invariantsOf(r.order);
+  const labelled = others
+    .map((s) => {
+      const order = orderOfProjector(
+        projectorOf(s.frame, c.nf, new Float64Array(32)),
+        new Float64Array(16),
+      );
+      return {
+        phase: phaseLabel(order, c, symmetry),
+        note: orientationNote(order, ORDER_TOLERANCE),
+        energy: s.energy,
+        unstable: s.unstable,
+        invariants: invariantsOf(order),
+      };
+    })
+    .sort((a, b) => a.energy - b.energy)
+    // Many descents land on the same state: count each state once.
+    .filter(
+      (m, k, all) =>
+        !all
+          .slice(0, k)
+          .some(
+            (o) =>
+              Math.abs(o.energy - m.energy) <= tol &&
+              o.invariants.every((x, q) => Math.abs(x - m.invariants[q]!) <= 1e-6),
+          ) &&
+        !(
+          Math.abs(m.energy - r.energy) <= tol &&
+          m.invariants.every((x, q) => Math.abs(x - ground[q]!) <= 1e-6)
+        ),
+    );
+  const out: { phase: string; note: string; energy: number; count: number; unstable: number }[] = [
+    {
+      phase: r.phase,
+      note: orientationNote(r.order, ORDER_TOLERANCE),
+      energy: r.energy,
+      count: 1,
+      unstable: 0,
+    },
   ];
   for (const m of labelled) {
     const same = out.find(
       (o) =>
-        o.phase === m.phase && o.unstable === m.unstable && Math.abs(o.energy - m.energy) <= tol,
+        o.phase === m.phase &&
+        o.note === m.note &&
+        o.unstable === m.unstable &&
+        Math.abs(o.energy - m.energy) <= tol,
     );
     if (same) same.count++;
-    else out.push({ ...m, count: 1 });
+    else
+      out.push({ phase: m.phase, note: m.note, energy: m.energy, unstable: m.unstable, count: 1 });
   }
-  out[0]!.count = Math.max(1, out[0]!.count);
   return out
     .slice(0, MAX_COMPETITORS)
     .map((o) => ({ ...o, above: Math.max(0, o.energy - r.energy) }));
@@ -214,7 +266,7 @@ function polar(re: number, im: number): { amplitude: number; phase: number } {
 /** The Probe's numbers for a solved state (the ground state of `solve`, or any polished minimum). */
 export function probeOfResult(
   r: SolveResult,
-  saddles: readonly StationaryState[] = [],
+  others: readonly StationaryState[] = [],
 ): ProbeReport {
   const c = r.couplings;
   const nf = c.nf;
@@ -256,7 +308,7 @@ export function probeOfResult(
       gapless,
       unexplained: Math.max(0, r.modes.goldstone - gapless.length),
     },
-    competitors: mergeCompetitors(r, saddles),
+    competitors: mergeCompetitors(r, others),
   };
 }
 
@@ -268,9 +320,15 @@ export function probeOfResult(
 export function probeModel(model: Model, options: MinimiseOptions = DEFAULT_MINIMISE): ProbeReport {
   const c = couplingsOf(model);
   const search = minimiseEnergy(c, options);
-  const others = localMinima(c).filter((m) => m.energy >= search.energy - 1e-9 * c.scale);
-  const result = describeState(model, c, search.frame, [...search.minima, ...others]);
-  return probeOfResult(result, saddlePoints(c));
+  const minima = [
+    ...search.minima.filter((m) => m.converged),
+    ...localMinima(c).filter((m) => m.energy >= search.energy - 1e-9 * c.scale),
+  ];
+  const result = describeState(model, c, search.frame, search.minima);
+  return probeOfResult(result, [
+    ...minima.map((m) => ({ frame: m.frame, energy: m.energy, unstable: 0 })),
+    ...saddlePoints(c),
+  ]);
 }
 
 /** The Probe of a given frame (already a minimum), without a new search. */

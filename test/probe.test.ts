@@ -250,11 +250,17 @@ describe('the Probe of a plane point', () => {
     expect(f!.unstable).toBeGreaterThan(0);
     const nearKd = probeModel(standard(-1, -0.9, 0.1));
     expect(nearKd.competitors[0]).toMatchObject({ phase: 'KD', above: 0 });
-    const cdw = nearKd.competitors.find((c) => c.phase === 'CDW');
-    expect(cdw!.above).toBeCloseTo(-0.9 - -1, 10);
+    const saddle = nearKd.competitors.find((c) => c.phase === 'CDW');
+    expect(saddle!.above).toBeCloseTo(-0.9 - -1, 10);
     // Listed by energy.
     const above = nearKd.competitors.map((c) => c.above);
     expect(above).toEqual([...above].sort((a, b) => a - b));
+    // CDW on the other sublattice: E = 2 uZ_H - uZ_F +- Delta_V, so 2 Delta_V above.
+    const cdw = probeModel(standard(-0.5, -1, 0.1, 0.2));
+    expect(cdw.competitors[0]).toMatchObject({ phase: 'CDW', note: 'charge on A', above: 0 });
+    const other = cdw.competitors.find((c) => c.note === 'charge on B');
+    expect(other).toMatchObject({ phase: 'CDW', unstable: 0, count: 1 });
+    expect(other!.above).toBeCloseTo(2 * 0.2, 10);
   });
 
   test('the lattice SVG is one SVG 1.1 document with a title and no raster', () => {

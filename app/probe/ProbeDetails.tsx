@@ -111,7 +111,8 @@ export function ProbeDetails({ pin, report }: { pin: Pin; report: ProbeReport })
               <tr key={k} data-phase={c.phase} data-above={c.above} data-unstable={c.unstable}>
                 <td>
                   {c.phase}
-                  {c.count > 1 && <span className="probe-family"> (degenerate family)</span>}
+                  {c.note !== '' && <span className="probe-family"> ({c.note})</span>}
+                  {c.count > 1 && <span className="probe-family"> degenerate family</span>}
                 </td>
                 <td>{formatFixed(c.energy, 6)}</td>
                 <td>{k === 0 ? 'ground' : `+${formatFixed(c.above, 6)}`}</td>
