@@ -161,9 +161,9 @@ export function cutFigureSvg(cut: CutResult, options: CutFigureOptions = {}): st
   // Legend of the group curves, under the panels.
   let yLegend = plotsBottom + 4 * font;
   const groups = panels.find((p) => p.key === 'groups')!;
-  // As many columns as the widest entry allows (text width estimated at 0.52 em a character,
-  // common for Helvetica-like faces), at most 2 in a single column figure and 4 in a double.
-  const widest = Math.max(...groups.series.map((s) => 23 + 0.52 * small * s.label.length));
+  // As many columns as the widest entry allows, at most 2 in a single column figure, 4 in a
+  // double.
+  const widest = Math.max(...groups.series.map((s) => 23 + estimateTextWidth(s.label, small)));
   const legendColumns = Math.max(
     1,
     Math.min(options.column === 'double' ? 4 : 2, Math.floor(plotWidth / widest)),
