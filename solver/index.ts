@@ -57,7 +57,6 @@ export {
   type GaplessMode,
 } from './goldstoneModes';
 export {
-  probeFrame,
   probeModel,
   probeOfResult,
   MAX_COMPETITORS,

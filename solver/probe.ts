@@ -330,8 +330,3 @@ export function probeModel(model: Model, options: MinimiseOptions = DEFAULT_MINI
     ...saddlePoints(c),
   ]);
 }
-
-/** The Probe of a given frame (already a minimum), without a new search. */
-export function probeFrame(model: Model, frame: Float64Array): ProbeReport {
-  return probeOfResult(describeState(model, couplingsOf(model), frame));
-}
