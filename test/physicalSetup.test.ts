@@ -23,6 +23,7 @@ import { zeroChannels, type PhysicalSetup, type Setup } from '../app/scenario/se
 import { checkSetup } from '../app/scenario/setupCheck';
 import { readScenarioHash, scenarioHash } from '../app/scenario/urlState';
 import { tiltTrajectory } from '../app/setup/tiltTrajectory';
+import { sampleAt } from '../app/setup/samplePlacement';
 
 const DEG = Math.PI / 180;
 
@@ -214,5 +215,31 @@ describe('tilt path on the Map', () => {
     expect(path.points[path.points.length - 1]![1]).toBeCloseTo(zeemanFormula(8, 80, 2), 12);
     expect(path.points.every((p) => p[0] === s.channels.x0.fock)).toBe(true);
     expect(tiltTrajectory(DEMO_SETUP)).toBeNull();
+  });
+});
+
+describe('the sample at a pinned point', () => {
+  test('puts the tilt path through the pin, exactly, and ends on the ray towards the origin', () => {
+    const physical = {
+      ...toPhysicalUnits(DEMO_SETUP),
+      physical: { ...toPhysicalUnits(DEMO_SETUP).physical!, tiltDeg: 30 },
+    };
+    const placed = derivedSetup({ ...physical, ...sampleAt(physical, -0.7, 0.9) });
+    // The Map's targets at the pin: x0, y0 Fock -0.7 and Hartree 1.2 * -0.7; z0 0.9 and 0.7 * 0.9.
+    expect(placed.channels.x0).toEqual({ hartree: 1.2 * -0.7, fock: -0.7 });
+    expect(placed.channels.y0).toEqual({ hartree: 1.2 * -0.7, fock: -0.7 });
+    expect(placed.channels.z0.fock).toBeCloseTo(0.9, 12);
+    expect(placed.channels.z0.hartree).toBeCloseTo(0.7 * 0.9, 12);
+    const path = tiltTrajectory(placed)!;
+    expect(path.exact).toBe(true);
+    expect(path.current[0]).toBeCloseTo(-0.7, 12);
+    expect(path.current[1]).toBeCloseTo(0.9, 12);
+    // At the largest tilt the point is the pin scaled by cos(theta_max) / cos(theta_now) (model.md section 9).
+    const last = path.points[path.points.length - 1]!;
+    const scale =
+      Math.cos((placed.physical!.tiltMaxDeg * Math.PI) / 180) /
+      Math.cos((placed.physical!.tiltDeg * Math.PI) / 180);
+    expect(last[0]).toBeCloseTo(-0.7 * scale, 12);
+    expect(last[1]).toBeCloseTo(0.9 * scale, 12);
   });
 });

@@ -11,6 +11,7 @@ import type { PhysicalSetup, Setup } from '../scenario/setup';
 import { useFourfold } from '../store/index';
 import { commitSetup } from './commitSetup';
 import { NumberField } from './NumberField';
+import { sampleAt } from './samplePlacement';
 import { tiltTrajectory } from './tiltTrajectory';
 import './units.css';
 
@@ -211,6 +212,8 @@ function DerivedScales({ physical }: { readonly physical: PhysicalSetup }) {
 /** What the tilt path on the Map shows, and whether it is exact. */
 function TiltNote({ setup }: { readonly setup: Setup }) {
   const path = useMemo(() => tiltTrajectory(setup), [setup]);
+  // The selected Probe pin can be taken as the sample whose tilt path is drawn.
+  const pin = useFourfold((s) => s.probe.pins.find((p) => p.id === s.probe.selected));
   const max = setup.physical?.tiltMaxDeg ?? 0;
   let text: string;
   if (path === null) {
@@ -225,9 +228,21 @@ function TiltNote({ setup }: { readonly setup: Setup }) {
     }
   }
   return (
-    <p className="setup-hint" data-testid="tilt-note">
-      {text}
-    </p>
+    <>
+      <p className="setup-hint" data-testid="tilt-note">
+        {text}
+      </p>
+      {path !== null && pin !== undefined && (
+        <button
+          type="button"
+          className="setup-inline-button"
+          data-testid="tilt-sample-at-pin"
+          onClick={() => commitSetup(sampleAt(setup, pin.x, pin.y))}
+        >
+          Put the sample at pin {pin.id}
+        </button>
+      )}
+    </>
   );
 }
 

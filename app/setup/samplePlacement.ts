@@ -1,0 +1,35 @@
+import type { Channel } from '../../solver/index';
+import { axisTargets } from '../scenario/scenario';
+import type { Setup } from '../scenario/setup';
+
+/**
+ * The sample's own values put at the plane point (x, y): every target the axes set takes
+ * coefficient * t there, as the Map does at that point (interfaces.md `map`), so the tilt path
+ * starts from it. E_Z is left alone: in physical units it follows B_perp, the tilt and g.
+ * Returns the changed parts of the setup (channels, Delta_V).
+ */
+export function sampleAt(
+  setup: Setup,
+  x: number,
+  y: number,
+): Pick<Setup, 'channels' | 'valleyZeeman'> {
+  const values = new Map<string, number>();
+  for (const [axis, t] of [
+    [setup.x, x],
+    [setup.y, y],
+  ] as const) {
+    for (const [target, coefficient] of Object.entries(axisTargets(axis, setup))) {
+      values.set(target, (values.get(target) ?? 0) + coefficient * t);
+    }
+  }
+  const channels = { ...setup.channels };
+  let valleyZeeman = setup.valleyZeeman;
+  for (const [target, value] of values) {
+    if (target === 'valleyZeeman') valleyZeeman = value;
+    else if (target !== 'zeeman') {
+      const [ch, part] = target.split('.') as [Channel, 'fock' | 'hartree'];
+      channels[ch] = { ...channels[ch], [part]: value };
+    }
+  }
+  return { channels, valleyZeeman };
+}
