@@ -23,6 +23,12 @@ export interface Crossing {
 /** Order-parameter jump above which a transition counts as first order. */
 export const FIRST_ORDER_JUMP = 1e-2;
 
+/** An order-parameter jump at least this large is first order without a closer look. */
+export const CLEAR_JUMP = 0.3;
+
+/** How much narrower than the tolerance a bracket may get to type an unclear jump. */
+const TYPING_NARROWING = 1e-3;
+
 /** Relative bracket width (of the axis span) at which bisection stops. */
 export const BISECTION_TOLERANCE = 1e-9;
 
@@ -196,10 +202,30 @@ export function bisectTransition(
       probe((lo + hi) / 2);
     }
   }
-  orderOfProjector(projectorOf(frameNear, nf, p), orderNear);
-  orderOfProjector(projectorOf(frameFar, nf, p), orderFar);
-  let jump = 0;
-  for (let k = 1; k < 16; k++) jump = Math.max(jump, Math.abs(orderNear[k]! - orderFar[k]!));
+  const jumpAcross = (): number => {
+    orderOfProjector(projectorOf(frameNear, nf, p), orderNear);
+    orderOfProjector(projectorOf(frameFar, nf, p), orderFar);
+    let largest = 0;
+    for (let k = 1; k < 16; k++) {
+      largest = Math.max(largest, Math.abs(orderNear[k]! - orderFar[k]!));
+    }
+    return largest;
+  };
+  // In mean field a continuous transition's order parameter grows as the square root of the
+  // distance, so across a coarse bracket (the browser's) it can step by more than
+  // FIRST_ORDER_JUMP. A step that is not clearly first order is measured again on a bracket up
+  // to a thousand times narrower: a square-root onset shrinks about thirty-fold there, a
+  // genuine jump stays.
+  let jump = jumpAcross();
+  const fine = tolerance * TYPING_NARROWING;
+  for (
+    let guard = 0;
+    jump > FIRST_ORDER_JUMP && jump < CLEAR_JUMP && hi - lo > fine && guard < 40;
+    guard++
+  ) {
+    probe((lo + hi) / 2);
+    jump = jumpAcross();
+  }
   return {
     t: (lo + hi) / 2,
     order: jump > FIRST_ORDER_JUMP ? 'first' : 'continuous',

@@ -5,7 +5,16 @@ import { join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { describe, expect, test } from 'vitest';
 import { standardPlane } from './fixtures';
-import { computePhaseMap, localStages, parseMapInput, type PhaseMap } from '../solver/index';
+import {
+  bisectTransition,
+  computePhaseMap,
+  couplingsOf,
+  localStages,
+  minimiseEnergy,
+  parseMapInput,
+  parseModel,
+  type PhaseMap,
+} from '../solver/index';
 
 const repoRoot = resolve(fileURLToPath(new URL('.', import.meta.url)), '..');
 
@@ -129,5 +138,34 @@ describe('Map of the standard model', () => {
       return readFileSync(out, 'utf8');
     });
     expect(outputs[1]).toBe(outputs[0]);
+  });
+});
+
+describe('transition typing does not depend on how narrow the final bracket is', () => {
+  test('the continuous F/CAF transition is typed continuous at the browser tolerance too (square-root onset, model.md section 5)', () => {
+    // Standard model uZ = 1, E_Z = 0.6: CAF for uPerp < -E_Z/4 = -0.15, F beyond, with the Neel
+    // order 2 sin(theta) growing as the square root of the distance (model.md section 5). A
+    // bracket of 1e-6 of a 4-wide span (the browser's) still leaves a step of about 0.015 in
+    // the order parameters, above FIRST_ORDER_JUMP; the typing must look closer.
+    const model = (uPerp: number) =>
+      couplingsOf(
+        parseModel({ filling: 0, channels: { x0: uPerp, y0: uPerp, z0: 1 }, zeeman: 0.6 }),
+      );
+    const frameAt = (uPerp: number) => minimiseEnergy(model(uPerp)).frame;
+    for (const [from, to] of [
+      [-0.17, -0.13],
+      [-0.1613, -0.1397],
+      [-0.1555, -0.1444],
+    ] as const) {
+      const located = bisectTransition(
+        (t) => model(from + t * (to - from)),
+        2,
+        { frame: frameAt(from), label: 'CAF' },
+        { frame: frameAt(to), label: 'F' },
+        (1e-6 * 4) / (to - from),
+      );
+      expect(located.order).toBe('continuous');
+      expect(Math.abs(from + located.t * (to - from) - -0.15)).toBeLessThan(1e-5);
+    }
   });
 });
