@@ -186,6 +186,23 @@ describe('the SVG file', () => {
   });
 });
 
+test('a tilt path is drawn through its points with both end angles, and only when given', () => {
+  // A ray towards the origin (model.md section 9): (-1.2, 1.6) scaled by cos(theta) / cos(0).
+  const points = [0, 40, 80].map((deg): [number, number] => {
+    const c = Math.cos((deg * Math.PI) / 180);
+    return [-1.2 * c, 1.6 * c];
+  });
+  const withPath = mapFigureSvg(map, { tiltPath: { points, fromDeg: 0, toDeg: 80, exact: true } });
+  const group = elements(parse(withPath), 'g').find((g) => g.getAttribute('id') === 'tilt-path')!;
+  const d = elements(group, 'path')[0]!.getAttribute('d')!;
+  expect(subpaths(d)[0]).toHaveLength(3);
+  expect(elements(group, 'text').map((t) => t.textContent)).toEqual(['0\u00b0', '80\u00b0']);
+  expect(elements(group, 'path')[0]!.getAttribute('stroke-dasharray')).toBeNull();
+  const guide = mapFigureSvg(map, { tiltPath: { points, fromDeg: 0, toDeg: 80, exact: false } });
+  expect(guide).toMatch(/id="tilt-path"[^]*stroke-dasharray/);
+  expect(svg).not.toContain('tilt-path');
+});
+
 describe('boundaries in the SVG lie on the closed-form lines (model.md section 5)', () => {
   // nu = 0, H = F, Delta_V = 0, energies per flux quantum (model.md section 5, derived there
   // from section 4): E_F = -2 uPerp - uZ - E_Z, E_CDW = uZ, E_KD = uPerp,

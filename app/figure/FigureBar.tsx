@@ -4,7 +4,9 @@ import { useFourfold } from '../store/index';
 import { completeMap } from './completeMap';
 import { downloadBlob } from '../download';
 import { svgToPng } from './download';
-import { mapFigureSvg } from './mapFigure';
+import { tiltTrajectory } from '../setup/tiltTrajectory';
+import type { Setup } from '../scenario/setup';
+import { mapFigureSvg, type FigureTiltPath } from './mapFigure';
 import './figure.css';
 
 /** PNG resolutions offered, pixels per inch (300 and 600 are common journal minimums). */
@@ -16,6 +18,13 @@ const MAX_TITLE = 200;
 function oneLine(error: unknown): string {
   const text = error instanceof Error ? error.message : String(error);
   return text.split('\n', 1)[0]!;
+}
+
+/** The sample's tilt path of a physical setup, as the figure draws it (none otherwise). */
+function figureTiltPath(setup: Setup): FigureTiltPath | undefined {
+  const path = tiltTrajectory(setup);
+  if (path === null || !setup.physical) return undefined;
+  return { points: path.points, fromDeg: 0, toDeg: setup.physical.tiltMaxDeg, exact: path.exact };
 }
 
 /**
@@ -39,7 +48,12 @@ export function FigureBar() {
     if (grid === null) throw new Error('no Map yet');
     return mapFigureSvg(
       { input: grid.input, labels: grid.labels, boundaries: s.map.boundaries },
-      { column, title: title.slice(0, MAX_TITLE), pins: withPins ? s.probe.pins : [] },
+      {
+        column,
+        title: title.slice(0, MAX_TITLE),
+        pins: withPins ? s.probe.pins : [],
+        tiltPath: figureTiltPath(s.setup),
+      },
     );
   };
 

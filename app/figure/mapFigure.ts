@@ -46,6 +46,19 @@ export interface MapFigureOptions {
   readonly title?: string;
   /** Probe points to mark (default none). */
   readonly pins?: readonly FigurePin[];
+  /**
+   * A sample's path as the field tilts (physical units), drawn as a thin line with its end
+   * angles; dotted when it is only a guide (default none).
+   */
+  readonly tiltPath?: FigureTiltPath;
+}
+
+/** A tilt path in axis coordinates, from zero tilt to the largest, with those two angles. */
+export interface FigureTiltPath {
+  readonly points: readonly (readonly [number, number])[];
+  readonly fromDeg: number;
+  readonly toDeg: number;
+  readonly exact: boolean;
 }
 
 /** Stripe width across the stripes of a coexistence region, pt. */
@@ -197,6 +210,28 @@ export function mapFigureSvg(map: FigureMap, options: MapFigureOptions = {}): st
     );
   }
 
+  // Tilt path: a thin line with open ends labelled by their angles.
+  const pathParts: string[] = [];
+  const path = options.tiltPath;
+  if (path && path.points.length >= 2 && path.points.every(([x, y]) => Number.isFinite(x + y))) {
+    const d = `M${path.points.map((p) => `${svgNumber(sx(p[0]))},${svgNumber(sy(p[1]))}`).join('L')}`;
+    const dash = path.exact ? '' : ' stroke-dasharray="0.8 1.6"';
+    pathParts.push(
+      `<path d="${d}" fill="none" stroke="${FIGURE_INK}" stroke-width="${FIGURE_LINE.tick}"${dash}/>`,
+    );
+    for (const [point, deg] of [
+      [path.points[0]!, path.fromDeg],
+      [path.points[path.points.length - 1]!, path.toDeg],
+    ] as const) {
+      const cx = svgNumber(sx(point[0]));
+      const cy = svgNumber(sy(point[1]));
+      pathParts.push(
+        `<circle cx="${cx}" cy="${cy}" r="1.2" fill="#ffffff" stroke="${FIGURE_INK}" stroke-width="${FIGURE_LINE.tick}"/>`,
+        `<text x="${svgNumber(sx(point[0]) + 2)}" y="${svgNumber(sy(point[1]) - 1.6)}" font-size="${small}">${svgNumber(deg)}\u00b0</text>`,
+      );
+    }
+  }
+
   // Axes: numbers and titles left and bottom, mirror ticks top and right.
   const axes = [
     axisSvg(sx, 'bottom', { at: plotY + side, title: ax.label || 'x' }),
@@ -273,6 +308,9 @@ export function mapFigureSvg(map: FigureMap, options: MapFigureOptions = {}): st
     ...boundaryParts,
     '</g>',
   );
+  if (pathParts.length > 0) {
+    body.push('<g id="tilt-path" clip-path="url(#plot-area)">', ...pathParts, '</g>');
+  }
   if (pinParts.length > 0) body.push('<g id="pins">', ...pinParts, '</g>');
   body.push(
     `<rect id="frame" x="${svgNumber(plotX)}" y="${svgNumber(plotY)}" width="${svgNumber(side)}" height="${svgNumber(side)}" fill="none" stroke="${FIGURE_INK}" stroke-width="${FIGURE_LINE.frame}"/>`,
