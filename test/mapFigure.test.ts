@@ -186,7 +186,7 @@ describe('the SVG file', () => {
   });
 });
 
-test('a tilt path is drawn through its points with both end angles, and only when given', () => {
+test('a tilt path is drawn through its points with both end angles, and only when given; axis units', () => {
   // A ray towards the origin (model.md section 9): (-1.2, 1.6) scaled by cos(theta) / cos(0).
   const points = [0, 40, 80].map((deg): [number, number] => {
     const c = Math.cos((deg * Math.PI) / 180);
@@ -201,6 +201,10 @@ test('a tilt path is drawn through its points with both end angles, and only whe
   const guide = mapFigureSvg(map, { tiltPath: { points, fromDeg: 0, toDeg: 80, exact: false } });
   expect(guide).toMatch(/id="tilt-path"[^]*stroke-dasharray/);
   expect(svg).not.toContain('tilt-path');
+  // In physical units both axis titles carry the unit.
+  const inMeV = mapFigureSvg(map, { unit: 'meV' });
+  expect((inMeV.match(/\(meV\)/g) ?? []).length).toBe(2);
+  expect(svg).not.toContain('meV');
 });
 
 describe('boundaries in the SVG lie on the closed-form lines (model.md section 5)', () => {

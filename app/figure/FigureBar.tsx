@@ -53,6 +53,7 @@ export function FigureBar() {
         title: title.slice(0, MAX_TITLE),
         pins: withPins ? s.probe.pins : [],
         tiltPath: figureTiltPath(s.setup),
+        ...(s.setup.physical ? { unit: 'meV' } : {}),
       },
     );
   };

@@ -51,6 +51,8 @@ export interface MapFigureOptions {
    * angles; dotted when it is only a guide (default none).
    */
   readonly tiltPath?: FigureTiltPath;
+  /** Unit of both axes' values, shown after their titles (meV in physical units; default none). */
+  readonly unit?: string;
 }
 
 /** A tilt path in axis coordinates, from zero tilt to the largest, with those two angles. */
@@ -233,9 +235,10 @@ export function mapFigureSvg(map: FigureMap, options: MapFigureOptions = {}): st
   }
 
   // Axes: numbers and titles left and bottom, mirror ticks top and right.
+  const unit = options.unit ? ` (${options.unit})` : '';
   const axes = [
-    axisSvg(sx, 'bottom', { at: plotY + side, title: ax.label || 'x' }),
-    axisSvg(sy, 'left', { at: plotX, title: ay.label || 'y' }),
+    axisSvg(sx, 'bottom', { at: plotY + side, title: `${ax.label || 'x'}${unit}` }),
+    axisSvg(sy, 'left', { at: plotX, title: `${ay.label || 'y'}${unit}` }),
     axisSvg(sx, 'top', { at: plotY, labels: false }),
     axisSvg(sy, 'right', { at: plotX + side, labels: false }),
   ];
