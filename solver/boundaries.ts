@@ -70,11 +70,19 @@ export function joinBoundaries(crossings: readonly Crossing[], nx: number, ny: n
   });
   const out: Boundary[] = [];
   for (const chain of chains) {
+    // A single crossing typed unlike both its neighbours along the chain takes their type: it
+    // sits where the line passes (within rounding) through a pixel centre, whose own state is
+    // then already on the transition and shows no jump; the line's type is its neighbours'.
+    const order = chain.map((k) => crossings[k]!.order);
+    for (let m = 1; m + 1 < chain.length; m++) {
+      if (order[m - 1] === order[m + 1] && order[m] !== order[m - 1]) order[m] = order[m - 1]!;
+    }
+    const orderOf = new Map(chain.map((k, m) => [k, order[m]!]));
     let run: number[] = [chain[0]!];
     const flush = () => {
       const first = crossings[run[0]!]!;
       const [a, b] = pairKey(first).split('|') as [string, string];
-      const firstOrder = run.filter((k) => crossings[k]!.order === 'first').length;
+      const firstOrder = run.filter((k) => orderOf.get(k) === 'first').length;
       out.push({
         between: [a, b],
         order: firstOrder * 2 >= run.length ? 'first' : 'continuous',
@@ -83,7 +91,7 @@ export function joinBoundaries(crossings: readonly Crossing[], nx: number, ny: n
     };
     for (let m = 1; m < chain.length; m++) {
       const k = chain[m]!;
-      if (crossings[k]!.order !== crossings[run[run.length - 1]!]!.order && run.length > 1) {
+      if (orderOf.get(k) !== orderOf.get(run[run.length - 1]!) && run.length > 1) {
         flush();
         run = [run[run.length - 1]!];
       }

@@ -9,10 +9,12 @@ import {
   bisectTransition,
   computePhaseMap,
   couplingsOf,
+  joinBoundaries,
   localStages,
   minimiseEnergy,
   parseMapInput,
   parseModel,
+  type Crossing,
   type PhaseMap,
 } from '../solver/index';
 
@@ -167,5 +169,31 @@ describe('transition typing does not depend on how narrow the final bracket is',
       expect(located.order).toBe('continuous');
       expect(Math.abs(from + located.t * (to - from) - -0.15)).toBeLessThan(1e-5);
     }
+  });
+});
+
+describe('boundary polylines', () => {
+  test('a single crossing typed unlike both neighbours along a line takes their type (no split)', () => {
+    // A 4 x 4 grid with a vertical line between columns 1 and 2: it crosses the horizontal pixel
+    // edges 2 (j nx + 1), j = 0..3. The crossing of row 2 sits on a pixel centre and shows no jump.
+    const nx = 4;
+    const crossings: Crossing[] = [0, 1, 2, 3].map((j) => ({
+      edge: 2 * (j * nx + 1),
+      x: 1.5,
+      y: j,
+      near: 'KD',
+      far: 'CDW',
+      order: j === 2 ? 'continuous' : 'first',
+    }));
+    const joined = joinBoundaries(crossings, nx, 4);
+    expect(joined).toHaveLength(1);
+    expect(joined[0]!.order).toBe('first');
+    expect(joined[0]!.points).toHaveLength(4);
+    // Two neighbouring crossings of the other type are a real change: the chain splits there.
+    const changed = crossings.map((c, j) => ({ ...c, order: j >= 2 ? 'continuous' : c.order }));
+    expect(joinBoundaries(changed as Crossing[], nx, 4).map((b) => b.order)).toEqual([
+      'first',
+      'continuous',
+    ]);
   });
 });
