@@ -1,4 +1,4 @@
-import { ModelError, parseMapInput, type MapInput } from '../solver/index';
+import { ModelError, parseMapInput, type MapInput, errorLine } from '../solver/index';
 import { createMapScheduler } from '../workers/mapClient';
 import { provideSidePool } from './sidePool';
 import type { MapMode, MapScheduler } from '../workers/mapScheduler';
@@ -19,11 +19,6 @@ function afterPaint(then: () => void): void {
 }
 
 type MapPatch = Parameters<FourfoldState['setMap']>[0];
-
-function oneLine(error: unknown): string {
-  const text = error instanceof Error ? error.message : String(error);
-  return text.split('\n', 1)[0]!;
-}
 
 /**
  * Keeps the Map in step with the Setup: every setup change that validates starts a new job (the
@@ -54,8 +49,8 @@ export function startMapDriver(mode: MapMode = 'staged'): () => void {
         .getState()
         .setSetupProblem(
           error instanceof ModelError
-            ? `${oneLine(error)}. The map shows the last valid setup.`
-            : oneLine(error),
+            ? `${errorLine(error)}. The map shows the last valid setup.`
+            : errorLine(error),
         );
       return;
     }
@@ -154,7 +149,7 @@ export function startMapDriver(mode: MapMode = 'staged'): () => void {
       flush();
     })
     .catch((error: unknown) => {
-      store.getState().setMap({ problem: `The map workers could not start: ${oneLine(error)}` });
+      store.getState().setMap({ problem: `The map workers could not start: ${errorLine(error)}` });
     });
 
   return () => {

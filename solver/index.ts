@@ -1,6 +1,7 @@
 export { CHANNELS, channelIndex, channelName, type Channel } from './channels';
 export {
   ModelError,
+  errorLine,
   isPlainObject,
   modelToJson,
   occupiedCount,

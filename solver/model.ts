@@ -24,6 +24,12 @@ export interface Model {
   readonly exchange: number | undefined;
 }
 
+/** The first line of an error's message (or of its text), for a one-line report. */
+export function errorLine(error: unknown): string {
+  const text = error instanceof Error ? error.message : String(error);
+  return text.split('\n', 1)[0]!;
+}
+
 /** A bad input; the message is one line that names the offending field. */
 export class ModelError extends Error {
   constructor(message: string) {

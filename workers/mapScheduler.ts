@@ -7,6 +7,7 @@ import {
   type CellRange,
   type Crossing,
   type MapInput,
+  errorLine,
 } from '../solver/index';
 import type { AsyncMapStages } from './mapStages';
 import { CancelledError, type WorkerPool } from './workerPool';
@@ -45,11 +46,6 @@ const ROWS_PER_TASK = 2;
  */
 export const LIVE_BISECTION_TOLERANCE = 1e-6;
 
-function message(error: unknown): string {
-  const text = error instanceof Error ? error.message : String(error);
-  return text.split('\n', 1)[0]!;
-}
-
 /**
  * Tiles the plane over a worker pool, progressively: (1) every second coarse node, a full
  * search each, shown at once as the first coarse frame; (2) the other coarse nodes; (3) tiles of
@@ -85,7 +81,7 @@ export class MapScheduler {
       mode === 'cold' ? this.cold(job, input, json, events) : this.staged(job, input, json, events);
     run.catch((error: unknown) => {
       if (error instanceof CancelledError || job !== this.job) return;
-      events.problem(`The map could not be finished: ${message(error)}`);
+      events.problem(`The map could not be finished: ${errorLine(error)}`);
     });
     return job;
   }
@@ -200,7 +196,7 @@ export class MapScheduler {
         await work();
       } catch (error) {
         if (error instanceof CancelledError) throw error;
-        failures.push(message(error));
+        failures.push(errorLine(error));
       }
     };
     await Promise.all(
@@ -259,7 +255,7 @@ export class MapScheduler {
             if (!this.stale(job)) crossings.push(...found);
           } catch (error) {
             if (error instanceof CancelledError) throw error;
-            failures.push(message(error));
+            failures.push(errorLine(error));
           }
         },
       ),

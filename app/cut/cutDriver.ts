@@ -1,4 +1,4 @@
-import { checkCut, parseMapInput, type CutPath } from '../../solver/index';
+import { checkCut, parseMapInput, type CutPath, errorLine } from '../../solver/index';
 import { setupToScenario } from '../scenario/scenario';
 import { runSideTask } from '../sidePool';
 import { useFourfold } from '../store/index';
@@ -9,11 +9,6 @@ export const MARK_CUT = 'fourfold:cut';
 
 /** A burst of changes (typing, a slider drag) starts one Cut after this quiet time, ms. */
 const QUIET_MS = 120;
-
-function oneLine(error: unknown): string {
-  const text = error instanceof Error ? error.message : String(error);
-  return text.split('\n', 1)[0]!;
-}
 
 /**
  * Keeps the Cut in step with its definition and the Setup: each change (after a short quiet
@@ -43,7 +38,7 @@ export function startCutDriver(): () => void {
       checkCut(input, path, cut.n);
       json = JSON.stringify(scenario);
     } catch (error) {
-      setCutRun({ status: 'failed', problem: `${oneLine(error)}. The last Cut stays.` });
+      setCutRun({ status: 'failed', problem: `${errorLine(error)}. The last Cut stays.` });
       return;
     }
     const n = cut.n;
@@ -60,7 +55,7 @@ export function startCutDriver(): () => void {
       },
       (error: unknown) => {
         if (id !== request) return;
-        setCutRun({ status: 'failed', problem: `The Cut failed: ${oneLine(error)}` });
+        setCutRun({ status: 'failed', problem: `The Cut failed: ${errorLine(error)}` });
       },
     );
   };

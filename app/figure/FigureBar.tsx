@@ -1,5 +1,5 @@
 import { useState } from 'react';
-import { mapToCsv, mapToJson } from '../../solver/index';
+import { mapToCsv, mapToJson, errorLine } from '../../solver/index';
 import { useFourfold } from '../store/index';
 import { completeMap } from './completeMap';
 import { downloadBlob } from '../download';
@@ -14,11 +14,6 @@ const DPI_CHOICES = [150, 300, 600] as const;
 
 /** Longest title accepted, characters. */
 const MAX_TITLE = 200;
-
-function oneLine(error: unknown): string {
-  const text = error instanceof Error ? error.message : String(error);
-  return text.split('\n', 1)[0]!;
-}
 
 /** The sample's tilt path of a physical setup, as the figure draws it (none otherwise). */
 function figureTiltPath(setup: Setup): FigureTiltPath | undefined {
@@ -64,7 +59,7 @@ export function FigureBar() {
     try {
       await task();
     } catch (error) {
-      setMessage(`${what} export failed: ${oneLine(error)}`);
+      setMessage(`${what} export failed: ${errorLine(error)}`);
     } finally {
       setBusy(null);
     }

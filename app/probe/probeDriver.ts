@@ -1,11 +1,7 @@
+import { errorLine } from '../../solver/index';
 import { setupToMapInput, setupToScenario } from '../scenario/scenario';
 import { runSideTask } from '../sidePool';
 import { useFourfold, type FourfoldState } from '../store/index';
-
-function oneLine(error: unknown): string {
-  const text = error instanceof Error ? error.message : String(error);
-  return text.split('\n', 1)[0]!;
-}
 
 /**
  * Keeps every pin's Probe in step with the Setup: a pin whose point or setup changed is solved
@@ -42,7 +38,7 @@ export function startProbeDriver(): () => void {
             store.getState().setProbeEntry(pin.id, {
               key,
               status: 'failed',
-              message: `The Probe could not be computed: ${oneLine(error)}`,
+              message: `The Probe could not be computed: ${errorLine(error)}`,
             });
           }
         });

@@ -1,5 +1,5 @@
 import type { ChangeEvent } from 'react';
-import { ModelError } from '../../solver/index';
+import { ModelError, errorLine } from '../../solver/index';
 import { useFourfold } from '../store/index';
 import { DEMO_SETUP } from './demo';
 import { SCENARIO_FILE_MAX_BYTES, downloadScenarioFile, parseScenarioFile } from './scenarioFile';
@@ -7,11 +7,6 @@ import { pinsOfScenarioText } from './scenarioPins';
 import { fitSetupToApp } from './setupCheck';
 import { scenarioHash } from './urlState';
 import './scenarioBar.css';
-
-function oneLine(error: unknown): string {
-  const text = error instanceof Error ? error.message : String(error);
-  return text.split('\n', 1)[0] ?? text;
-}
 
 async function loadScenarioFile(file: File): Promise<void> {
   const { setNotice, replaceSetup, replacePins } = useFourfold.getState();
@@ -26,7 +21,7 @@ async function loadScenarioFile(file: File): Promise<void> {
   try {
     text = await file.text();
   } catch (error) {
-    setNotice({ kind: 'error', text: `${file.name}: could not be read (${oneLine(error)})` });
+    setNotice({ kind: 'error', text: `${file.name}: could not be read (${errorLine(error)})` });
     return;
   }
   try {

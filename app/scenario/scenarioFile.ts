@@ -1,4 +1,4 @@
-import { ModelError, SOFTWARE_VERSION, isPlainObject } from '../../solver/index';
+import { ModelError, SOFTWARE_VERSION, errorLine, isPlainObject } from '../../solver/index';
 import { scenarioToSetup, setupToScenario } from './scenario';
 import type { Setup } from './setup';
 import { downloadText } from '../download';
@@ -32,8 +32,7 @@ export function parseScenarioFile(text: string, source: string): Setup {
   try {
     json = JSON.parse(text);
   } catch (error) {
-    const reason = error instanceof Error ? error.message.split('\n', 1)[0] : String(error);
-    throw new ModelError(`${source}: not valid JSON (${reason})`);
+    throw new ModelError(`${source}: not valid JSON (${errorLine(error)})`);
   }
   try {
     return scenarioToSetup(json);

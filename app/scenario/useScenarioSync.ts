@@ -1,5 +1,5 @@
 import { useEffect } from 'react';
-import { ModelError } from '../../solver/index';
+import { ModelError, errorLine } from '../../solver/index';
 import { useFourfold } from '../store/index';
 import type { Pin } from '../store/probeSlice';
 import { setupToScenario } from './scenario';
@@ -16,11 +16,6 @@ function sameScenario(a: Setup, b: Setup): boolean {
 
 function samePins(a: readonly Pin[], b: readonly Pin[]): boolean {
   return a.length === b.length && a.every((p, k) => p.x === b[k]!.x && p.y === b[k]!.y);
-}
-
-function messageOf(error: unknown): string {
-  const text = error instanceof Error ? error.message : String(error);
-  return text.split('\n', 1)[0] ?? text;
 }
 
 /**
@@ -52,7 +47,7 @@ export function useScenarioSync(): void {
       try {
         link = readScenarioLink(window.location.hash);
       } catch (error) {
-        const text = error instanceof ModelError ? error.message : messageOf(error);
+        const text = error instanceof ModelError ? error.message : errorLine(error);
         store.getState().setNotice({ kind: 'error', text: `${text}. The setup is unchanged.` });
         return false;
       }
