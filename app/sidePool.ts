@@ -6,6 +6,12 @@ import type { WorkerPool } from '../workers/workerPool';
  * new Map job never cancels them.
  */
 export const SIDE_JOB = Number.MAX_SAFE_INTEGER;
+/**
+ * Quiet time after a burst of setup changes (typing, a slider drag) before side tasks follow it,
+ * ms: they queue ahead of the Map's stages, so they must not be sent for every step of a drag.
+ */
+export const SIDE_TASK_QUIET_MS = 120;
+
 /** Queue priority of side tasks: ahead of every Map stage, since the user is waiting on them. */
 export const SIDE_PRIORITY = -1;
 

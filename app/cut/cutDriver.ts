@@ -1,14 +1,11 @@
 import { checkCut, parseMapInput, type CutPath, errorLine } from '../../solver/index';
 import { setupToScenario } from '../scenario/scenario';
-import { runSideTask } from '../sidePool';
+import { SIDE_TASK_QUIET_MS, runSideTask } from '../sidePool';
 import { useFourfold } from '../store/index';
 import { cutPathOf } from './cutPath';
 
 /** Performance-timeline name of a finished Cut (request to result on screen). */
 export const MARK_CUT = 'fourfold:cut';
-
-/** A burst of changes (typing, a slider drag) starts one Cut after this quiet time, ms. */
-const QUIET_MS = 120;
 
 /**
  * Keeps the Cut in step with its definition and the Setup: each change (after a short quiet
@@ -62,7 +59,7 @@ export function startCutDriver(): () => void {
 
   const schedule = (): void => {
     if (timer !== undefined) clearTimeout(timer);
-    timer = setTimeout(run, QUIET_MS);
+    timer = setTimeout(run, SIDE_TASK_QUIET_MS);
   };
 
   const unsubscribe = store.subscribe((state, previous) => {

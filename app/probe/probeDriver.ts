@@ -1,12 +1,12 @@
-import { errorLine } from '../../solver/index';
-import { setupToMapInput, setupToScenario } from '../scenario/scenario';
-import { runSideTask } from '../sidePool';
+import { errorLine, parseMapInput } from '../../solver/index';
+import { setupToScenario } from '../scenario/scenario';
+import { SIDE_TASK_QUIET_MS, runSideTask } from '../sidePool';
 import { useFourfold, type FourfoldState } from '../store/index';
 
 /**
  * Keeps every pin's Probe in step with the Setup: a pin whose point or setup changed is solved
- * again on the Map's worker pool (the selected pin first); a result for a setup or point that
- * has changed since it was asked for is dropped. Returns a function that stops the driver.
+ * again on the Map's worker pool (the selected pin first), a setup change after a short quiet
+ * time; a result for a setup or point that has changed since it was asked for is dropped. Returns a function that stops the driver.
  */
 export function startProbeDriver(): () => void {
   const store = useFourfold;
@@ -17,8 +17,9 @@ export function startProbeDriver(): () => void {
     if (pins.length === 0) return;
     let json: string;
     try {
-      setupToMapInput(state.setup);
-      json = JSON.stringify(setupToScenario(state.setup));
+      const scenario = setupToScenario(state.setup);
+      parseMapInput(scenario);
+      json = JSON.stringify(scenario);
     } catch {
       // The setup does not validate: the Setup panel says why; pins keep their last Probe.
       return;
@@ -45,14 +46,23 @@ export function startProbeDriver(): () => void {
     }
   };
 
+  // A new pin is solved at once; a setup change (a slider drag) waits for a quiet moment, so the
+  // Probes do not queue ahead of every coarse Map frame of the drag.
+  let timer: ReturnType<typeof setTimeout> | undefined;
   const unsubscribe = store.subscribe((state, previous) => {
-    if (state.setup !== previous.setup || state.probe.pins !== previous.probe.pins) {
+    if (state.probe.pins !== previous.probe.pins) {
+      clearTimeout(timer);
+      timer = undefined;
       refresh(state);
+    } else if (state.setup !== previous.setup) {
+      clearTimeout(timer);
+      timer = setTimeout(() => refresh(store.getState()), SIDE_TASK_QUIET_MS);
     }
   });
   refresh(store.getState());
   return () => {
     stopped = true;
+    clearTimeout(timer);
     unsubscribe();
   };
 }
