@@ -3,6 +3,23 @@ import { axisTargets } from '../scenario/scenario';
 import type { Setup } from '../scenario/setup';
 
 /**
+ * The value every target of the plane takes at the point (x, y): coefficient * t, summed over
+ * the axes that name it (interfaces.md `map`).
+ */
+export function targetValuesAt(setup: Setup, x: number, y: number): Map<string, number> {
+  const values = new Map<string, number>();
+  for (const [axis, t] of [
+    [setup.x, x],
+    [setup.y, y],
+  ] as const) {
+    for (const [target, coefficient] of Object.entries(axisTargets(axis, setup))) {
+      values.set(target, (values.get(target) ?? 0) + coefficient * t);
+    }
+  }
+  return values;
+}
+
+/**
  * The sample's own values put at the plane point (x, y): every target the axes set takes
  * coefficient * t there, as the Map does at that point (interfaces.md `map`), so the tilt path
  * starts from it. E_Z is left alone: in physical units it follows B_perp, the tilt and g.
@@ -13,18 +30,9 @@ export function sampleAt(
   x: number,
   y: number,
 ): Pick<Setup, 'channels' | 'valleyZeeman'> {
-  const values = new Map<string, number>();
-  for (const [axis, t] of [
-    [setup.x, x],
-    [setup.y, y],
-  ] as const) {
-    for (const [target, coefficient] of Object.entries(axisTargets(axis, setup))) {
-      values.set(target, (values.get(target) ?? 0) + coefficient * t);
-    }
-  }
   const channels = { ...setup.channels };
   let valleyZeeman = setup.valleyZeeman;
-  for (const [target, value] of values) {
+  for (const [target, value] of targetValuesAt(setup, x, y)) {
     if (target === 'valleyZeeman') valleyZeeman = value;
     else if (target !== 'zeeman') {
       const [ch, part] = target.split('.') as [Channel, 'fock' | 'hartree'];

@@ -1,7 +1,7 @@
 import { CHANNELS, type Channel } from '../../solver/index';
-import { axisTargets } from '../scenario/scenario';
 import { zeemanAtTilt } from '../scenario/physical';
 import type { AxisSetup, Setup } from '../scenario/setup';
+import { targetValuesAt } from './samplePlacement';
 import { axisTargetNames } from './sweep';
 
 /** A sample's path on the Map as the field tilts at fixed B_perp, in the plane's coordinates. */
@@ -53,16 +53,7 @@ function sampleTarget(setup: Setup, target: string): number {
  * puts the sample beside the plane).
  */
 function sampleInPlane(setup: Setup, xs: number, ys: number): boolean {
-  const expected = new Map<string, number>();
-  for (const [axis, t] of [
-    [setup.x, xs],
-    [setup.y, ys],
-  ] as const) {
-    for (const [target, coefficient] of Object.entries(axisTargets(axis, setup))) {
-      expected.set(target, (expected.get(target) ?? 0) + coefficient * t);
-    }
-  }
-  for (const [target, value] of expected) {
+  for (const [target, value] of targetValuesAt(setup, xs, ys)) {
     const own = sampleTarget(setup, target);
     if (Math.abs(own - value) > 1e-9 * Math.max(1, Math.abs(own))) return false;
   }
