@@ -151,7 +151,17 @@ function mergeCompetitors(r: SolveResult, others: readonly StationaryState[]): C
   const c = r.couplings;
   const tol = 1e-9 * c.scale;
   const symmetry = modelSymmetry(c);
-  const ground = invariantsOf(r.order);
+  // Many descents land on the same state (or on the ground state): count each state once.
+  const seen = [{ energy: r.energy, invariants: invariantsOf(r.order) }];
+  const isNew = (m: { energy: number; invariants: number[] }): boolean => {
+    const known = seen.some(
+      (o) =>
+        Math.abs(o.energy - m.energy) <= tol &&
+        o.invariants.every((x, q) => Math.abs(x - m.invariants[q]!) <= 1e-6),
+    );
+    if (!known) seen.push(m);
+    return !known;
+  };
   const labelled = others
     .map((s) => {
       const order = orderOfProjector(
@@ -167,21 +177,7 @@ function mergeCompetitors(r: SolveResult, others: readonly StationaryState[]): C
       };
     })
     .sort((a, b) => a.energy - b.energy)
-    // Many descents land on the same state: count each state once.
-    .filter(
-      (m, k, all) =>
-        !all
-          .slice(0, k)
-          .some(
-            (o) =>
-              Math.abs(o.energy - m.energy) <= tol &&
-              o.invariants.every((x, q) => Math.abs(x - m.invariants[q]!) <= 1e-6),
-          ) &&
-        !(
-          Math.abs(m.energy - r.energy) <= tol &&
-          m.invariants.every((x, q) => Math.abs(x - ground[q]!) <= 1e-6)
-        ),
-    );
+    .filter(isNew);
   const out: { phase: string; note: string; energy: number; count: number; unstable: number }[] = [
     {
       phase: r.phase,
