@@ -137,8 +137,9 @@ function trackOf(input: MapInput, path: CutPath): Track {
     [x0, y0, x1, y1].forEach((v, k) => finite(v, `cut.${['x0', 'y0', 'x1', 'y1'][k]}`));
     if (x0 === x1 && y0 === y1) throw new ModelError('cut: the end points coincide');
     const planeCouplings = new PlaneCouplings(input);
-    const start = new PlaneCouplings(input);
-    const end = new PlaneCouplings(input);
+    // Each PlaneCouplings overwrites one result object: the end points keep their own.
+    const start = new PlaneCouplings(input).at(x0, y0);
+    const end = new PlaneCouplings(input).at(x1, y1);
     const span = path.kind === 'line' ? 1 : path.to - path.from;
     const axis =
       path.kind === 'line'
@@ -151,8 +152,7 @@ function trackOf(input: MapInput, path: CutPath): Track {
       s: (t) => (path.kind === 'line' ? t : (1 - t) * path.from + t * path.to),
       // The couplings are linear in t, so at fixed P the energy is too: its slope is the
       // difference of the end values.
-      slope: (_t, o) =>
-        (energyOfOrder(end.at(x1, y1), o) - energyOfOrder(start.at(x0, y0), o)) / span,
+      slope: (_t, o) => (energyOfOrder(end, o) - energyOfOrder(start, o)) / span,
       axis,
     };
   }
