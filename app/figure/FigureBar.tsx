@@ -2,7 +2,7 @@ import { useState } from 'react';
 import { mapToCsv, mapToJson, errorLine } from '../../solver/index';
 import { useFourfold } from '../store/index';
 import { completeMap } from './completeMap';
-import { downloadBlob } from '../download';
+import { downloadBlob, downloadText } from '../download';
 import { svgToPng } from './download';
 import { tiltTrajectory } from '../setup/tiltTrajectory';
 import type { Setup } from '../scenario/setup';
@@ -66,9 +66,7 @@ export function FigureBar() {
   };
 
   const exportSvg = () =>
-    run('SVG', () =>
-      downloadBlob('fourfold-map.svg', new Blob([figure()], { type: 'image/svg+xml' })),
-    );
+    run('SVG', () => downloadText('fourfold-map.svg', figure(), 'image/svg+xml'));
   const exportPng = () =>
     run('PNG', async () => downloadBlob('fourfold-map.png', await svgToPng(figure(), dpi)));
   const exportData = (format: 'csv' | 'json') =>
@@ -85,9 +83,10 @@ export function FigureBar() {
         () => useFourfold.getState().map.job === job && useFourfold.getState().map.grid === grid,
       );
       const text = format === 'csv' ? mapToCsv(map) : JSON.stringify(mapToJson(map));
-      downloadBlob(
+      downloadText(
         `fourfold-map.${format}`,
-        new Blob([text], { type: format === 'csv' ? 'text/csv' : 'application/json' }),
+        text,
+        format === 'csv' ? 'text/csv' : 'application/json',
       );
     });
 
