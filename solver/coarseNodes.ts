@@ -1,6 +1,7 @@
 import { DEFAULT_DESCENT, descend } from './localMinimise';
 import { DescentWorkspace } from './tangentSpace';
-import { DEFAULT_MINIMISE, minimiseEnergy, type MinimiseOptions } from './minimise';
+import { DEFAULT_MINIMISE, type MinimiseOptions } from './minimise';
+import { searchGroundState } from './groundSearch';
 import { PixelScratch, summarise } from './stateSummary';
 import { axisValue, PlaneCouplings, type MapInput } from './plane';
 
@@ -18,15 +19,10 @@ import { axisValue, PlaneCouplings, type MapInput } from './plane';
  */
 
 /**
- * Search at coarse nodes: lighter than a single point's DEFAULT_MINIMISE, because every pixel
- * then compares the states of its four corner nodes, so a node that missed the global minimum
- * is outvoted wherever a neighbour found it.
+ * Search at coarse nodes: the search of a single point (`solve`), so that every node is the
+ * single-point ground state and the pixels continued from the nodes start from it.
  */
-export const COARSE_SEARCH: MinimiseOptions = {
-  ...DEFAULT_MINIMISE,
-  rankedStarts: 4,
-  rankedStartsOddFilling: 4,
-};
+export const COARSE_SEARCH: MinimiseOptions = DEFAULT_MINIMISE;
 
 /** Coarse node spacing: about 32 nodes along the longer side, at least every 2nd pixel. */
 export function coarseStride(nx: number, ny: number): number {
@@ -112,7 +108,7 @@ export function solveCoarseNodes(
     );
     // Polished to the last bit: pixels start from these frames and finish in fewer steps.
     const warmStarts = warm ? [warm.subarray(32 * n, 32 * n + 32)] : undefined;
-    const frame = minimiseEnergy(c, search, { warmStarts }).frame;
+    const frame = searchGroundState(c, search, { warmStarts }).frame;
     descend(c, frame, DEFAULT_DESCENT, ws);
     block.frames.set(frame, 32 * n);
     const summary = summarise(c, frame, nf, scratch);

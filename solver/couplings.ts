@@ -98,7 +98,7 @@ export function couplingsOf(model: Model): Couplings {
 }
 
 /** Energy per flux quantum (model.md section 4, without the Coulomb constant) from o_ab. */
-export function energyOfOrder(c: Couplings, order: Float64Array): number {
+export function energyOfOrder(c: Couplings, order: ArrayLike<number>): number {
   let e = c.c0 + c.eta[0]! * c.nf;
   for (let k = 1; k < MATRIX_COUNT; k++) {
     const o = order[k]!;

@@ -6,7 +6,6 @@ import { presentGroupCount } from './orderParameters';
 import { ORDER_TOLERANCE, phaseLabel } from './phaseLabel';
 import { axisValue, PlaneCouplings, type MapInput } from './plane';
 import { orderOfProjector, projectorOf } from './state';
-import { modelSymmetry } from './symmetry';
 
 /** A located transition on one pixel edge. */
 export interface Crossing {
@@ -167,7 +166,7 @@ export function bisectTransition(
       }).frame;
     }
     orderOfProjector(projectorOf(frame, nf, p), orderNear);
-    let label = phaseLabel(orderNear, c, modelSymmetry(c));
+    let label = phaseLabel(orderNear, c);
     if (label !== near && label !== far) {
       // Within rounding of a line where the two end states are degenerate (for H = F,
       // uZ = uPerp joins KD and CDW by a valley rotation) a descent may stop part-way along

@@ -3,7 +3,8 @@ import { collectiveModes, type CollectiveModes } from './collectiveModes';
 import { hermitianEigen4 } from './linalg';
 import { DEFAULT_DESCENT, descend } from './localMinimise';
 import { DescentWorkspace } from './tangentSpace';
-import { DEFAULT_MINIMISE, minimiseEnergy, type MinimiseOptions } from './minimise';
+import { DEFAULT_MINIMISE, type MinimiseOptions } from './minimise';
+import { searchGroundState } from './groundSearch';
 import type { Model } from './model';
 import { canonicaliseOrbit } from './orbitGauge';
 import { groupMagnitudes } from './orderParameters';
@@ -55,7 +56,7 @@ export interface SolveResult {
 /** Solves one model: global minimum, then every derived quantity. */
 export function solve(model: Model, options: MinimiseOptions = DEFAULT_MINIMISE): SolveResult {
   const c = couplingsOf(model);
-  const search = minimiseEnergy(c, options);
+  const search = searchGroundState(c, options);
   return describeState(model, c, search.frame, search.minima);
 }
 
@@ -105,7 +106,7 @@ export function describeState(
   // eps_(Nf+1) - eps_(Nf) when the Aufbau principle holds; negative when it does not.
   const gap = Math.min(...emptyLevels) - Math.max(...occupiedLevels) + c.exchange;
   const modes = collectiveModes(c, frame);
-  const phase = phaseLabel(order, c, symmetry);
+  const phase = phaseLabel(order, c);
   const competitors = distinctMinima(c, symmetry, [{ frame, energy }, ...minima]);
   return {
     model,
@@ -170,7 +171,7 @@ function distinctMinima(
         Math.abs(o.energy - m.energy) <= 1e-9 * c.scale &&
         o.groups.every((g, i) => Math.abs(g - groups[i]!) <= 1e-6),
     );
-    if (!same) out.push({ energy: m.energy, phase: phaseLabel(order, c, symmetry), groups });
+    if (!same) out.push({ energy: m.energy, phase: phaseLabel(order, c), groups });
   }
   return out.map(({ energy, phase }) => ({ energy, phase }));
 }

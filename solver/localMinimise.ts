@@ -56,6 +56,13 @@ export interface DescentResult {
 const MAX_STEP = 1;
 /** A Newton step shorter than this (tangent norm) is taken as inside the quadratic regime. */
 const SHORT_STEP = 0.05;
+/**
+ * A gradient below this (relative to the coupling scale) is rounding noise: the Hartree-Fock
+ * matrix holds terms of the size of the scale, so its elements carry errors of a few 1e-16 of
+ * it. A Newton step on such a gradient along a flat direction (a degenerate family) would only
+ * move the state at random, so a descent stops there.
+ */
+const GRADIENT_NOISE = 1e-14;
 /** Order parameters within this (max norm) of a known minimum, in its quadratic regime. */
 const SAME_BASIN = 1e-2;
 
@@ -94,7 +101,7 @@ export function descend(
       if (choleskySolve(k, d, 1e-11 * scale, g, z, ws.chol, 0)) {
         // Extra Newton steps cost little and clear the slow residual of soft modes near a
         // continuous transition (gradient / curvature), which would otherwise blur labels.
-        if (polished >= options.polishSteps || gmax <= 1e-15 * scale) {
+        if (polished >= options.polishSteps || gmax <= GRADIENT_NOISE * scale) {
           return {
             energy,
             gradient: gmax,

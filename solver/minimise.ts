@@ -74,11 +74,16 @@ export const SEARCH_TOLERANCE = 1e-10;
 let sharedWorkspace: DescentWorkspace | undefined;
 
 const seedEnergies = new Float64Array(1024);
+const exactEnergies = new Float64Array(1024);
 const scratchFrame = new Float64Array(32);
 
+/** Seed ranking used by the experiments (temporary). */
+export const RANKING = { mode: (process.env.RANK ?? 'both') as 'exact' | 'nudged' | 'both' };
+
 /**
- * Indices of the `plain` lowest-energy library seeds that are not of kind `rotated`, then of the
- * `rotated` lowest-energy ones that are; each group lowest first, ties by index.
+ * Indices of library seeds to descend from: the `plain` lowest-energy seeds that are not of kind
+ * `rotated`, then the `rotated` lowest-energy ones that are; ranked by the energy of the exact
+ * symmetric states and by that of the nudged frames, ties by index.
  */
 function lowestSeeds(
   c: Couplings,
@@ -87,28 +92,32 @@ function lowestSeeds(
   rotated: number,
 ): number[] {
   const n = library.length;
-  for (let i = 0; i < n; i++) seedEnergies[i] = energyOfOrder(c, library[i]!.order);
-  const pick = (count: number, wantRotated: boolean, out: number[]): void => {
-    const first = out.length;
-    for (let picked = 0; picked < count; picked++) {
+  for (let i = 0; i < n; i++) {
+    seedEnergies[i] = energyOfOrder(c, library[i]!.order);
+    exactEnergies[i] = energyOfOrder(c, library[i]!.exactOrder);
+  }
+  const out: number[] = [];
+  const pick = (energies: Float64Array, count: number, wantRotated: boolean): void => {
+    for (let picked = 0; picked < count;) {
       let best = -1;
       let bestEnergy = Infinity;
       for (let i = 0; i < n; i++) {
-        const e = seedEnergies[i]!;
+        const e = energies[i]!;
         if (e >= bestEnergy || (library[i]!.kind === 'rotated') !== wantRotated) continue;
-        let taken = false;
-        for (let k = first; k < out.length; k++) if (out[k] === i) taken = true;
-        if (taken) continue;
+        if (out.includes(i)) continue;
         best = i;
         bestEnergy = e;
       }
       if (best < 0) return;
       out.push(best);
+      picked++;
     }
   };
-  const out: number[] = [];
-  pick(plain, false, out);
-  pick(rotated, true, out);
+  const mode = RANKING.mode;
+  if (mode !== 'nudged') pick(exactEnergies, plain, false);
+  if (mode !== 'exact') pick(seedEnergies, plain, false);
+  if (mode !== 'nudged') pick(exactEnergies, rotated, true);
+  if (mode !== 'exact') pick(seedEnergies, rotated, true);
   return out;
 }
 

@@ -1,6 +1,5 @@
 import type { Couplings } from './couplings';
 import { ORDER_GROUPS, groupMagnitudes, type OrderGroupKey } from './orderParameters';
-import type { ModelSymmetry } from './symmetry';
 
 /**
  * Order parameters below this magnitude count as zero when naming a phase (o_ab = tr(G_ab P)
@@ -48,19 +47,18 @@ function channelSlot(name: string): number {
 /**
  * Phase label from the computed state only (model.md section 6): the nonzero order-parameter
  * groups, in the fixed order of ORDER_GROUPS, joined by '+' (at odd filling, a product spinor is
- * named by its valley and spin factors instead). Groups that the one-body terms
- * induce are named only when nothing else is broken. With full spin SU(2) the spin groups merge
- * (any moment is F, any Neel vector AF, both together CAF).
+ * named by its valley and spin factors instead). Groups that the one-body terms induce are left
+ * out only when something else is broken. Where the model leaves a family of states degenerate
+ * (a spin-isotropic model without a field, say), the solver reports the member that vanishing
+ * fields select (degeneracy.ts), and the label names that member: a Neel state without a field
+ * is named as in an infinitesimal field along the field axis (CAF), not by a merged name, so the
+ * label does not change at E_Z = 0.
  */
-export function phaseLabel(
-  order: ArrayLike<number>,
-  c: Couplings,
-  symmetry: ModelSymmetry,
-): string {
-  if (c.nf % 2 === 1) return composeLabel(order, c, symmetry);
-  // At even filling the label depends only on which groups are present, which are induced and
-  // whether spin is isotropic: memoise on those bits (the Map calls this once per pixel).
-  let key = symmetry.spinIsotropic ? 1 << 16 : 0;
+export function phaseLabel(order: ArrayLike<number>, c: Couplings): string {
+  if (c.nf % 2 === 1) return composeLabel(order, c);
+  // At even filling the label depends only on which groups are present and which are induced:
+  // memoise on those bits (the Map calls this once per pixel).
+  let key = 0;
   for (let g = 0; g < GROUP_INDICES.length; g++) {
     let sum = 0;
     let field = false;
@@ -74,7 +72,7 @@ export function phaseLabel(
   if (c.eta[3] !== 0 && c.eta[12] !== 0) key |= 1 << (8 + NEEL_ALONG_FIELD);
   let label = labelMemo.get(key);
   if (label === undefined) {
-    label = composeLabel(order, c, symmetry);
+    label = composeLabel(order, c);
     labelMemo.set(key, label);
   }
   return label;
@@ -84,10 +82,10 @@ const GROUP_INDICES = ORDER_GROUPS.map((g) => g.channels.map(channelSlot));
 const NEEL_ALONG_FIELD = ORDER_GROUPS.findIndex((g) => g.key === 'neelAlongField');
 const labelMemo = new Map<number, string>();
 
-function composeLabel(order: ArrayLike<number>, c: Couplings, symmetry: ModelSymmetry): string {
+function composeLabel(order: ArrayLike<number>, c: Couplings): string {
   const induced = inducedGroups(c);
   if (c.nf % 2 === 1) {
-    const product = productStateLabel(order, c.nf, induced, symmetry);
+    const product = productStateLabel(order, c.nf, induced);
     if (product !== undefined) return product;
   }
   const magnitudes = groupMagnitudes(order);
@@ -95,32 +93,9 @@ function composeLabel(order: ArrayLike<number>, c: Couplings, symmetry: ModelSym
   ORDER_GROUPS.forEach((g, i) => {
     if (magnitudes[i]! > ORDER_TOLERANCE) present.push({ key: g.key, token: g.token });
   });
-  let named = present;
-  if (symmetry.spinIsotropic) {
-    const has = (k: OrderGroupKey): boolean => present.some((p) => p.key === k);
-    const moment = has('spinAlongField') || has('spinInPlane');
-    const neel = has('neelAlongField') || has('neelInPlane');
-    named = [];
-    if (moment && neel) named.push({ key: 'neelInPlane', token: 'CAF' });
-    else if (moment) named.push({ key: 'spinAlongField', token: 'F' });
-    else if (neel) named.push({ key: 'neelAlongField', token: 'AF' });
-    for (const p of present) {
-      if (p.key === 'cdw' || p.key === 'bondOrder') named.push(p);
-    }
-    if (has('spinBondAlongField') || has('spinBondInPlane')) {
-      named.push({ key: 'spinBondAlongField', token: 'SB' });
-    }
-  }
-  const broken = named.filter((p) => !induced.has(p.key));
-  // Canting already implies the moment along the field; induced groups name a state only when
-  // nothing is broken, and then the Neel part that is the product of the two fields is left out.
-  const tokens =
-    broken.length > 0
-      ? broken
-      : named.filter(
-          (p) =>
-            !(p.key === 'neelAlongField' && induced.has('spinAlongField') && induced.has('cdw')),
-        );
+  // Induced groups name a state only when nothing else is broken.
+  const broken = present.filter((p) => !induced.has(p.key));
+  const tokens = broken.length > 0 ? broken : present;
   return tokens.length === 0 ? 'sym' : tokens.map((t) => t.token).join('+');
 }
 
@@ -134,7 +109,6 @@ function productStateLabel(
   order: ArrayLike<number>,
   nf: number,
   induced: Set<OrderGroupKey>,
-  symmetry: ModelSymmetry,
 ): string | undefined {
   const sign = nf === 1 ? 1 : -1;
   const o = (k: number): number => sign * order[k]!;
@@ -146,12 +120,8 @@ function productStateLabel(
   const parts: { key: OrderGroupKey; token: string }[] = [];
   const spinInPlane = Math.hypot(o(1), o(2)) > ORDER_TOLERANCE;
   const spinAlong = Math.abs(o(3)) > ORDER_TOLERANCE;
-  if (symmetry.spinIsotropic) {
-    if (spinInPlane || spinAlong) parts.push({ key: 'spinAlongField', token: 'F' });
-  } else {
-    if (spinAlong) parts.push({ key: 'spinAlongField', token: 'F' });
-    if (spinInPlane) parts.push({ key: 'spinInPlane', token: 'Fxy' });
-  }
+  if (spinAlong) parts.push({ key: 'spinAlongField', token: 'F' });
+  if (spinInPlane) parts.push({ key: 'spinInPlane', token: 'Fxy' });
   if (Math.abs(o(12)) > ORDER_TOLERANCE) parts.push({ key: 'cdw', token: 'CDW' });
   if (Math.hypot(o(4), o(8)) > ORDER_TOLERANCE) parts.push({ key: 'bondOrder', token: 'KD' });
   const broken = parts.filter((p) => !induced.has(p.key));

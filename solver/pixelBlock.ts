@@ -1,4 +1,8 @@
-import { type Couplings } from './couplings';
+import { energyOfOrder, type Couplings } from './couplings';
+import { DEGENERACY_TOLERANCE } from './degeneracy';
+import { FrozenStates } from './frozenStates';
+import { searchGroundState } from './groundSearch';
+import { orderOfProjector, projectorOf } from './state';
 import type { CoarseNodes } from './coarseNodes';
 import { DEFAULT_DESCENT, descend, type DescentOptions } from './localMinimise';
 import { DescentWorkspace } from './tangentSpace';
@@ -24,6 +28,8 @@ export interface PixelBlock {
   /** Occupied frames, 32 numbers each. */
   readonly frames: Float64Array;
   readonly labels: string[];
+  /** [0]: pixels that failed the certificate and got a full search. */
+  readonly searched: Int32Array;
 }
 
 /** A block of the given rectangle with room for every pixel's results. */
@@ -39,6 +45,7 @@ function emptyBlock(i0: number, j0: number, width: number, height: number): Pixe
     gap: new Float64Array(count),
     frames: new Float64Array(32 * count),
     labels: new Array<string>(count),
+    searched: new Int32Array(1),
   };
 }
 
@@ -74,12 +81,18 @@ export interface CellRange {
  * Stage 2 for the coarse cells [a0, a1) x [b0, b1) (cell (a, b) spans nodes a, a + 1 and
  * b, b + 1 of `coarse`, whose cols and rows are pixel indices of the full grid). Adaptive:
  *
- * - a cell whose four corners share a label is inside one region: each pixel takes a single
- *   descent from its already-solved neighbour (left, or below at the start of a row), so it
- *   costs about one Newton step and still gets its own converged state;
- * - a cell with different corner labels holds a boundary: each pixel descends from a state of
- *   every phase present (its neighbour's first, then the latest pixel of each other phase in
- *   the cell, or the nearest corner of that phase) and keeps the lowest minimum.
+ * - the corner states are sorted into branches: corners with different labels, or with the same
+ *   label whose states are not continued into each other by one descent across the cell (two
+ *   bond-ordered states along x0 and along y0 share a label, not an energy), are different
+ *   branches;
+ * - a cell with one branch is inside one region: each pixel takes a single descent from its
+ *   already-solved neighbour (left, or below at the start of a row), about one Newton step;
+ * - a cell with several branches holds a boundary: each branch is continued over the whole cell
+ *   and every pixel keeps the lowest minimum;
+ * - every pixel then passes a certificate (`FrozenStates`): no exact state of the seed library
+ *   and no corner state may lie below it. A pixel that fails gets the full global search of a
+ *   single point (with its continued state as a warm start), and its neighbours continue from
+ *   that state.
  *
  * Every cell depends only on its own corners, so any grouping of cells into calls gives the same
  * numbers bit for bit.
@@ -97,8 +110,10 @@ export function solveCells(input: MapInput, coarse: CoarseNodes, cells: CellRang
     const [jFirst, jLast] = cellSpan(coarse.rows, b, ny);
     for (let a = a0; a < a1; a++) {
       const [iFirst, iLast] = cellSpan(coarse.cols, a, nx);
-      if (!cellIsUniform(coarse, a, b)) {
-        solver.solveBranches(block, a, b, iFirst, iLast, jFirst, jLast);
+      solver.prepareCell(a, b, iFirst, iLast, jFirst, jLast);
+      const branches = solver.branchCorners(a, b);
+      if (branches.length > 1) {
+        solver.solveBranches(block, a, b, branches, iFirst, iLast, jFirst, jLast);
         continue;
       }
       for (let j = jFirst; j < jLast; j++) {
@@ -111,11 +126,9 @@ export function solveCells(input: MapInput, coarse: CoarseNodes, cells: CellRang
               ? block.frames.subarray(32 * (n - 1), 32 * n)
               : j > jFirst
                 ? block.frames.subarray(32 * (n - width), 32 * (n - width) + 32)
-                : coarse.frames.subarray(
-                    32 * (b * coarse.cols.length + a),
-                    32 * (b * coarse.cols.length + a) + 32,
-                  );
+                : solver.nodeFrame(b * coarse.cols.length + a);
           solver.fromNeighbour(i, j, neighbour);
+          solver.certify(i, j, block);
           solver.store(block, n);
         }
       }
@@ -136,11 +149,20 @@ interface BranchStore {
 class PixelSolver {
   private readonly nf: number;
   private readonly planeCouplings: PlaneCouplings;
+  private readonly frozen: FrozenStates;
   private readonly ws = new DescentWorkspace();
   private readonly best = new Float64Array(32);
   private readonly options: DescentOptions = { ...DEFAULT_DESCENT, polishSteps: 0 };
+  private readonly continuation: DescentOptions = {
+    ...DEFAULT_DESCENT,
+    polishSteps: 0,
+    escapeSaddles: false,
+  };
   private readonly scratch = new PixelScratch();
+  private readonly nodeOrders: Float64Array;
   private couplings: Couplings | undefined;
+  private energy = 0;
+  private converged = false;
   private branchBuffers: BranchStore | undefined;
 
   constructor(
@@ -149,6 +171,20 @@ class PixelSolver {
   ) {
     this.nf = input.model.filling + 2;
     this.planeCouplings = new PlaneCouplings(input);
+    this.frozen = new FrozenStates(this.planeCouplings);
+    const nodes = coarse.labels.length;
+    this.nodeOrders = new Float64Array(16 * nodes);
+    const p = new Float64Array(32);
+    for (let node = 0; node < nodes; node++) {
+      orderOfProjector(
+        projectorOf(coarse.frames.subarray(32 * node, 32 * node + 32), this.nf, p),
+        this.nodeOrders.subarray(16 * node, 16 * node + 16),
+      );
+    }
+  }
+
+  nodeFrame(node: number): Float64Array {
+    return this.coarse.frames.subarray(32 * node, 32 * node + 32);
   }
 
   private at(i: number, j: number): Couplings {
@@ -160,16 +196,102 @@ class PixelSolver {
     return this.couplings;
   }
 
+  /** Sets up the certificate for cell (a, b) covering pixels [iFirst, iLast) x [jFirst, jLast). */
+  prepareCell(a: number, b: number, iFirst: number, iLast: number, jFirst: number, jLast: number) {
+    const { plane } = this.input;
+    const [nx, ny] = plane.resolution;
+    const width = this.coarse.cols.length;
+    const orders: Float64Array[] = [];
+    const frames: Float64Array[] = [];
+    for (let corner = 0; corner < 4; corner++) {
+      const node = (b + (corner >> 1)) * width + a + (corner & 1);
+      orders.push(this.nodeOrders.subarray(16 * node, 16 * node + 16));
+      frames.push(this.nodeFrame(node));
+    }
+    const xa = axisValue(plane.x, nx, iFirst);
+    const xb = axisValue(plane.x, nx, iLast - 1);
+    const ya = axisValue(plane.y, ny, jFirst);
+    const yb = axisValue(plane.y, ny, jLast - 1);
+    this.frozen.forCell(
+      Math.min(xa, xb),
+      Math.max(xa, xb),
+      Math.min(ya, yb),
+      Math.max(ya, yb),
+      orders,
+      frames,
+    );
+  }
+
+  /**
+   * Corners of cell (a, b) that start a branch of their own: the first corner of each label,
+   * and a corner whose state the first corner of its label does not continue into (one descent
+   * from that corner's state at this corner's couplings ends above this corner's energy).
+   */
+  branchCorners(a: number, b: number): number[] {
+    const { coarse } = this;
+    const width = coarse.cols.length;
+    const [nx, ny] = this.input.plane.resolution;
+    const out: number[] = [];
+    const node = (corner: number): number => (b + (corner >> 1)) * width + a + (corner & 1);
+    for (let corner = 0; corner < 4; corner++) {
+      const here = node(corner);
+      const label = coarse.labels[here]!;
+      const first = out.find((k) => coarse.labels[node(k)] === label);
+      if (first === undefined) {
+        out.push(corner);
+        continue;
+      }
+      const c = this.planeCouplings.at(
+        axisValue(this.input.plane.x, nx, coarse.cols[a + (corner & 1)]!),
+        axisValue(this.input.plane.y, ny, coarse.rows[b + (corner >> 1)]!),
+      );
+      const cornerEnergy = energyOfOrder(c, this.nodeOrders.subarray(16 * here, 16 * here + 16));
+      this.best.set(this.nodeFrame(node(first)));
+      const r = descend(c, this.best, this.continuation, this.ws);
+      if (!r.converged || r.energy > cornerEnergy + DEGENERACY_TOLERANCE * c.scale) {
+        out.push(corner);
+      }
+    }
+    return out;
+  }
+
   fromNeighbour(i: number, j: number, from: Float64Array): void {
     const c = this.at(i, j);
     this.best.set(from);
     this.options.abandonAbove = Infinity;
     this.options.abandonNear = undefined;
-    descend(c, this.best, this.options, this.ws);
+    const result = descend(c, this.best, this.options, this.ws);
+    this.energy = result.energy;
+    this.converged = result.converged;
   }
 
   /**
-   * A cell that holds a boundary: the state of each phase at its corners is continued over the
+   * The certificate of pixel (i, j), whose state is in `best`: when the state is not a
+   * converged minimum or a fixed state lies below it, the pixel gets the full search of a
+   * single point instead (counted in the block).
+   */
+  certify(i: number, j: number, block: PixelBlock): void {
+    const c = this.at(i, j);
+    const [nx, ny] = this.input.plane.resolution;
+    const x = axisValue(this.input.plane.x, nx, i);
+    const y = axisValue(this.input.plane.y, ny, j);
+    const lower = this.frozen.below(x, y, this.energy, c.scale);
+    if (lower === undefined && this.converged) return;
+    const warmStarts: Float64Array[] = [Float64Array.from(this.best)];
+    if (lower !== undefined) warmStarts.push(lower);
+    const search = searchGroundState(c, DEFAULT_MINIMISE, { warmStarts });
+    this.best.set(search.frame);
+    // The search polishes its winner only to the search tolerance; bring it to the same
+    // convergence as a continued pixel.
+    this.at(i, j);
+    const polished = descend(this.couplings!, this.best, this.options, this.ws);
+    this.energy = polished.energy;
+    this.converged = polished.converged;
+    block.searched[0] = block.searched[0]! + 1;
+  }
+
+  /**
+   * A cell that holds a boundary: the state of each branch at its corners is continued over the
    * whole cell, pixel by pixel outwards from that corner (each step one warm descent, so a
    * metastable branch costs little), and each pixel keeps the lowest branch that converged.
    * Among branches degenerate to rounding (lines of extra symmetry) the simplest state wins.
@@ -178,6 +300,7 @@ class PixelSolver {
     block: PixelBlock,
     a: number,
     b: number,
+    branchCorners: readonly number[],
     iFirst: number,
     iLast: number,
     jFirst: number,
@@ -188,14 +311,6 @@ class PixelSolver {
     const w = iLast - iFirst;
     const h = jLast - jFirst;
     const size = w * h;
-    const branchCorners: number[] = [];
-    const seen: string[] = [];
-    for (let corner = 0; corner < 4; corner++) {
-      const node = (b + (corner >> 1)) * width + a + (corner & 1);
-      if (seen.includes(coarse.labels[node]!)) continue;
-      seen.push(coarse.labels[node]!);
-      branchCorners.push(corner);
-    }
     const branches = branchCorners.length;
     const store = this.branchStore(branches * size);
     options.abandonAbove = Infinity;
@@ -223,7 +338,7 @@ class PixelSolver {
                     32 * (slot + (top ? w : -w)),
                     32 * (slot + (top ? w : -w)) + 32,
                   )
-                : coarse.frames.subarray(32 * node, 32 * node + 32);
+                : this.nodeFrame(node);
           frame.set(from);
           const result = descend(this.at(i, j), frame, options, ws);
           store.energy[slot] = result.energy;
@@ -250,6 +365,9 @@ class PixelSolver {
           if (better) pick = slot;
         }
         this.best.set(store.frames.subarray(32 * pick, 32 * pick + 32));
+        this.energy = store.energy[pick]!;
+        this.converged = store.converged[pick] === 1;
+        this.certify(i, j, block);
         this.store(block, (j - block.j0) * blockWidth + (i - block.i0));
       }
     }
@@ -343,7 +461,11 @@ export function solvePixelList(
         nearest = node;
       }
     }
+    const [iFirst, iLast] = cellSpan(coarse.cols, a, nx);
+    const [jFirst, jLast] = cellSpan(coarse.rows, b, ny);
+    solver.prepareCell(a, b, iFirst, iLast, jFirst, jLast);
     solver.fromNeighbour(i, j, coarse.frames.subarray(32 * nearest, 32 * nearest + 32));
+    solver.certify(i, j, block);
     solver.store(block, n);
   }
   return block;

@@ -2,6 +2,7 @@ import { channelIndex, type Channel } from './channels';
 import {
   couplingArrays,
   couplingsFromArrays,
+  energyOfOrder,
   type CouplingArrays,
   type Couplings,
 } from './couplings';
@@ -145,9 +146,12 @@ export class PlaneCouplings {
   private readonly point: {
     -readonly [K in keyof Couplings]: Couplings[K];
   };
+  /** Occupied flavours per flux quantum, Nf = nu + 2. */
+  readonly nf: number;
 
   constructor(readonly input: MapInput) {
     const nf = occupiedCount(input.model);
+    this.nf = nf;
     const exchange = input.model.exchange ?? 0;
     const baseArrays = couplingArrays(input.model);
     const targetSlot = (
@@ -186,6 +190,18 @@ export class PlaneCouplings {
     this.dx = couplingsFromArrays(nf, direction(input.plane.x), 0);
     this.dy = couplingsFromArrays(nf, direction(input.plane.y), 0);
     this.point = couplingsFromArrays(nf, baseArrays, exchange);
+  }
+
+  /**
+   * The energy of a fixed state (order parameters `order`, index 0..15) over the plane is affine
+   * in the axis values, since the energy at fixed P is linear in the couplings: returns
+   * [e0, ex, ey] with E(x, y) = e0 + ex x + ey y.
+   */
+  affineEnergy(order: ArrayLike<number>, out: Float64Array = new Float64Array(3)): Float64Array {
+    out[0] = energyOfOrder(this.base, order);
+    out[1] = energyOfOrder(this.dx, order);
+    out[2] = energyOfOrder(this.dy, order);
+    return out;
   }
 
   /** Couplings at axis values (x, y). */

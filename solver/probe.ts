@@ -2,12 +2,12 @@ import { localMinima, saddlePoints, type StationaryState } from './competitors';
 import { couplingsOf } from './couplings';
 import { brokenSymmetries, type GaplessMode } from './goldstoneModes';
 import { describeState, type SolveResult } from './groundState';
-import { DEFAULT_MINIMISE, minimiseEnergy, type MinimiseOptions } from './minimise';
+import { DEFAULT_MINIMISE, type MinimiseOptions } from './minimise';
+import { searchGroundState } from './groundSearch';
 import type { Model } from './model';
 import { groupMagnitudes, sublatticeSpins } from './orderParameters';
 import { ORDER_TOLERANCE, phaseLabel } from './phaseLabel';
 import { orderOfProjector, projectorOf } from './state';
-import { modelSymmetry } from './symmetry';
 import { solveResultToJson, type SolveJson } from './solveJson';
 import { MEAN_FIELD_CAUTION, SOFTWARE_VERSION } from './version';
 
@@ -150,7 +150,6 @@ function invariantsOf(order: Float64Array): number[] {
 function mergeCompetitors(r: SolveResult, others: readonly StationaryState[]): Competitor[] {
   const c = r.couplings;
   const tol = 1e-9 * c.scale;
-  const symmetry = modelSymmetry(c);
   // Many descents land on the same state (or on the ground state): count each state once.
   const seen = [{ energy: r.energy, invariants: invariantsOf(r.order) }];
   const isNew = (m: { energy: number; invariants: number[] }): boolean => {
@@ -169,7 +168,7 @@ function mergeCompetitors(r: SolveResult, others: readonly StationaryState[]): C
         new Float64Array(16),
       );
       return {
-        phase: phaseLabel(order, c, symmetry),
+        phase: phaseLabel(order, c),
         note: orientationNote(order, ORDER_TOLERANCE),
         energy: s.energy,
         unstable: s.unstable,
@@ -315,7 +314,7 @@ export function probeOfResult(
  */
 export function probeModel(model: Model, options: MinimiseOptions = DEFAULT_MINIMISE): ProbeReport {
   const c = couplingsOf(model);
-  const search = minimiseEnergy(c, options);
+  const search = searchGroundState(c, options);
   const minima = [
     ...search.minima.filter((m) => m.converged),
     ...localMinima(c).filter((m) => m.energy >= search.energy - 1e-9 * c.scale),

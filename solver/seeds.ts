@@ -25,6 +25,12 @@ export interface Seed {
   readonly order: Float64Array;
   /** The un-nudged frame of a structured seed (its exact symmetric state). */
   readonly exact?: Float64Array;
+  /**
+   * Order parameters of the exact state (of the frame itself for random seeds). Ranking by these
+   * lets a weak field choose among states that the couplings leave degenerate: the nudge alone
+   * moves a seed's energy by about 4e-4 of the coupling scale.
+   */
+  readonly exactOrder: Float64Array;
   readonly kind: 'stabiliser' | 'rotated' | 'canted' | 'random';
 }
 
@@ -42,7 +48,8 @@ export function randomFrame(random: RandomSource): Float64Array {
 
 function seedOf(frame: Float64Array, nf: number, kind: Seed['kind']): Seed {
   const p = projectorOf(frame, nf, new Float64Array(32));
-  return { frame, order: orderOfProjector(p, new Float64Array(MATRIX_COUNT)), kind };
+  const order = orderOfProjector(p, new Float64Array(MATRIX_COUNT));
+  return { frame, order, exactOrder: order, kind };
 }
 
 function combinations(n: number, k: number): number[][] {
@@ -216,7 +223,7 @@ export function seedLibrary(nf: number): readonly Seed[] {
       for (let p = 0; p < 8; p++) step[p] = NUDGE * gaussian(random);
       const frame = new Float64Array(32);
       retract(nf, seed.frame, step, frame, scratch);
-      return { ...seedOf(frame, nf, seed.kind), exact: seed.frame };
+      return { ...seedOf(frame, nf, seed.kind), exact: seed.frame, exactOrder: seed.order };
     });
     library = nudged;
     libraries.set(nf, library);

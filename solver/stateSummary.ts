@@ -2,7 +2,6 @@ import type { Couplings } from './couplings';
 import { hermitianEigen4 } from './linalg';
 import { phaseLabel } from './phaseLabel';
 import { hartreeFockOfOrder, orderOfProjector, projectorOf } from './state';
-import { modelSymmetry } from './symmetry';
 
 /** Scratch arrays for `summarise`, reused across pixels. */
 export class PixelScratch {
@@ -53,5 +52,5 @@ export function summarise(
     else lowestEmpty = Math.min(lowestEmpty, s.values[k]!);
   }
   const gap = lowestEmpty - highestOccupied + c.exchange;
-  return { energy, gap, label: phaseLabel(s.order, c, modelSymmetry(c)) };
+  return { energy, gap, label: phaseLabel(s.order, c) };
 }

@@ -225,7 +225,7 @@ describe('browser Map scheduler (workers/mapScheduler.ts) over a worker pool', (
         return { ...m, api } as PoolMember<AsyncMapStages>;
       },
       1,
-      { timeoutMs: 200 },
+      { timeoutMs: 3000 },
     );
     const { outcome } = run(new MapScheduler(hangingPool), SCENARIO);
     const result = await outcome;

@@ -14,7 +14,6 @@ import {
   frameEnergy,
   landauLevelMeV,
   magneticLength,
-  modelSymmetry,
   orderAngles,
   orderOfProjector,
   phaseLabel,
@@ -242,7 +241,7 @@ describe('reference checks of model.md section 10', () => {
       const order = orderOfProjector(p, new Float64Array(16));
       if (filling === 1) for (let k = 1; k < 16; k++) order[k] = -order[k]!;
       const cf = filling === -1 ? c : couplingsOf(standard(-1, 2, 0.2, 0, 1));
-      return phaseLabel(order, cf, modelSymmetry(cf));
+      return phaseLabel(order, cf);
     };
     const h = Math.SQRT1_2;
     for (const filling of [-1, 1] as const) {

@@ -39,7 +39,13 @@ function inputOf(json: string): MapInput {
 }
 
 function pixelTransfer(b: PixelBlock): PixelBlock {
-  return transfer(b, [b.energy.buffer, b.order.buffer, b.gap.buffer, b.frames.buffer]);
+  return transfer(b, [
+    b.energy.buffer,
+    b.order.buffer,
+    b.gap.buffer,
+    b.frames.buffer,
+    b.searched.buffer,
+  ]);
 }
 
 /**

@@ -1,0 +1,254 @@
+import { CHANNELS, G_COL, G_IM, G_RE, type Channel } from './channels';
+import type { Couplings } from './couplings';
+import { isSymmetry, orbitTangent } from './goldstoneModes';
+import { choleskySolve, symmetricEigen } from './linalg';
+import { DEFAULT_DESCENT, descend } from './localMinimise';
+import { DEFAULT_MINIMISE, minimiseEnergy } from './minimise';
+import { energyOfOrder } from './couplings';
+import { presentGroupCount } from './orderParameters';
+import { seedLibrary } from './seeds';
+import { ORDER_TOLERANCE, phaseLabel } from './phaseLabel';
+import { orderOfProjector, projectorOf } from './state';
+import { DescentWorkspace, frameEnergy, tangentDimension, tangentModel } from './tangentSpace';
+
+/**
+ * States whose energies differ by at most this (relative to the coupling scale) count as
+ * degenerate: the model does not tell them apart at the precision Fourfold reports.
+ */
+export const DEGENERACY_TOLERANCE = 1e-9;
+
+/**
+ * Curvature (relative to the coupling scale) below which a direction of the energy Hessian is
+ * soft: along it a descent stops wherever it arrives, since the gradient there is below the
+ * search tolerance. A ground state with soft directions other than the rotations about the
+ * field and about tau_z (which only turn it, label unchanged) sits in a degenerate family.
+ */
+export const SOFT_CURVATURE = 1e-9;
+
+/**
+ * Strength (relative to the coupling scale) of the vanishing fields that pick one member of a
+ * degenerate family: the model's own one-body terms scaled up to this size when they are
+ * weaker, and E_Z -> 0+ (strength a) and Delta_V -> 0+ (strength a / 2) where the model has
+ * none. Their second-order effects (about a^2 / scale = 1e-6 of the scale) are then well above
+ * the descent's resolution, and first-order splittings of the true model beyond 1e-3 of the
+ * scale are not overturned.
+ */
+const PROBE_FIELD = 1e-3;
+
+/**
+ * Order in which components decide between degenerate states the vanishing fields leave
+ * (channel indices): the diagonal ones first (moment along the field, sublattice, Neel along the
+ * field), then bond order, in-plane moment, in-plane Neel order and spin bond order. A larger
+ * component wins.
+ */
+const CANONICAL_ORDER = [3, 12, 15, 4, 8, 1, 2, 13, 14, 7, 11, 5, 6, 9, 10];
+
+/** A family of degenerate ground states, as the results report it. */
+export interface Degeneracy {
+  /**
+   * Channels G_ab whose rotations exp(i theta G_ab) keep the energy (to the tolerance) and move
+   * the state: the symmetry that generates the family (empty for an accidental degeneracy).
+   */
+  readonly symmetries: readonly Channel[];
+  /** Soft directions at the state besides the rotations about the field and about tau_z. */
+  readonly dimension: number;
+  /** Labels of the degenerate states met (the representative's first). */
+  readonly members: readonly string[];
+}
+
+const workspace = new DescentWorkspace();
+
+/**
+ * Number of soft directions of the energy Hessian at a converged frame, not counting the orbit
+ * directions of exact rotations about the field (G_0z) and about tau_z (G_z0), which leave every
+ * label and group magnitude unchanged.
+ */
+export function softDirections(c: Couplings, frame: Float64Array): number {
+  const ws = workspace;
+  const nf = c.nf;
+  const d = tangentDimension(nf);
+  frameEnergy(c, frame, ws, ws.order);
+  tangentModel(c, frame, ws);
+  const k = ws.eigScratch;
+  k.set(ws.hessian.subarray(0, d * d));
+  for (const g of [3, 12]) {
+    if (!isSymmetry(c, g)) continue;
+    const t = orbitTangent(frame, nf, g);
+    let norm = 0;
+    for (let p = 0; p < d; p++) norm += t[p]! * t[p]!;
+    if (norm <= 1e-12) continue;
+    // Penalise the orbit direction: it is not a soft mode of interest.
+    const weight = c.scale / norm;
+    for (let p = 0; p < d; p++) {
+      for (let q = 0; q < d; q++) k[p * d + q] = k[p * d + q]! + weight * t[p]! * t[q]!;
+    }
+  }
+  const mu = SOFT_CURVATURE * c.scale;
+  if (choleskySolve(k, d, -mu, ws.rhs.fill(0), ws.step, ws.chol, 0)) return 0;
+  const values = ws.eigValues;
+  const copy = Float64Array.from(k.subarray(0, d * d));
+  symmetricEigen(copy, d, values, ws.eigVectors);
+  let soft = 0;
+  for (let p = 0; p < d; p++) if (values[p]! < mu) soft++;
+  return soft;
+}
+
+/** Couplings with the vanishing fields that choose among degenerate states (see PROBE_FIELD). */
+export function probeCouplings(c: Couplings): Couplings {
+  const a = PROBE_FIELD * c.scale;
+  let largest = 0;
+  for (let k = 1; k < 16; k++) largest = Math.max(largest, Math.abs(c.eta[k]!));
+  const amplify = largest > 0 && largest < a ? a / largest : 1;
+  const eta = new Float64Array(16);
+  eta[0] = c.eta[0]!;
+  for (let k = 1; k < 16; k++) eta[k] = amplify * c.eta[k]!;
+  if (c.eta[3] === 0) eta[3] = eta[3]! - a / 2;
+  if (c.eta[12] === 0) eta[12] = eta[12]! - a / 4;
+  return { ...c, eta };
+}
+
+/** A degenerate ground state's representative and, when asked, what the family holds. */
+export interface Selection {
+  readonly frame: Float64Array;
+  /** Whether the frame differs from the one given. */
+  readonly changed: boolean;
+  /** Soft directions of the given frame (see softDirections). */
+  readonly soft: number;
+  /** Labels of the degenerate states met, the representative's first. */
+  readonly members: string[];
+}
+
+interface Candidate {
+  readonly frame: Float64Array;
+  readonly order: Float64Array;
+  readonly groups: number;
+}
+
+/** Whether state a is preferred to b: fewer order-parameter groups, then CANONICAL_ORDER. */
+function preferred(a: Candidate, b: Candidate): boolean {
+  if (a.groups !== b.groups) return a.groups < b.groups;
+  for (const k of CANONICAL_ORDER) {
+    const d = a.order[k]! - b.order[k]!;
+    if (Math.abs(d) > 1e-6) return d > 0;
+  }
+  return false;
+}
+
+/**
+ * Picks one member of the family of states degenerate with `frame` (energy `energy`): among the
+ * states that vanishing fields select (E_Z -> 0+, Delta_V -> 0+, or the model's own weak fields
+ * scaled up, see PROBE_FIELD), the simplest (fewest order-parameter groups), then the one with
+ * the largest components in CANONICAL_ORDER. The answer then depends neither on the units nor on
+ * where a search happened to stop, and a weak field gets the member its limit selects. `others`
+ * are further frames known to lie within the tolerance (distinct minima of the search). Returns
+ * the given frame when there is nothing to choose.
+ */
+export function selectRepresentative(
+  c: Couplings,
+  frame: Float64Array,
+  energy: number,
+  others: readonly Float64Array[],
+): Selection {
+  const soft = softDirections(c, frame);
+  if (soft === 0 && others.length === 0) return { frame, changed: false, soft, members: [] };
+  const tolerance = DEGENERACY_TOLERANCE * c.scale;
+  const probe = probeCouplings(c);
+  const search = minimiseEnergy(probe, DEFAULT_MINIMISE, {
+    warmStarts: [frame, ...others],
+    polishSteps: 1,
+    gradientTolerance: 1e-12,
+  });
+  const starts: Float64Array[] = [];
+  for (const m of search.minima) {
+    if (m.converged && m.energy <= search.energy + tolerance) starts.push(m.frame);
+  }
+  // Exact symmetric states at the probe's minimum energy: the pure members of a family, which
+  // a nudged descent only approaches. Each is relaxed by the probe's fields first (without
+  // leaving it along a flat direction), which may cant it slightly.
+  const ws = workspace;
+  const stay = { ...DEFAULT_DESCENT, escapeSaddles: false };
+  const margin = PROBE_FIELD * c.scale;
+  for (const seed of seedLibrary(c.nf)) {
+    if (seed.exact === undefined) continue;
+    if (energyOfOrder(probe, seed.exactOrder) > search.energy + margin) continue;
+    const relaxed = Float64Array.from(seed.exact);
+    const result = descend(probe, relaxed, stay, ws);
+    if (result.converged && result.energy <= search.energy + tolerance) starts.push(relaxed);
+  }
+  const members: string[] = [];
+  let best: Candidate | undefined;
+  for (const start of starts) {
+    const candidate = Float64Array.from(start);
+    const relaxed = descend(c, candidate, stay, ws);
+    if (!relaxed.converged || relaxed.energy > energy + tolerance) continue;
+    const found = {
+      frame: candidate,
+      order: Float64Array.from(ws.order),
+      groups: presentGroupCount(ws.order, ORDER_TOLERANCE),
+    };
+    const label = phaseLabel(found.order, c);
+    if (!members.includes(label)) members.push(label);
+    if (best === undefined || preferred(found, best)) best = found;
+  }
+  if (best === undefined) return { frame, changed: false, soft, members };
+  const first = phaseLabel(best.order, c);
+  return {
+    frame: best.frame,
+    changed: true,
+    soft,
+    members: [first, ...members.filter((m) => m !== first)],
+  };
+}
+
+/** Whether two frames describe the same state up to the tolerance of their order parameters. */
+export function sameState(a: Float64Array, b: Float64Array, nf: number, tolerance = 1e-6): boolean {
+  const p = new Float64Array(32);
+  const oa = orderOfProjector(projectorOf(a, nf, p), new Float64Array(16));
+  const ob = orderOfProjector(projectorOf(b, nf, p), new Float64Array(16));
+  for (let k = 1; k < 16; k++) if (Math.abs(oa[k]! - ob[k]!) > tolerance) return false;
+  return true;
+}
+
+/** Generators whose rotation by a quarter turn keeps the energy of `frame` and moves it. */
+export function degenerateRotations(c: Couplings, frame: Float64Array): Channel[] {
+  const ws = workspace;
+  const nf = c.nf;
+  const tolerance = DEGENERACY_TOLERANCE * c.scale;
+  const energy = frameEnergy(c, frame, ws, ws.order);
+  const out: Channel[] = [];
+  for (let g = 1; g < 16; g++) {
+    const t = orbitTangent(frame, nf, g);
+    let norm = 0;
+    for (let p = 0; p < t.length; p++) norm += t[p]! * t[p]!;
+    if (norm <= 1e-12) continue;
+    let flat = true;
+    for (const angle of [Math.PI / 8, Math.PI / 4, Math.PI / 2]) {
+      const turned = rotateFrame(frame, g, angle);
+      if (Math.abs(frameEnergy(c, turned, ws, ws.trialOrder) - energy) > tolerance) flat = false;
+    }
+    if (flat) out.push(CHANNELS[g - 1]!);
+  }
+  return out;
+}
+
+/** exp(i angle G_g) applied to every vector of a frame (G_g squares to one). */
+function rotateFrame(frame: Float64Array, g: number, angle: number): Float64Array {
+  const out = new Float64Array(32);
+  const cos = Math.cos(angle);
+  const sin = Math.sin(angle);
+  for (let v = 0; v < 4; v++) {
+    for (let r = 0; r < 4; r++) {
+      const col = G_COL[4 * g + r]!;
+      const gr = G_RE[4 * g + r]!;
+      const gi = G_IM[4 * g + r]!;
+      const ur = frame[8 * v + 2 * col]!;
+      const ui = frame[8 * v + 2 * col + 1]!;
+      // (G u)_r, then cos u + i sin G u
+      const wr = gr * ur - gi * ui;
+      const wi = gr * ui + gi * ur;
+      out[8 * v + 2 * r] = cos * frame[8 * v + 2 * r]! - sin * wi;
+      out[8 * v + 2 * r + 1] = cos * frame[8 * v + 2 * r + 1]! + sin * wr;
+    }
+  }
+  return out;
+}

@@ -1,0 +1,96 @@
+import { DEGENERACY_TOLERANCE } from './degeneracy';
+import type { PlaneCouplings } from './plane';
+import { seedLibrary } from './seeds';
+
+/**
+ * Fixed states whose energies bound the ground state from above anywhere in a plane: the exact
+ * states of the seed library and the states of a cell's corner nodes. At a fixed projector the
+ * energy is linear in the couplings, hence affine in the plane's axis values, so each state's
+ * energy at a pixel costs two multiply-adds (three numbers per state, computed once). A pixel
+ * whose continued state lies above any of them is certainly not at the global minimum: that is
+ * the Map's per-pixel certificate.
+ */
+export class FrozenStates {
+  /** Affine coefficients [e0, ex, ey] per state: library seeds first, then the cell's corners. */
+  private coefficients: Float64Array;
+  private readonly seedCount: number;
+  private readonly seedFrames: Float64Array[];
+  private readonly cornerFrames: Float64Array[] = [];
+  /** Indices of the states that can beat a pixel of the current cell (see `forCell`). */
+  private active: Int32Array;
+  private activeCount = 0;
+
+  constructor(private readonly plane: PlaneCouplings) {
+    const library = seedLibrary(plane.nf).filter((s) => s.exact !== undefined);
+    this.seedCount = library.length;
+    this.seedFrames = library.map((s) => s.exact!);
+    this.coefficients = new Float64Array(3 * (this.seedCount + 4));
+    const scratch = new Float64Array(3);
+    library.forEach((seed, s) => {
+      this.coefficients.set(plane.affineEnergy(seed.exactOrder, scratch), 3 * s);
+    });
+    this.active = new Int32Array(this.seedCount + 4);
+  }
+
+  /**
+   * Prepares the checks for one cell: the rectangle [x0, x1] x [y0, y1] of axis values that its
+   * pixels cover, and the order parameters (index 0..15) and frames of its corner states. Keeps
+   * only the states that can fall below every corner state somewhere in the rectangle.
+   */
+  forCell(
+    x0: number,
+    x1: number,
+    y0: number,
+    y1: number,
+    cornerOrders: readonly ArrayLike<number>[],
+    cornerFrames: readonly Float64Array[],
+  ): void {
+    const n = this.seedCount;
+    const k = this.coefficients;
+    const scratch = new Float64Array(3);
+    this.cornerFrames.length = 0;
+    cornerOrders.forEach((order, corner) => {
+      k.set(this.plane.affineEnergy(order, scratch), 3 * (n + corner));
+      this.cornerFrames.push(cornerFrames[corner]!);
+    });
+    const total = n + cornerOrders.length;
+    const extreme = (s: number, wantMax: boolean): number => {
+      const e0 = k[3 * s]!;
+      const ex = k[3 * s + 1]!;
+      const ey = k[3 * s + 2]!;
+      const a = e0 + ex * x0 + ey * y0;
+      const b = e0 + ex * x1 + ey * y0;
+      const c = e0 + ex * x0 + ey * y1;
+      const d = e0 + ex * x1 + ey * y1;
+      return wantMax ? Math.max(a, b, c, d) : Math.min(a, b, c, d);
+    };
+    // After the check, every pixel lies at or below each corner state (to the tolerance), so no
+    // pixel of the cell is above the lowest of their maxima over the rectangle.
+    let ceiling = Infinity;
+    for (let s = n; s < total; s++) ceiling = Math.min(ceiling, extreme(s, true));
+    this.activeCount = 0;
+    for (let s = 0; s < total; s++) {
+      if (s >= n || extreme(s, false) < ceiling) this.active[this.activeCount++] = s;
+    }
+  }
+
+  /**
+   * The frame of the lowest kept state whose energy at (x, y) is below `energy` by more than
+   * the degeneracy tolerance of `scale`, or undefined when none is.
+   */
+  below(x: number, y: number, energy: number, scale: number): Float64Array | undefined {
+    const k = this.coefficients;
+    let threshold = energy - DEGENERACY_TOLERANCE * scale;
+    let best = -1;
+    for (let a = 0; a < this.activeCount; a++) {
+      const s = this.active[a]!;
+      const e = k[3 * s]! + k[3 * s + 1]! * x + k[3 * s + 2]! * y;
+      if (e < threshold) {
+        threshold = e;
+        best = s;
+      }
+    }
+    if (best < 0) return undefined;
+    return best < this.seedCount ? this.seedFrames[best] : this.cornerFrames[best - this.seedCount];
+  }
+}
