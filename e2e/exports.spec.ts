@@ -93,7 +93,8 @@ test('Map exports (SVG, PNG, CSV, JSON) of a scenario with hostile axis names an
 
   const png = await download(page, 'export-png');
   expect(png.name).toBe('fourfold-map.png');
-  // PNG signature, then the IHDR chunk (PNG specification, ISO/IEC 15948, sections 5.2 and 11.2.2).
+  // The PNG signature, then the IHDR chunk with a nonzero width (PNG specification, ISO/IEC
+  // 15948; its sections 5.2 and 11.2.2 from memory).
   expect([...png.bytes.subarray(0, 8)]).toEqual([137, 80, 78, 71, 13, 10, 26, 10]);
   expect(png.bytes.subarray(12, 16).toString('latin1')).toBe('IHDR');
   expect(png.bytes.readUInt32BE(16)).toBeGreaterThan(0);
