@@ -130,9 +130,10 @@ test('Cut exports (SVG, CSV, JSON) of a scenario with hostile axis names', async
   await cut.getByTestId('cut-from-y').fill('1.5');
   await cut.getByTestId('cut-to-x').fill('1.5');
   await cut.getByTestId('cut-to-y').fill('-1.8');
-  await expect(cut.getByTestId('cut-status')).toHaveAttribute('data-status', 'done', {
-    timeout: 60_000,
-  });
+  // Done with the line typed last (not one of the partial lines before it).
+  const status = cut.getByTestId('cut-status');
+  await expect(status).toHaveAttribute('data-path', 'line:-1.8,1.5:1.5,-1.8', { timeout: 60_000 });
+  await expect(status).toHaveAttribute('data-status', 'done', { timeout: 60_000 });
   await expect(cut.getByTestId('cut-transition').first()).toBeVisible();
   const transitions = await cut.getByTestId('cut-transition').count();
 
