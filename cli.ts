@@ -1,46 +1,57 @@
-import { readFileSync, writeFileSync } from 'node:fs';
+import { closeSync, openSync, readFileSync, writeSync } from 'node:fs';
 import { cutFigureSvg } from './app/figure/cutFigure';
 import { mapFigureSvg } from './app/figure/mapFigure';
 import { latticeSvg } from './app/probe/latticeSvg';
 import { probeDocument } from './app/probe/probeDocument';
 import {
   MAX_CUT_POINTS,
+  QUOTED_PATH_LENGTH,
   ModelError,
   computeCut,
   computePhaseMap,
   isPlainObject,
   cutToCsv,
   cutToJson,
-  mapToCsv,
-  mapToJson,
+  errorLine,
+  mapCsvPieces,
+  mapJsonPieces,
   modelAtPoint,
   parseMapInput,
   parseModel,
   probeModel,
+  quoteInput,
   solve,
   solveResultToJson,
+  textChunks,
 } from './solver/index';
 import { ThreadPool } from './workers/node/threadPool';
 
 const USAGE = `usage:
-  fourfold solve --model FILE            ground state of one model (or an array of models) as JSON
-  fourfold map --model FILE --out OUT    Map of the model's plane; OUT ends in .json, .csv or .svg
-  fourfold cut --model FILE --from x,y --to x,y [--n N] --out OUT
+  fourfold solve --model FILE [--out OUT.json]
+                                         ground state of one model (or an array of models) as
+                                         JSON, on stdout or into OUT.json
+  fourfold map --model FILE --out OUT [--threads N] [--column C] [--title TEXT]
+                                         Map of the model's plane; OUT ends in .json, .csv or .svg
+  fourfold cut --model FILE --from x,y --to x,y [--n N] --out OUT [--column C] [--title TEXT]
                                          Cut along a straight line of the model's plane (plane
                                          coordinates); N samples (default 200); OUT as for map
   fourfold probe --model FILE [--at x,y] [--out LATTICE.svg]
                                          Probe of one model (or an array): spinors, entanglement,
                                          sublattice spins, bond order, levels, modes and their
-                                         symmetries, competitors, as JSON; --at takes the point
-                                         x,y of the model's plane; --out writes the lattice
-                                         picture of one model as SVG
+                                         symmetries, competitors, as JSON on stdout; --at takes
+                                         the point x,y of the model's plane; --out writes the
+                                         lattice picture of one model as SVG (the JSON still
+                                         goes to stdout)
 options:
   --threads N   worker threads for map (default: all cores)
   --column single|double
                 figure width of a map's or a cut's .svg: one journal column (8.6 cm,
                 default) or two (17.8 cm)
   --title TEXT  a title above a map's or a cut's .svg figure (E_Z, u_perp, Delta_V are typeset)
-  --help        this text`;
+  --help        this text
+Each option is given at most once. An option the command does not take (--threads for cut,
+--title for a .json or .csv output, ...) is refused, as is a repeated one: one line on stderr,
+exit code 2.`;
 
 /** A failure to report in one line, with the process exit code. */
 export class CliError extends Error {
@@ -53,7 +64,7 @@ export class CliError extends Error {
 }
 
 interface Args {
-  command: string;
+  command: Command;
   model?: string;
   out?: string;
   threads?: number;
@@ -65,17 +76,33 @@ interface Args {
   at?: [number, number];
 }
 
+type Command = 'solve' | 'map' | 'cut' | 'probe';
+
+/** The options each command takes; any other is refused, so that none is silently ignored. */
+const COMMAND_OPTIONS: Readonly<Record<Command, readonly string[]>> = {
+  solve: ['--model', '--out'],
+  map: ['--model', '--out', '--threads', '--column', '--title'],
+  cut: ['--model', '--from', '--to', '--n', '--out', '--column', '--title'],
+  probe: ['--model', '--at', '--out'],
+};
+
+const ALL_OPTIONS = new Set(Object.values(COMMAND_OPTIONS).flat());
+
 /** A plane point typed as `x,y` (two finite numbers). */
 function parsePoint(flag: string, text: string): [number, number] {
   const parts = text.split(',');
   const numbers = parts.map((p) => (p.trim() === '' ? NaN : Number(p)));
   if (numbers.length !== 2 || !numbers.every(Number.isFinite)) {
     throw new CliError(
-      `${flag}: expected a plane point x,y (two finite numbers), got "${text}"`,
+      `${flag}: expected a plane point x,y (two finite numbers), got ${quoteInput(text)}`,
       2,
     );
   }
   return [numbers[0]!, numbers[1]!];
+}
+
+function isCommand(command: string): command is Command {
+  return Object.hasOwn(COMMAND_OPTIONS, command);
 }
 
 function parseArgs(argv: readonly string[]): Args {
@@ -83,52 +110,69 @@ function parseArgs(argv: readonly string[]): Args {
   if (command === undefined || command === '--help' || command === '-h') {
     throw new CliError(USAGE, 2);
   }
-  if (command !== 'solve' && command !== 'map' && command !== 'cut' && command !== 'probe') {
+  if (!isCommand(command)) {
     throw new CliError(
-      `unknown command "${command}"; use solve, map, cut or probe (--help for usage)`,
+      `unknown command ${quoteInput(command)}; use solve, map, cut or probe (--help for usage)`,
       2,
     );
   }
+  if (rest.includes('--help')) throw new CliError(USAGE, 2);
   const args: Args = { command };
+  const seen = new Set<string>();
   for (let k = 0; k < rest.length; k++) {
     const flag = rest[k]!;
+    if (!flag.startsWith('--')) {
+      throw new CliError(`unexpected argument ${quoteInput(flag)} (--help for usage)`, 2);
+    }
+    if (!ALL_OPTIONS.has(flag)) {
+      throw new CliError(`unknown option ${quoteInput(flag)} (--help for usage)`, 2);
+    }
+    if (!COMMAND_OPTIONS[command].includes(flag)) {
+      const takers = Object.keys(COMMAND_OPTIONS).filter((c) =>
+        COMMAND_OPTIONS[c as Command].includes(flag),
+      );
+      throw new CliError(
+        `${flag}: ${command} does not take it (${takers.join(' and ')} ${takers.length > 1 ? 'do' : 'does'}; ${command} takes ${COMMAND_OPTIONS[command].join(', ')})`,
+        2,
+      );
+    }
+    if (seen.has(flag)) throw new CliError(`${flag}: given twice; give each option once`, 2);
+    seen.add(flag);
     const value = rest[k + 1];
-    const need = (): string => {
-      if (value === undefined || value.startsWith('--'))
-        throw new CliError(`${flag}: missing value`, 2);
-      k++;
-      return value;
-    };
-    if (flag === '--model') args.model = need();
-    else if (flag === '--out') args.out = need();
+    if (value === undefined || value.startsWith('--')) {
+      throw new CliError(`${flag}: missing value`, 2);
+    }
+    k++;
+    if (flag === '--model') args.model = value;
+    else if (flag === '--out') args.out = value;
     else if (flag === '--threads') {
-      const n = Number(need());
+      const n = value.trim() === '' ? NaN : Number(value);
       if (!Number.isInteger(n) || n < 1 || n > 256) {
-        throw new CliError(`--threads: expected an integer from 1 to 256, got ${value}`, 2);
+        throw new CliError(
+          `--threads: expected an integer from 1 to 256, got ${quoteInput(value)}`,
+          2,
+        );
       }
       args.threads = n;
     } else if (flag === '--column') {
-      const column = need();
-      if (column !== 'single' && column !== 'double') {
-        throw new CliError(`--column: expected single or double, got "${column}"`, 2);
+      if (value !== 'single' && value !== 'double') {
+        throw new CliError(`--column: expected single or double, got ${quoteInput(value)}`, 2);
       }
-      args.column = column;
-    } else if (flag === '--title') args.title = need();
-    else if (flag === '--from') args.from = parsePoint(flag, need());
-    else if (flag === '--to') args.to = parsePoint(flag, need());
-    else if (flag === '--at') args.at = parsePoint(flag, need());
+      args.column = value;
+    } else if (flag === '--title') args.title = value;
+    else if (flag === '--from') args.from = parsePoint(flag, value);
+    else if (flag === '--to') args.to = parsePoint(flag, value);
+    else if (flag === '--at') args.at = parsePoint(flag, value);
     else if (flag === '--n') {
-      const text = need();
-      const n = text.trim() === '' ? NaN : Number(text);
+      const n = value.trim() === '' ? NaN : Number(value);
       if (!Number.isInteger(n) || n < 2 || n > MAX_CUT_POINTS) {
         throw new CliError(
-          `--n: expected an integer from 2 to ${MAX_CUT_POINTS} (samples along the cut), got ${text}`,
+          `--n: expected an integer from 2 to ${MAX_CUT_POINTS} (samples along the cut), got ${quoteInput(value)}`,
           2,
         );
       }
       args.n = n;
-    } else if (flag === '--help') throw new CliError(USAGE, 2);
-    else throw new CliError(`unknown option ${flag} (--help for usage)`, 2);
+    }
   }
   if (args.model === undefined) throw new CliError('--model: missing (give a model file)', 2);
   if (command === 'cut') {
@@ -137,19 +181,25 @@ function parseArgs(argv: readonly string[]): Args {
     if (args.from[0] === args.to[0] && args.from[1] === args.to[1]) {
       throw new CliError('--to: must differ from --from (a cut needs two distinct end points)', 2);
     }
-  } else {
-    for (const flag of ['from', 'to', 'n'] as const) {
-      if (args[flag] !== undefined) throw new CliError(`--${flag}: only for the cut command`, 2);
+  }
+  if (args.out !== undefined) {
+    const ending = command === 'solve' ? 'json' : command === 'probe' ? 'svg' : null;
+    if (ending !== null && !args.out.toLowerCase().endsWith(`.${ending}`)) {
+      throw new CliError(
+        command === 'solve'
+          ? `--out ${quoteInput(args.out, QUOTED_PATH_LENGTH)}: solve writes its result as JSON; end it in .json`
+          : `--out ${quoteInput(args.out, QUOTED_PATH_LENGTH)}: the probe writes its lattice picture; end it in .svg`,
+        2,
+      );
     }
   }
-  if (command !== 'probe' && args.at !== undefined) {
-    throw new CliError('--at: only for the probe command', 2);
-  }
-  if (command === 'probe' && args.out !== undefined && !/\.svg$/i.test(args.out)) {
-    throw new CliError(
-      `--out ${args.out}: the probe writes its lattice picture; end it in .svg`,
-      2,
-    );
+  if (command === 'map' || command === 'cut') {
+    const data = args.out !== undefined && !/\.svg$/i.test(args.out);
+    for (const flag of ['--column', '--title'] as const) {
+      if (seen.has(flag) && data) {
+        throw new CliError(`${flag}: only for a figure; it applies when --out ends in .svg`, 2);
+      }
+    }
   }
   return args;
 }
@@ -166,17 +216,20 @@ function readJson(path: string): unknown {
         : code === 'EISDIR'
           ? 'is a directory'
           : (code ?? 'unreadable');
-    throw new CliError(`--model ${path}: ${reason}`);
+    throw new CliError(`--model ${quoteInput(path, QUOTED_PATH_LENGTH)}: ${reason}`);
   }
+  // A UTF-8 byte order mark is not JSON (RFC 8259 section 8.1), but some editors write one.
+  if (text.startsWith('\ufeff')) text = text.slice(1);
   try {
     return JSON.parse(text) as unknown;
   } catch (error) {
     throw new CliError(
-      `--model ${path}: not valid JSON (${(error as Error).message.split('\n')[0]})`,
+      `--model ${quoteInput(path, QUOTED_PATH_LENGTH)}: not valid JSON (${errorLine(error)})`,
     );
   }
 }
 
+/** The `solve` result as JSON text (one result, or an array of them). */
 function runSolve(json: unknown): string {
   if (Array.isArray(json)) {
     if (json.length === 0)
@@ -224,17 +277,31 @@ function outputFormat(out: string | undefined): { path: string; format: 'json' |
     throw new CliError('--out: missing (give OUT.json, OUT.csv or OUT.svg)', 2);
   const format = /\.(json|csv|svg)$/i.exec(out)?.[1]?.toLowerCase();
   if (format === undefined)
-    throw new CliError(`--out ${out}: unknown format; end it in .json, .csv or .svg`, 2);
+    throw new CliError(
+      `--out ${quoteInput(out, QUOTED_PATH_LENGTH)}: unknown format; end it in .json, .csv or .svg`,
+      2,
+    );
   return { path: out, format: format as 'json' | 'csv' | 'svg' };
 }
 
-function writeOutput(out: string, text: string): void {
+/**
+ * Writes `content` to the file `out`: one string, or pieces (a large Map's JSON or CSV) that go
+ * to the file a chunk at a time, so the whole text is never held in memory.
+ */
+function writeOutput(out: string, content: string | Iterable<string>): void {
+  let fd: number | undefined;
   try {
-    writeFileSync(out, text);
+    fd = openSync(out, 'w');
+    for (const chunk of typeof content === 'string' ? [content] : textChunks(content)) {
+      const bytes = Buffer.from(chunk, 'utf8');
+      for (let done = 0; done < bytes.length;) done += writeSync(fd, bytes, done);
+    }
   } catch (error) {
-    throw new CliError(
-      `--out ${out}: cannot write (${(error as NodeJS.ErrnoException).code ?? 'error'})`,
-    );
+    const code = (error as NodeJS.ErrnoException).code;
+    if (code === undefined) throw error;
+    throw new CliError(`--out ${quoteInput(out, QUOTED_PATH_LENGTH)}: cannot write (${code})`);
+  } finally {
+    if (fd !== undefined) closeSync(fd);
   }
 }
 
@@ -258,13 +325,14 @@ async function runMap(json: unknown, args: Args): Promise<void> {
   const pool = new ThreadPool(new URL('./mapThread.mjs', import.meta.url), args.threads);
   try {
     const map = await computePhaseMap(input, pool.stages, pool.size);
-    const text =
+    writeOutput(
+      path,
       format === 'json'
-        ? JSON.stringify(mapToJson(map))
+        ? mapJsonPieces(map)
         : format === 'csv'
-          ? mapToCsv(map)
-          : mapFigureSvg(map, { column: args.column, title: args.title });
-    writeOutput(path, text);
+          ? mapCsvPieces(map)
+          : mapFigureSvg(map, { column: args.column, title: args.title }),
+    );
   } finally {
     await pool.close();
   }
@@ -275,8 +343,11 @@ export async function main(argv: readonly string[]): Promise<number> {
   try {
     const args = parseArgs(argv);
     const json = readJson(args.model!);
-    if (args.command === 'solve') process.stdout.write(runSolve(json) + '\n');
-    else if (args.command === 'cut') runCut(json, args);
+    if (args.command === 'solve') {
+      const text = runSolve(json) + '\n';
+      if (args.out === undefined) process.stdout.write(text);
+      else writeOutput(args.out, text);
+    } else if (args.command === 'cut') runCut(json, args);
     else if (args.command === 'probe') process.stdout.write(runProbe(json, args));
     else await runMap(json, args);
     return 0;

@@ -8,7 +8,7 @@ import { fileURLToPath, pathToFileURL } from 'node:url';
 
 const root = dirname(fileURLToPath(import.meta.url));
 const outDir = join(root, 'node_modules', '.cache', 'fourfold-cli');
-const sources = ['cli.ts', 'solver', 'workers/node', 'app/figure'];
+const sources = ['cli.ts', 'solver', 'workers/node', 'app/figure', 'app/probe'];
 
 function newest(path) {
   const s = statSync(path);

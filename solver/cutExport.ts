@@ -1,4 +1,5 @@
 import type { CutResult } from './cut';
+import { csvComment, csvText } from './csvText';
 import { modelToJson } from './model';
 import { ORDER_GROUPS } from './orderParameters';
 import type { MapInput } from './plane';
@@ -44,26 +45,24 @@ export function cutToJson(cut: CutResult, input: MapInput): Record<string, unkno
   };
 }
 
-function csvField(value: string): string {
-  return /[",\n]/.test(value) ? `"${value.replace(/"/g, '""')}"` : value;
-}
-
 /**
  * One row per sample: t, the horizontal quantity, plane coordinates, label, energy, dE/ds, gap,
  * canting (degrees, empty without a spin moment) and the eight group magnitudes; the caution,
- * the model and each transition as `#` comment lines above the header.
+ * the model and each transition as `#` comment lines above the header (one line each, whatever
+ * the axis names hold). Text cells are written by `csvText`, numbers as they are.
  */
 export function cutToCsv(cut: CutResult, input: MapInput): string {
   const x = input.plane.x.label || 'x';
   const y = input.plane.y.label || 'y';
   const s = cut.axis.label === 't' ? 's' : cut.axis.label;
   const lines = [
-    `# ${MEAN_FIELD_CAUTION}`,
-    `# fourfold ${SOFTWARE_VERSION}; model ${JSON.stringify(modelToJson(input.model))}`,
-    `# path ${JSON.stringify(cut.path)}`,
-    ...cut.transitions.map(
-      (tr) =>
-        `# transition ${tr.between[0]} -> ${tr.between[1]} (${tr.order}) at t = ${tr.t}, ${s} = ${tr.s}, ${x} = ${tr.x}, ${y} = ${tr.y}`,
+    csvComment(MEAN_FIELD_CAUTION),
+    csvComment(`fourfold ${SOFTWARE_VERSION}; model ${JSON.stringify(modelToJson(input.model))}`),
+    csvComment(`path ${JSON.stringify(cut.path)}`),
+    ...cut.transitions.map((tr) =>
+      csvComment(
+        `transition ${tr.between[0]} -> ${tr.between[1]} (${tr.order}) at t = ${tr.t}, ${csvText(s)} = ${tr.s}, ${csvText(x)} = ${tr.x}, ${csvText(y)} = ${tr.y}`,
+      ),
     ),
     [
       't',
@@ -77,7 +76,7 @@ export function cutToCsv(cut: CutResult, input: MapInput): string {
       'canting_deg',
       ...ORDER_GROUPS.map((g) => g.key),
     ]
-      .map(csvField)
+      .map(csvText)
       .join(','),
   ];
   for (let i = 0; i < cut.t.length; i++) {
@@ -88,7 +87,7 @@ export function cutToCsv(cut: CutResult, input: MapInput): string {
         cut.s[i],
         cut.x[i],
         cut.y[i],
-        csvField(cut.labels[i]!),
+        csvText(cut.labels[i]!),
         cut.energy[i],
         cut.slope[i],
         cut.gap[i],

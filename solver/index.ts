@@ -126,7 +126,9 @@ export {
 export { cutToCsv, cutToJson } from './cutExport';
 export { joinBoundaries, type Boundary } from './boundaries';
 export { computePhaseMap, localStages, splitRange, type MapStages } from './phaseMap';
-export { legendOf, mapToCsv, mapToJson } from './mapExport';
+export { legendOf, mapCsvPieces, mapJsonPieces, mapToCsv, mapToJson } from './mapExport';
+export { textChunks } from './textChunks';
+export { QUOTED_PATH_LENGTH, fieldKey, quoteInput } from './inputText';
 export {
   BOHR_MAGNETON,
   ELEMENTARY_CHARGE,

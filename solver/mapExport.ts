@@ -1,4 +1,5 @@
 import { CHANNELS } from './channels';
+import { csvComment, csvText } from './csvText';
 import { modelToJson } from './model';
 import { TOKEN_MEANINGS } from './phaseLabel';
 import type { PhaseMap } from './mapGrid';
@@ -65,30 +66,75 @@ export function mapToJson(map: PhaseMap): Record<string, unknown> {
   };
 }
 
-function csvField(value: string): string {
-  return /[",\n]/.test(value) ? `"${value.replace(/"/g, '""')}"` : value;
+/** One grid row of `values` (row j, every `stride`-th value from `offset`) as a JSON array. */
+function jsonRow(values: ArrayLike<number>, nx: number, j: number, stride = 1, offset = 0): string {
+  const row: number[] = new Array<number>(nx);
+  for (let i = 0; i < nx; i++) row[i] = values[(j * nx + i) * stride + offset]!;
+  return JSON.stringify(row);
 }
 
-/** One row per grid point: coordinates, label, energy, gap and the 15 order parameters. */
-export function mapToCsv(map: PhaseMap): string {
+/** A JSON array written one element at a time. */
+function* jsonArray(count: number, element: (k: number) => string): Generator<string> {
+  yield '[';
+  for (let k = 0; k < count; k++) yield k === 0 ? element(k) : `,${element(k)}`;
+  yield ']';
+}
+
+/**
+ * The `map` document of `mapToJson` as JSON text, in pieces of at most one grid row or one
+ * boundary each, so that a file of any grid size (2048 x 2048 gives some 600 MB) is written with
+ * little memory beyond the map itself: joined, the pieces are exactly
+ * `JSON.stringify(mapToJson(map))`.
+ */
+export function* mapJsonPieces(map: PhaseMap): Generator<string> {
   const [nx, ny] = map.input.plane.resolution;
-  const xName = csvField(map.input.plane.x.label || 'x');
-  const yName = csvField(map.input.plane.y.label || 'y');
-  const lines = [
-    `# ${MEAN_FIELD_CAUTION}`,
-    `# fourfold ${SOFTWARE_VERSION}; model ${JSON.stringify(modelToJson(map.input.model))}`,
-    [xName, yName, 'phase', 'energy', 'gap', ...CHANNELS].join(','),
-  ];
+  const grid = (values: ArrayLike<number>, stride = 1, offset = 0) =>
+    jsonArray(ny, (j) => jsonRow(values, nx, j, stride, offset));
+  yield `{"x":${JSON.stringify(Array.from(map.x))},"y":${JSON.stringify(Array.from(map.y))}`;
+  yield ',"phase":';
+  yield* jsonArray(ny, (j) => JSON.stringify(map.labels.slice(j * nx, (j + 1) * nx)));
+  yield ',"energy":';
+  yield* grid(map.energy);
+  yield ',"gap":';
+  yield* grid(map.gap);
+  yield ',"order":{';
+  for (let k = 0; k < CHANNELS.length; k++) {
+    yield `${k === 0 ? '' : ','}${JSON.stringify(CHANNELS[k])}:`;
+    yield* grid(map.order, 15, k);
+  }
+  yield '},"boundaries":';
+  yield* jsonArray(map.boundaries.length, (k) => JSON.stringify(map.boundaries[k]));
+  yield (
+    `,"phases":${JSON.stringify(legendOf(map.labels))}` +
+    `,"model":${JSON.stringify(modelToJson(map.input.model))}` +
+    `,"plane":${JSON.stringify(map.input.plane)}` +
+    `,"version":${JSON.stringify(SOFTWARE_VERSION)}` +
+    `,"caution":${JSON.stringify(MEAN_FIELD_CAUTION)}}`
+  );
+}
+
+/**
+ * One row per grid point: coordinates, label, energy, gap and the 15 order parameters, under the
+ * caution and the model as `#` lines and a header; one piece per line. Text cells (the axis
+ * names, the labels) are written by `csvText`; numbers as they are.
+ */
+export function* mapCsvPieces(map: PhaseMap): Generator<string> {
+  const [nx, ny] = map.input.plane.resolution;
+  const xName = csvText(map.input.plane.x.label || 'x');
+  const yName = csvText(map.input.plane.y.label || 'y');
+  yield `${csvComment(MEAN_FIELD_CAUTION)}\n`;
+  yield `${csvComment(`fourfold ${SOFTWARE_VERSION}; model ${JSON.stringify(modelToJson(map.input.model))}`)}\n`;
+  yield `${[xName, yName, 'phase', 'energy', 'gap', ...CHANNELS].join(',')}\n`;
   for (let j = 0; j < ny; j++) {
     for (let i = 0; i < nx; i++) {
       const p = j * nx + i;
       const order = Array.from(map.order.subarray(15 * p, 15 * p + 15), (v) => String(v));
-      lines.push(
-        [map.x[i], map.y[j], csvField(map.labels[p]!), map.energy[p], map.gap[p], ...order].join(
-          ',',
-        ),
-      );
+      yield `${[map.x[i], map.y[j], csvText(map.labels[p]!), map.energy[p], map.gap[p], ...order].join(',')}\n`;
     }
   }
-  return lines.join('\n') + '\n';
+}
+
+/** The Map's CSV (`mapCsvPieces`) as one string, for maps small enough to hold as one. */
+export function mapToCsv(map: PhaseMap): string {
+  return [...mapCsvPieces(map)].join('');
 }

@@ -1,4 +1,5 @@
 import { CHANNELS, channelIndex, type Channel } from './channels';
+import { describeInput as describe, fieldKey } from './inputText';
 
 /** Filling factor nu of the zero-energy Landau level; it holds nu + 2 electrons per flux quantum. */
 export type Filling = -1 | 0 | 1;
@@ -55,14 +56,6 @@ export function isPlainObject(value: unknown): value is Record<string, unknown> 
   return typeof value === 'object' && value !== null && !Array.isArray(value);
 }
 
-function describe(value: unknown): string {
-  if (value === null) return 'null';
-  if (Array.isArray(value)) return 'an array';
-  if (typeof value === 'string') return `the string ${JSON.stringify(value.slice(0, 40))}`;
-  if (typeof value === 'number') return String(value);
-  return `a ${typeof value}`;
-}
-
 /** A finite number, or a ModelError naming `field`. */
 export function finiteNumber(value: unknown, field: string): number {
   if (typeof value !== 'number' || !Number.isFinite(value)) {
@@ -75,7 +68,7 @@ function channelName(name: string, field: string): Channel {
   if (channelIndex(name) < 0) {
     const hint = name === '00' ? ' (00 is the SU(4)-symmetric part, not a channel)' : '';
     throw new ModelError(
-      `${field}.${name}: unknown channel${hint}; use two letters from 0 x y z, valley first, e.g. ${CHANNELS.slice(3, 6).join(', ')}`,
+      `${field}.${fieldKey(name)}: unknown channel${hint}; use two letters from 0 x y z, valley first, e.g. ${CHANNELS.slice(3, 6).join(', ')}`,
     );
   }
   return name as Channel;
@@ -94,7 +87,7 @@ function parseCoupling(value: unknown, field: string): ChannelCoupling {
   for (const key of Object.keys(value)) {
     if (key !== 'hartree' && key !== 'fock') {
       throw new ModelError(
-        `${field}.${key}: unknown field; a channel has "fock" and optionally "hartree"`,
+        `${field}.${fieldKey(key)}: unknown field; a channel has "fock" and optionally "hartree"`,
       );
     }
   }
@@ -120,7 +113,7 @@ export function parseModel(json: unknown, where = ''): Model {
   for (const key of Object.keys(json)) {
     if (!MODEL_FIELDS.has(key)) {
       throw new ModelError(
-        `${prefix}${key}: unknown field; a model has filling, channels, zeeman, valleyZeeman, oneBody, exchange, plane`,
+        `${prefix}${fieldKey(key)}: unknown field; a model has filling, channels, zeeman, valleyZeeman, oneBody, exchange, plane`,
       );
     }
   }

@@ -6,6 +6,7 @@ import {
   type CouplingArrays,
   type Couplings,
 } from './couplings';
+import { describeInput, fieldKey } from './inputText';
 import {
   ModelError,
   finiteNumber,
@@ -53,7 +54,7 @@ function parseTarget(name: string, field: string): void {
     (part !== 'hartree' && part !== 'fock')
   ) {
     throw new ModelError(
-      `${field}.${name}: unknown target; use CH.hartree, CH.fock (CH a channel such as x0), zeeman or valleyZeeman`,
+      `${field}.${fieldKey(name)}: unknown target; use CH.hartree, CH.fock (CH a channel such as x0), zeeman or valleyZeeman`,
     );
   }
 }
@@ -62,7 +63,9 @@ function parseAxis(json: unknown, field: string): Axis {
   if (!isPlainObject(json)) throw new ModelError(`${field}: expected an axis object`);
   for (const key of Object.keys(json)) {
     if (!['label', 'from', 'to', 'targets'].includes(key)) {
-      throw new ModelError(`${field}.${key}: unknown field; an axis has label, from, to, targets`);
+      throw new ModelError(
+        `${field}.${fieldKey(key)}: unknown field; an axis has label, from, to, targets`,
+      );
     }
   }
   const label = json.label === undefined ? '' : json.label;
@@ -89,7 +92,7 @@ function parseSide(value: unknown, field: string): number {
     value > MAX_RESOLUTION
   ) {
     throw new ModelError(
-      `${field}: expected an integer from 2 to ${MAX_RESOLUTION}, got ${String(value)}`,
+      `${field}: expected an integer from 2 to ${MAX_RESOLUTION}, got ${describeInput(value)}`,
     );
   }
   return value;
@@ -100,7 +103,9 @@ export function parsePlane(json: unknown, field = 'plane'): Plane {
     throw new ModelError(`${field}: missing or not an object (a map needs a plane)`);
   for (const key of Object.keys(json)) {
     if (!['x', 'y', 'resolution'].includes(key)) {
-      throw new ModelError(`${field}.${key}: unknown field; a plane has x, y, resolution`);
+      throw new ModelError(
+        `${field}.${fieldKey(key)}: unknown field; a plane has x, y, resolution`,
+      );
     }
   }
   const x = parseAxis(json.x, `${field}.x`);

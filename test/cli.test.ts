@@ -554,3 +554,111 @@ describe('fourfold probe', () => {
     expectOneLineError(fourfold('solve', '--model', planeless, '--at', '1,1'), ['--at', 'probe']);
   });
 });
+
+describe('fourfold: every option is used or refused, input is quoted briefly', () => {
+  /** One line on stderr, exit code 2, naming every word of `mentions`. */
+  function expectRefused(run: Run, mentions: string[]): void {
+    expectOneLineError(run, mentions);
+    expect(run.status).toBe(2);
+  }
+
+  test('solve --out writes the JSON there (nothing on stdout); another ending is refused', () => {
+    const model = file('solve-out.model.json', INTERFACES_EXAMPLE);
+    const out = join(dir, 'solve-out.json');
+    const run = fourfold('solve', '--model', model, '--out', out);
+    expect(run.status).toBe(0);
+    expect(run.stdout).toBe('');
+    expect(run.stderr).toBe('');
+    expect(readFileSync(out, 'utf8')).toBe(fourfold('solve', '--model', model).stdout);
+    const txt = join(dir, 'solve-out.txt');
+    expectRefused(fourfold('solve', '--model', model, '--out', txt), ['--out', '.json']);
+    expect(existsSync(txt)).toBe(false);
+  });
+
+  test('an option the command does not take is refused, naming the option and the command', () => {
+    const model = file('refused.model.json', { ...INTERFACES_EXAMPLE, plane: PLANE_24 });
+    const out = join(dir, 'refused.json');
+    const cases: [string[], string][] = [
+      [['solve', '--threads', '2'], '--threads'],
+      [['solve', '--title', 'T'], '--title'],
+      [['solve', '--column', 'double'], '--column'],
+      [['solve', '--from', '0,0'], '--from'],
+      [['probe', '--threads', '2'], '--threads'],
+      [['probe', '--column', 'single'], '--column'],
+      [['probe', '--n', '5'], '--n'],
+      [['cut', '--threads', '2', '--from', '0,0', '--to', '1,1', '--out', out], '--threads'],
+      [['cut', '--at', '0,0', '--from', '0,0', '--to', '1,1', '--out', out], '--at'],
+      [['map', '--at', '0,0', '--out', out], '--at'],
+    ];
+    for (const [[command, ...rest], flag] of cases) {
+      expectRefused(fourfold(command!, '--model', model, ...rest), [flag, command!]);
+    }
+    // A figure's options with a data output: refused, not ignored.
+    expectRefused(fourfold('map', '--model', model, '--out', out, '--title', 'T'), [
+      '--title',
+      '.svg',
+    ]);
+    const csv = join(dir, 'refused.csv');
+    expectRefused(
+      fourfold(
+        'cut',
+        '--model',
+        model,
+        '--from',
+        '0,0',
+        '--to',
+        '1,1',
+        '--out',
+        csv,
+        '--column',
+        'double',
+      ),
+      ['--column', '.svg'],
+    );
+    expect(existsSync(out)).toBe(false);
+    expect(existsSync(csv)).toBe(false);
+  });
+
+  test('a repeated option or a stray argument is refused', () => {
+    const model = file('repeat.model.json', INTERFACES_EXAMPLE);
+    expectRefused(fourfold('solve', '--model', model, '--model', model), ['--model', 'twice']);
+    expectRefused(fourfold('solve', '--model', model, 'extra'), ['"extra"']);
+    expectRefused(fourfold('solve', '--model', model, '--verbose'), ['"--verbose"', 'unknown']);
+  });
+
+  test('a UTF-8 byte order mark before the JSON is accepted', () => {
+    const plain = file('no-bom.json', INTERFACES_EXAMPLE);
+    const withBom = file('bom.json', `\ufeff${JSON.stringify(INTERFACES_EXAMPLE)}`);
+    expect(readFileSync(withBom).subarray(0, 3)).toEqual(Buffer.from([0xef, 0xbb, 0xbf]));
+    const run = fourfold('solve', '--model', withBom);
+    expect(run.stderr).toBe('');
+    expect(run.status).toBe(0);
+    expect(run.stdout).toBe(fourfold('solve', '--model', plain).stdout);
+  });
+
+  test('long input is quoted briefly: every message stays one line of about 120 characters', () => {
+    const long = 'k'.repeat(100_000);
+    const runs = [
+      fourfold('solve', '--model', file('long-key.json', { ...INTERFACES_EXAMPLE, [long]: 1 })),
+      fourfold(
+        'solve',
+        '--model',
+        file('long-channel.json', { filling: 0, channels: { [long]: 1 } }),
+      ),
+      fourfold(
+        'solve',
+        '--model',
+        file('newline-key.json', { filling: 0, ['a\nb'.repeat(50)]: 1 }),
+      ),
+      fourfold('solve', '--model', file('long-string.json', { filling: long })),
+      fourfold('solve', '--model', join(dir, 'p'.repeat(3000))),
+      fourfold('solve', '--model', file('long-ok.json', INTERFACES_EXAMPLE), long.slice(0, 5000)),
+      fourfold('cut', '--model', 'm.json', '--from', `0,${long.slice(0, 5000)}`),
+      fourfold('c'.repeat(5000)),
+    ];
+    for (const run of runs) {
+      expectOneLineError(run, ['\u2026']);
+      expect(run.stderr.trimEnd().length).toBeLessThanOrEqual(125);
+    }
+  });
+});

@@ -1,5 +1,5 @@
 import { useState } from 'react';
-import { mapToCsv, mapToJson, errorLine } from '../../solver/index';
+import { errorLine, mapCsvPieces, mapJsonPieces, textChunks } from '../../solver/index';
 import { useFourfold } from '../store/index';
 import { completeMap } from './completeMap';
 import { downloadBlob, downloadText } from '../download';
@@ -82,11 +82,13 @@ export function FigureBar() {
           setBusy(`${format.toUpperCase()}: solving pixels ${Math.round(100 * fraction)}%`),
         () => useFourfold.getState().map.job === job && useFourfold.getState().map.grid === grid,
       );
-      const text = format === 'csv' ? mapToCsv(map) : JSON.stringify(mapToJson(map));
-      downloadText(
+      // Built from the writers' pieces (as the CLI streams them), never one huge string.
+      const pieces = format === 'csv' ? mapCsvPieces(map) : mapJsonPieces(map);
+      downloadBlob(
         `fourfold-map.${format}`,
-        text,
-        format === 'csv' ? 'text/csv' : 'application/json',
+        new Blob([...textChunks(pieces)], {
+          type: format === 'csv' ? 'text/csv' : 'application/json',
+        }),
       );
     });
 

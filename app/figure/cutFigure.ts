@@ -7,12 +7,12 @@ import {
   FIGURE_INK,
   FIGURE_LINE,
   axisSvg,
-  escapeXml,
   estimateTextWidth,
   figureDocument,
   svgNumber,
   typesetLabel,
 } from './figureStyle';
+import { xmlText } from './xmlText';
 import { labelColours } from './palette';
 
 export interface CutFigureOptions {
@@ -92,7 +92,7 @@ export function cutFigureSvg(cut: CutResult, options: CutFigureOptions = {}): st
     );
     if (estimateTextWidth(seg.label, small) + 4 < x1 - x0) {
       parts.push(
-        `<text x="${svgNumber((x0 + x1) / 2)}" y="${svgNumber(STRIP_PT / 2 + 0.35 * small)}" font-size="${small}" text-anchor="middle" stroke="#ffffff" stroke-width="1.6" paint-order="stroke">${escapeXml(seg.label)}</text>`,
+        `<text x="${svgNumber((x0 + x1) / 2)}" y="${svgNumber(STRIP_PT / 2 + 0.35 * small)}" font-size="${small}" text-anchor="middle" stroke="#ffffff" stroke-width="1.6" paint-order="stroke">${xmlText(seg.label)}</text>`,
       );
     }
   }
@@ -153,7 +153,7 @@ export function cutFigureSvg(cut: CutResult, options: CutFigureOptions = {}): st
     const px = svgNumber(x(tr.s));
     const dash = tr.order === 'continuous' ? ` stroke-dasharray="${FIGURE_LINE.dash}"` : '';
     parts.push(
-      `<path d="M${px},0V${svgNumber(plotsBottom)}"${dash}><title>${escapeXml(`${tr.between[0]} to ${tr.between[1]}, ${tr.order === 'first' ? 'first order' : 'continuous'}, at ${tr.s}`)}</title></path>`,
+      `<path d="M${px},0V${svgNumber(plotsBottom)}"${dash}><title>${xmlText(`${tr.between[0]} to ${tr.between[1]}, ${tr.order === 'first' ? 'first order' : 'continuous'}, at ${tr.s}`)}</title></path>`,
     );
   }
   parts.push('</g>');
@@ -176,7 +176,7 @@ export function cutFigureSvg(cut: CutResult, options: CutFigureOptions = {}): st
     const dash = dashAttribute(s.dash);
     parts.push(
       `<path d="M${svgNumber(cx)},${svgNumber(cy - 0.3 * small)}h14" stroke="${s.colour}" stroke-width="${FIGURE_LINE.curve}"${dash}/>`,
-      `<text x="${svgNumber(cx + 17)}" y="${svgNumber(cy)}">${escapeXml(s.label)}</text>`,
+      `<text x="${svgNumber(cx + 17)}" y="${svgNumber(cy)}">${xmlText(s.label)}</text>`,
     );
   });
   yLegend += Math.ceil(groups.series.length / legendColumns) * (small + 3);
@@ -191,7 +191,7 @@ export function cutFigureSvg(cut: CutResult, options: CutFigureOptions = {}): st
   for (const note of notes) {
     for (const text of wrap(note, plotWidth + left - 4, small)) {
       parts.push(
-        `<text x="${svgNumber(-left + 4)}" y="${svgNumber(yLegend)}">${escapeXml(text)}</text>`,
+        `<text x="${svgNumber(-left + 4)}" y="${svgNumber(yLegend)}">${xmlText(text)}</text>`,
       );
       yLegend += small + 2;
     }

@@ -1,4 +1,5 @@
 import { tickFormat, ticks } from 'd3';
+import { xmlText } from './xmlText';
 
 /**
  * The shared look of Fourfold's exported figures (the Map, the Cut): physical sizes, fonts, line
@@ -53,15 +54,6 @@ export const FIGURE_LINE = {
 
 /** Text colour and line colour: near-black (reads as black in print, softer on screen). */
 export const FIGURE_INK = '#1a1a1a';
-
-/** Escapes text for SVG/XML content and attribute values. */
-export function escapeXml(text: string): string {
-  return text
-    .replace(/&/g, '&amp;')
-    .replace(/</g, '&lt;')
-    .replace(/>/g, '&gt;')
-    .replace(/"/g, '&quot;');
-}
 
 /** A coordinate for SVG output: at most `digits` decimals, no trailing zeros, no '-0'. */
 export function svgNumber(value: number, digits = 2): string {
@@ -169,7 +161,7 @@ export function axisSvg(
   let widest = 0;
   if (options.labels !== false) {
     for (const v of values) {
-      const text = escapeXml(format(v));
+      const text = xmlText(format(v));
       widest = Math.max(widest, estimateTextWidth(format(v), fontSize));
       const p = svgNumber(scale(v));
       if (side === 'bottom')
@@ -321,7 +313,7 @@ export function typesetLabel(label: string, fontSize: number = FIGURE_FONT.size)
     if (/^ | $/.test(piece.text) && (attrs.length > 0 || markup !== '')) {
       attrs.push('xml:space="preserve"');
     }
-    const text = escapeXml(piece.text);
+    const text = xmlText(piece.text);
     markup += attrs.length === 0 ? text : `<tspan ${attrs.join(' ')}>${text}</tspan>`;
     width += estimateTextWidth(
       piece.text,
@@ -351,10 +343,9 @@ export function figureDocument(options: FigureDocumentOptions, body: string): st
   const head = [
     `<svg xmlns="http://www.w3.org/2000/svg" version="1.1" width="${svgNumber(w / PT_PER_CM, 3)}cm" height="${svgNumber(h / PT_PER_CM, 3)}cm" viewBox="0 0 ${svgNumber(w)} ${svgNumber(h)}" font-family="${FIGURE_FONT.family}" font-size="${FIGURE_FONT.size}" fill="${FIGURE_INK}">`,
   ];
-  // Text content needs only &, < and > escaped; quotes stay readable (JSON in <desc>).
-  const text = (s: string) => s.replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;');
-  if (options.title) head.push(`<title>${text(options.title)}</title>`);
-  if (options.description) head.push(`<desc>${text(options.description)}</desc>`);
+  // Element content: quotes stay readable (JSON in <desc>).
+  if (options.title) head.push(`<title>${xmlText(options.title)}</title>`);
+  if (options.description) head.push(`<desc>${xmlText(options.description)}</desc>`);
   head.push(`<rect width="${svgNumber(w)}" height="${svgNumber(h)}" fill="#ffffff"/>`);
   return `${head.join('\n')}\n${body}\n</svg>\n`;
 }

@@ -13,7 +13,6 @@ import {
   FIGURE_LINE,
   axisSvg,
   estimateTextWidth,
-  escapeXml,
   figureDocument,
   svgNumber,
   tickLabelFormat,
@@ -21,6 +20,7 @@ import {
   linearTicks,
   type AxisScale,
 } from './figureStyle';
+import { xmlText } from './xmlText';
 import { EMPTY_COLOUR, labelColours } from './palette';
 import { regionOutlines, type PlanePoint } from './regionOutlines';
 
@@ -179,7 +179,7 @@ export function mapFigureSvg(map: FigureMap, options: MapFigureOptions = {}): st
       .map((loop) => `M${pt(loop[0]!)}L${loop.slice(1).map(pt).join(' ')}Z`)
       .join('');
     regionParts.push(
-      `<path id="region-${n + 1}" d="${d}" fill="${fillOf(region.label)}"><title>${escapeXml(region.label || 'not computed')}</title></path>`,
+      `<path id="region-${n + 1}" d="${d}" fill="${fillOf(region.label)}"><title>${xmlText(region.label || 'not computed')}</title></path>`,
     );
   });
 
@@ -191,7 +191,7 @@ export function mapFigureSvg(map: FigureMap, options: MapFigureOptions = {}): st
     const d = `M${pt(points[0]!)}L${points.slice(1).map(pt).join(' ')}`;
     const dash = b.order === 'continuous' ? ` stroke-dasharray="${FIGURE_LINE.dash}"` : '';
     boundaryParts.push(
-      `<path d="${d}"${dash}><title>${escapeXml(`${b.between.join(' | ')}, ${b.order === 'first' ? 'first order' : 'continuous'}`)}</title></path>`,
+      `<path d="${d}"${dash}><title>${xmlText(`${b.between.join(' | ')}, ${b.order === 'first' ? 'first order' : 'continuous'}`)}</title></path>`,
     );
   }
 
@@ -262,11 +262,11 @@ export function mapFigureSvg(map: FigureMap, options: MapFigureOptions = {}): st
     );
     legendParts.push(
       `<rect x="${svgNumber(legendX)}" y="${svgNumber(y)}" width="${svgNumber(swatch)}" height="${svgNumber(swatch)}" fill="${fillOf(entry.label)}" stroke="${FIGURE_INK}" stroke-width="${FIGURE_LINE.tick}"/>`,
-      `<text x="${svgNumber(legendX + swatch + 0.6 * fs)}" y="${svgNumber(y + 0.82 * fs)}">${escapeXml(entry.label || '-')}</text>`,
+      `<text x="${svgNumber(legendX + swatch + 0.6 * fs)}" y="${svgNumber(y + 0.82 * fs)}">${xmlText(entry.label || '-')}</text>`,
     );
     meaning.forEach((line, n) =>
       legendParts.push(
-        `<text x="${svgNumber(legendX + swatch + 0.6 * fs + labelColumn)}" y="${svgNumber(y + 0.82 * fs + n * 1.15 * small)}" font-size="${small}">${escapeXml(line)}</text>`,
+        `<text x="${svgNumber(legendX + swatch + 0.6 * fs + labelColumn)}" y="${svgNumber(y + 0.82 * fs + n * 1.15 * small)}" font-size="${small}">${xmlText(line)}</text>`,
       ),
     );
     y += Math.max(lineHeight, 1.15 * small * meaning.length + 0.3 * fs);

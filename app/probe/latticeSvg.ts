@@ -1,4 +1,5 @@
 import type { ProbeReport } from '../../solver/index';
+import { xmlText } from '../figure/xmlText';
 import { latticePicture, type LatticeBond, type LatticeSite } from './latticePicture';
 
 /** Pixels per carbon-carbon distance. */
@@ -17,10 +18,6 @@ export const LATTICE_COLOURS = {
   arrow: '#1d2126',
   cell: '#6d737a',
 } as const;
-
-function escapeXml(text: string): string {
-  return text.replace(/[<>&"']/g, (c) => `&#${c.charCodeAt(0)};`);
-}
 
 function n(x: number): string {
   return Number(x.toFixed(2)).toString();
@@ -167,14 +164,14 @@ export function latticeSvg(report: ProbeReport, title?: string): string {
     `<g font-family="Helvetica, Arial, sans-serif" font-size="11" fill="#24272b">${legend
       .map(
         (line, k) =>
-          `<text x="${MARGIN}" y="${n(plotHeight + 4 + (k + 0.8) * LEGEND_LINE)}">${escapeXml(line)}</text>`,
+          `<text x="${MARGIN}" y="${n(plotHeight + 4 + (k + 0.8) * LEGEND_LINE)}">${xmlText(line)}</text>`,
       )
       .join('')}</g>`,
   ];
   return (
     `<?xml version="1.0" encoding="UTF-8"?>\n` +
     `<svg xmlns="http://www.w3.org/2000/svg" version="1.1" width="${n(width)}" height="${n(height)}" viewBox="0 0 ${n(width)} ${n(height)}">` +
-    `<title>Fourfold Probe lattice picture: ${escapeXml(report.state.phase)}</title>` +
+    `<title>Fourfold Probe lattice picture: ${xmlText(report.state.phase)}</title>` +
     body.join('') +
     `</svg>\n`
   );

@@ -1,5 +1,5 @@
 import type { ChangeEvent } from 'react';
-import { ModelError, errorLine } from '../../solver/index';
+import { ModelError, QUOTED_PATH_LENGTH, errorLine, quoteInput } from '../../solver/index';
 import { useFourfold } from '../store/index';
 import { DEMO_SETUP } from './demo';
 import { SCENARIO_FILE_MAX_BYTES, downloadScenarioFile, parseScenarioFile } from './scenarioFile';
@@ -10,10 +10,12 @@ import './scenarioBar.css';
 
 async function loadScenarioFile(file: File): Promise<void> {
   const { setNotice, replaceSetup, replacePins } = useFourfold.getState();
+  // The file's name in messages: quoted, at most 80 characters of it.
+  const name = quoteInput(file.name, QUOTED_PATH_LENGTH);
   if (file.size > SCENARIO_FILE_MAX_BYTES) {
     setNotice({
       kind: 'error',
-      text: `${file.name}: ${file.size} bytes is far more than a scenario (a few kilobytes); the setup is unchanged`,
+      text: `${name}: ${file.size} bytes is far more than a scenario (a few kilobytes); the setup is unchanged`,
     });
     return;
   }
@@ -21,17 +23,17 @@ async function loadScenarioFile(file: File): Promise<void> {
   try {
     text = await file.text();
   } catch (error) {
-    setNotice({ kind: 'error', text: `${file.name}: could not be read (${errorLine(error)})` });
+    setNotice({ kind: 'error', text: `${name}: could not be read (${errorLine(error)})` });
     return;
   }
   try {
-    const fitted = fitSetupToApp(parseScenarioFile(text, file.name));
-    const pins = pinsOfScenarioText(text, file.name);
+    const fitted = fitSetupToApp(parseScenarioFile(text, name));
+    const pins = pinsOfScenarioText(text, name);
     replaceSetup(fitted.setup);
     if (pins !== null) replacePins(pins);
     setNotice({
       kind: 'info',
-      text: fitted.note === null ? `Loaded ${file.name}.` : `Loaded ${file.name}: ${fitted.note}.`,
+      text: fitted.note === null ? `Loaded ${name}.` : `Loaded ${name}: ${fitted.note}.`,
     });
   } catch (error) {
     if (!(error instanceof ModelError)) throw error;

@@ -2,6 +2,7 @@ import {
   CHANNELS,
   ModelError,
   channelIndex,
+  fieldKey,
   isPlainObject,
   type Channel,
 } from '../../solver/index';
@@ -53,7 +54,7 @@ function parsePhysical(raw: unknown): PhysicalSetup {
   for (const key of Object.keys(raw)) {
     if (!(key in DEFAULT_PHYSICAL)) {
       throw new ModelError(
-        `${field}.${key}: unknown field; physical units have ${Object.keys(DEFAULT_PHYSICAL).join(', ')}`,
+        `${field}.${fieldKey(key)}: unknown field; physical units have ${Object.keys(DEFAULT_PHYSICAL).join(', ')}`,
       );
     }
   }
@@ -68,13 +69,13 @@ function parseRanges(raw: unknown): Partial<Record<Channel, RangeSetup>> {
   if (!isPlainObject(raw)) throw new ModelError(`${field}: expected an object of channels`);
   const out: Partial<Record<Channel, RangeSetup>> = {};
   for (const [ch, value] of Object.entries(raw)) {
-    if (channelIndex(ch) < 0) throw new ModelError(`${field}.${ch}: unknown channel`);
+    if (channelIndex(ch) < 0) throw new ModelError(`${field}.${fieldKey(ch)}: unknown channel`);
     if (!isPlainObject(value)) {
       throw new ModelError(`${field}.${ch}: expected { "profile", "strength", "range" }`);
     }
     for (const key of Object.keys(value)) {
       if (key !== 'profile' && key !== 'strength' && key !== 'range')
-        throw new ModelError(`${field}.${ch}.${key}: unknown field`);
+        throw new ModelError(`${field}.${ch}.${fieldKey(key)}: unknown field`);
     }
     const range = { profile: value.profile, strength: value.strength, range: value.range };
     const problem = rangeProblem(range as RangeSetup, `${field}.${ch}`);
