@@ -34,7 +34,7 @@ const solverBoundary = {
 
 export default defineConfig(
   {
-    ignores: ['dist/', 'dist-*/', 'node_modules/', 'playwright-report/', 'test-results/'],
+    ignores: ['dist/', 'dist-*/', 'node_modules/', 'playwright-report/', 'test-results/', '.look/'],
   },
   {
     linterOptions: { reportUnusedDisableDirectives: 'error' },
