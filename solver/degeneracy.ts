@@ -1,11 +1,11 @@
-import { CHANNELS, G_COL, G_IM, G_RE, type Channel } from './channels';
+import { CHANNELS, G_COL, G_IM, G_RE, channelIndex, type Channel } from './channels';
 import type { Couplings } from './couplings';
 import { isSymmetry, orbitTangent } from './goldstoneModes';
 import { choleskySolve, symmetricEigen } from './linalg';
 import { DEFAULT_DESCENT, descend } from './localMinimise';
 import { DEFAULT_MINIMISE, minimiseEnergy } from './minimise';
 import { energyOfOrder } from './couplings';
-import { presentGroupCount } from './orderParameters';
+import { ORDER_GROUPS, presentGroupCount } from './orderParameters';
 import { seedLibrary } from './seeds';
 import { ORDER_TOLERANCE, phaseLabel } from './phaseLabel';
 import { orderOfProjector, projectorOf } from './state';
@@ -34,6 +34,48 @@ export const SOFT_CURVATURE = 1e-9;
  * scale are not overturned.
  */
 const PROBE_FIELD = 1e-3;
+
+/**
+ * Weaker probes that follow the first: a state the first probe moved along a flat direction
+ * by an amount that vanishes with the probe (an admixture of order PROBE_FIELD, which would
+ * name an extra group) is brought back towards the limit member, a hundredfold each step.
+ */
+const FOLLOW_UP_PROBES = [1e-5];
+
+/**
+ * Order-parameter groups below this magnitude in a degenerate state are candidates for removal:
+ * where the family lets them vanish at no cost, the simpler member is reported.
+ */
+const SMALL_GROUP = 1e-3;
+
+/** Stiffness (relative to the coupling scale) of the penalty that removes such groups. */
+const CLEANING_STIFFNESS = 1e-3;
+
+/**
+ * Descends `frame` under the probes of decreasing strength, then under a small penalty on the
+ * order-parameter groups that are nearly zero (a family member where they vanish costs nothing
+ * more, so it is the one reported; where they are part of the ground state the last descent
+ * under the true couplings restores them), then under the true couplings.
+ */
+function followProbes(c: Couplings, frame: Float64Array, ws: DescentWorkspace) {
+  for (const strength of FOLLOW_UP_PROBES) {
+    descend(probeCouplings(c, strength), frame, DEFAULT_DESCENT, ws);
+  }
+  frameEnergy(c, frame, ws, ws.order);
+  const kappa = Float64Array.from(c.kappa);
+  let small = false;
+  for (const group of GROUP_CHANNELS) {
+    let sum = 0;
+    for (const k of group) sum += ws.order[k]! * ws.order[k]!;
+    if (sum === 0 || sum >= SMALL_GROUP * SMALL_GROUP) continue;
+    small = true;
+    for (const k of group) kappa[k] = kappa[k]! + 2 * CLEANING_STIFFNESS * c.scale;
+  }
+  if (small) descend({ ...c, kappa }, frame, DEFAULT_DESCENT, ws);
+  return descend(c, frame, DEFAULT_DESCENT, ws);
+}
+
+const GROUP_CHANNELS = ORDER_GROUPS.map((g) => g.channels.map(channelIndex));
 
 /**
  * Order in which components decide between degenerate states the vanishing fields leave
@@ -93,9 +135,12 @@ export function softDirections(c: Couplings, frame: Float64Array): number {
   return soft;
 }
 
-/** Couplings with the vanishing fields that choose among degenerate states (see PROBE_FIELD). */
-export function probeCouplings(c: Couplings): Couplings {
-  const a = PROBE_FIELD * c.scale;
+/**
+ * Couplings with the vanishing fields that choose among degenerate states, of relative strength
+ * `strength` (see PROBE_FIELD).
+ */
+export function probeCouplings(c: Couplings, strength = PROBE_FIELD): Couplings {
+  const a = strength * c.scale;
   let largest = 0;
   for (let k = 1; k < 16; k++) largest = Math.max(largest, Math.abs(c.eta[k]!));
   const amplify = largest > 0 && largest < a ? a / largest : 1;
@@ -179,7 +224,7 @@ export function selectRepresentative(
   let best: Candidate | undefined;
   for (const start of starts) {
     const candidate = Float64Array.from(start);
-    const relaxed = descend(c, candidate, stay, ws);
+    const relaxed = followProbes(c, candidate, ws);
     if (!relaxed.converged || relaxed.energy > energy + tolerance) continue;
     const found = {
       frame: candidate,
@@ -251,4 +296,44 @@ function rotateFrame(frame: Float64Array, g: number, angle: number): Float64Arra
     }
   }
   return out;
+}
+
+/**
+ * The Map's light version of `selectRepresentative` for a pixel whose state `frames[0]` is
+ * degenerate (soft, or tied with the other frames): each frame descends under the vanishing
+ * fields of `probeCouplings` (which move it along its family to the member they select), the
+ * lowest under them is kept (ties: fewer groups, then CANONICAL_ORDER), and a last descent under
+ * the true couplings removes what the fields induced. A pixel continued from a neighbour that
+ * already holds the selected member costs one or two Newton steps more. Result in `frames[0]`'s
+ * place is returned; `energy` is the pixel's energy (frames that end above it are ignored).
+ */
+export function settleDegenerate(
+  c: Couplings,
+  frames: readonly Float64Array[],
+  energy: number,
+  ws: DescentWorkspace,
+): Float64Array {
+  const probe = probeCouplings(c);
+  const tolerance = DEGENERACY_TOLERANCE * c.scale;
+  let best: (Candidate & { probeEnergy: number }) | undefined;
+  for (const start of frames) {
+    const frame = Float64Array.from(start);
+    const moved = descend(probe, frame, DEFAULT_DESCENT, ws);
+    const relaxed = followProbes(c, frame, ws);
+    if (!relaxed.converged || relaxed.energy > energy + tolerance) continue;
+    const found = {
+      frame,
+      order: Float64Array.from(ws.order),
+      groups: presentGroupCount(ws.order, ORDER_TOLERANCE),
+      probeEnergy: moved.energy,
+    };
+    if (
+      best === undefined ||
+      found.probeEnergy < best.probeEnergy - tolerance ||
+      (found.probeEnergy <= best.probeEnergy + tolerance && preferred(found, best))
+    ) {
+      best = found;
+    }
+  }
+  return best?.frame ?? Float64Array.from(frames[0]!);
 }

@@ -62,7 +62,7 @@ const SHORT_STEP = 0.05;
  * it. A Newton step on such a gradient along a flat direction (a degenerate family) would only
  * move the state at random, so a descent stops there.
  */
-const GRADIENT_NOISE = 1e-14;
+const GRADIENT_NOISE = 1e-15;
 /** Order parameters within this (max norm) of a known minimum, in its quadratic regime. */
 const SAME_BASIN = 1e-2;
 

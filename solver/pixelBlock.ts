@@ -1,5 +1,5 @@
 import { energyOfOrder, type Couplings } from './couplings';
-import { DEGENERACY_TOLERANCE } from './degeneracy';
+import { DEGENERACY_TOLERANCE, settleDegenerate, softDirections } from './degeneracy';
 import { FrozenStates } from './frozenStates';
 import { searchGroundState } from './groundSearch';
 import { orderOfProjector, projectorOf } from './state';
@@ -270,13 +270,21 @@ class PixelSolver {
    * converged minimum or a fixed state lies below it, the pixel gets the full search of a
    * single point instead (counted in the block).
    */
-  certify(i: number, j: number, block: PixelBlock): void {
+  certify(i: number, j: number, block: PixelBlock, ties: readonly Float64Array[] = []): void {
     const c = this.at(i, j);
     const [nx, ny] = this.input.plane.resolution;
     const x = axisValue(this.input.plane.x, nx, i);
     const y = axisValue(this.input.plane.y, ny, j);
     const lower = this.frozen.below(x, y, this.energy, c.scale);
-    if (lower === undefined && this.converged) return;
+    if (lower === undefined && this.converged) {
+      // A degenerate state (a soft family, or a tie between branches): the member the
+      // vanishing fields select, as the single-point search reports it.
+      if (ties.length > 0 || softDirections(c, this.best) > 0) {
+        this.best.set(settleDegenerate(c, [this.best, ...ties], this.energy, this.ws));
+        this.at(i, j);
+      }
+      return;
+    }
     const warmStarts: Float64Array[] = [Float64Array.from(this.best)];
     if (lower !== undefined) warmStarts.push(lower);
     const search = searchGroundState(c, DEFAULT_MINIMISE, { warmStarts });
@@ -367,7 +375,18 @@ class PixelSolver {
         this.best.set(store.frames.subarray(32 * pick, 32 * pick + 32));
         this.energy = store.energy[pick]!;
         this.converged = store.converged[pick] === 1;
-        this.certify(i, j, block);
+        const ties: Float64Array[] = [];
+        for (let k = 0; k < branches; k++) {
+          const slot = k * size + local;
+          if (
+            slot !== pick &&
+            store.converged[slot] === 1 &&
+            store.energy[slot]! <= this.energy + DEGENERACY_TOLERANCE * scale
+          ) {
+            ties.push(store.frames.subarray(32 * slot, 32 * slot + 32));
+          }
+        }
+        this.certify(i, j, block, ties);
         this.store(block, (j - block.j0) * blockWidth + (i - block.i0));
       }
     }

@@ -50,6 +50,7 @@ export function hartreeFockOfOrder(
   c: Couplings,
   order: Float64Array,
   out: Float64Array,
+  withIdentity = true,
 ): Float64Array {
   out.fill(0);
   for (let k = 1; k < MATRIX_COUNT; k++) {
@@ -61,6 +62,6 @@ export function hartreeFockOfOrder(
       out[idx + 1] = out[idx + 1]! + mu * G_IM[4 * k + r]!;
     }
   }
-  for (let r = 0; r < 4; r++) out[10 * r] = out[10 * r]! + c.identityShift;
+  if (withIdentity) for (let r = 0; r < 4; r++) out[10 * r] = out[10 * r]! + c.identityShift;
   return out;
 }

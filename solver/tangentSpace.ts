@@ -59,14 +59,17 @@ export function frameEnergy(
 
 /**
  * Gradient and Hessian in tangent coordinates at `frame` (ws.gradient, ws.hessian), given its
- * order parameters in ws.order. Also leaves M = U^dagger H_HF U in ws.m.
+ * order parameters in ws.order. Also leaves M = U^dagger H_HF U in ws.m, without the identity
+ * part of H_HF.
  */
 export function tangentModel(c: Couplings, frame: Float64Array, ws: DescentWorkspace): void {
   const nf = c.nf;
   const ne = 4 - nf;
   const d = 2 * nf * ne;
   const { hamiltonian: h, hu, m, w, gradient: g, hessian: k } = ws;
-  hartreeFockOfOrder(c, ws.order, h);
+  // The identity part of H_HF drops out of the gradient and the Hessian; left out, it adds no
+  // rounding noise to them (it can be several times the coupling scale).
+  hartreeFockOfOrder(c, ws.order, h, false);
   multiplyFrame(h, frame, 4, hu);
   // m[2 (4 a + b)] = u_a^dagger H u_b
   for (let a = 0; a < 4; a++) {
