@@ -7,6 +7,7 @@ import { PinSummary } from './probe/PinSummary';
 import { ProbePanel } from './probe/ProbePanel';
 import { startProbeDriver } from './probe/probeDriver';
 import { CutPanel } from './cut/CutPanel';
+import { DrawingNote } from './cut/DrawingNote';
 import { FigureBar } from './figure/FigureBar';
 import { Readout } from './readout/Readout';
 import { NoticeLine } from './scenario/NoticeLine';
@@ -42,6 +43,7 @@ export function App() {
         <section className="panel map-column" aria-labelledby="map-heading">
           <h2 id="map-heading">Map</h2>
           <MapView />
+          <DrawingNote />
           <MapStatus />
           <Legend />
           <FigureBar />

@@ -10,7 +10,7 @@ import {
   groupMagnitudes,
   orderAngles,
 } from '../../solver/index';
-import { formatFixed } from '../format';
+import { formatDegrees, formatFixed } from '../format';
 import { useFourfold } from '../store/index';
 import { AxisName } from './AxisName';
 
@@ -121,9 +121,7 @@ export function Readout() {
             {bond > ORDER_TOLERANCE && (
               <div>
                 <dt>Bond-order phase arg(o_x0 + i o_y0)</dt>
-                <dd data-testid="readout-bond-phase">
-                  {formatFixed(angles.bondPhase * DEGREES, 2)}°
-                </dd>
+                <dd data-testid="readout-bond-phase">{formatDegrees(angles.bondPhase, 2)}°</dd>
                 {isSymmetry(
                   couplingsOf(modelAtPoint(grid.input, grid.x[hover.i]!, grid.y[hover.j]!)),
                   VALLEY_ROTATION,
