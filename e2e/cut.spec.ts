@@ -1,6 +1,6 @@
 import { readFileSync } from 'node:fs';
 import { expect, test, type Page } from '@playwright/test';
-import { DEMO, failOnConsoleErrors, mapDone, pointAt } from './demoPage';
+import { BUSY_MACHINE_MS, DEMO, failOnConsoleErrors, mapDone, pointAt } from './demoPage';
 
 failOnConsoleErrors();
 
@@ -12,7 +12,7 @@ const BOUNDARY_X = -DEMO.zeeman / 4;
 
 async function cutDone(page: Page): Promise<void> {
   await expect(page.getByTestId('cut-status')).toHaveAttribute('data-status', 'done', {
-    timeout: 30_000,
+    timeout: BUSY_MACHINE_MS,
   });
 }
 
@@ -40,8 +40,10 @@ test('a Cut dragged across the F/CAF boundary finds it at uPerp = -E_Z / 4, cont
   await mapDone(page);
   await page.getByTestId('cut-draw').click();
   await expect(page.getByTestId('cut-draw')).toHaveAttribute('aria-pressed', 'true');
-  // The button sits below the Map: bring the Map back into view before dragging on it.
+  // The button sits below the Map: bring the Map back into view before dragging on it. The Map
+  // says beside it that a press draws now.
   await page.getByTestId('map-plot').scrollIntoViewIfNeeded();
+  await expect(page.getByTestId('map-drawing-note')).toBeVisible();
   const [x0, y0] = await pointAt(page, -1, 1.5);
   const [x1, y1] = await pointAt(page, 1, 1.2);
   await page.mouse.move(x0, y0);
@@ -50,6 +52,10 @@ test('a Cut dragged across the F/CAF boundary finds it at uPerp = -E_Z / 4, cont
   await expect(page.getByTestId('map-cut-draft')).toBeVisible();
   await page.mouse.move(x1, y1, { steps: 4 });
   await page.mouse.up();
+  // One line per press of the button: the Map is back to pinning, and the release pinned nothing.
+  await expect(page.getByTestId('cut-draw')).toHaveAttribute('aria-pressed', 'false');
+  await expect(page.getByTestId('map-drawing-note')).toHaveCount(0);
+  await expect(page.locator('[data-testid^="map-pin-"]')).toHaveCount(0);
   await cutDone(page);
   await expect(page.getByTestId('map-cut-line')).toBeVisible();
   const found = await transitions(page);
@@ -81,6 +87,20 @@ test('a Cut dragged across the F/CAF boundary finds it at uPerp = -E_Z / 4, cont
   expect(svg).toContain('<svg xmlns="http://www.w3.org/2000/svg"');
   const lines = /<g class="transitions"[^>]*>([\s\S]*?)<\/g>/.exec(svg)![1]!;
   expect(lines.match(/stroke-dasharray/g)).toHaveLength(1);
+
+  // Escape leaves the drawing mode without a line; a click on the Map then pins a point.
+  const drawn = await page.getByTestId('cut-status').getAttribute('data-path');
+  expect(drawn).toMatch(/^line:/);
+  await page.getByTestId('cut-draw').click();
+  await expect(page.getByTestId('map-drawing-note')).toBeVisible();
+  await page.keyboard.press('Escape');
+  await expect(page.getByTestId('cut-draw')).toHaveAttribute('aria-pressed', 'false');
+  await expect(page.getByTestId('map-drawing-note')).toHaveCount(0);
+  await page.getByTestId('map-plot').scrollIntoViewIfNeeded();
+  const [px, py] = await pointAt(page, 0.5, 1.5);
+  await page.mouse.click(px, py);
+  await expect(page.getByTestId('map-pin-1')).toBeVisible();
+  await expect(page.getByTestId('cut-status')).toHaveAttribute('data-path', drawn!);
 });
 
 test('a Cut typed end to end, then a tilt sweep at a pin, read their transitions', async ({
@@ -119,7 +139,7 @@ test('a Cut typed end to end, then a tilt sweep at a pin, read their transitions
   await cut.getByTestId('cut-start-sweep').click();
   await cut.getByTestId('cut-sweep-to').fill('85');
   await expect(cut.getByTestId('cut-status')).toHaveAttribute('data-path', 'tilt:0:85', {
-    timeout: 30_000,
+    timeout: BUSY_MACHINE_MS,
   });
   await cutDone(page);
   await expect(cut.getByTestId('cut-transition')).toHaveCount(1);

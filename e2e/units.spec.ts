@@ -6,11 +6,6 @@ const SHOTS = process.env.FOURFOLD_E2E_SHOTS ?? 'test-results/screenshots';
 
 failOnConsoleErrors();
 
-test.beforeEach(() => {
-  // Each test maps the 256 x 256 demo plane several times; the machine may be shared.
-  test.setTimeout(120_000);
-});
-
 // CODATA 2018 (E. Tiesinga et al., Rev. Mod. Phys. 93, 025010 (2021)); e and h exact in the SI.
 const E = 1.602176634e-19;
 const HBAR = 6.62607015e-34 / (2 * Math.PI);
