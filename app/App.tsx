@@ -31,6 +31,15 @@ export function App() {
         <div className="title">
           <h1>Fourfold</h1>
           <p>Hartree-Fock ground states of graphene&rsquo;s zero-energy Landau level</p>
+          <a
+            className="notes-link"
+            href="notes.html"
+            target="_blank"
+            rel="noopener"
+            data-testid="notes-link"
+          >
+            Model notes
+          </a>
         </div>
         <ScenarioBar />
       </header>

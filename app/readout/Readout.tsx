@@ -20,7 +20,8 @@ const VALLEY_ROTATION = 12;
 
 /**
  * The state under the pointer: position, phase label, energy, gap, and the order parameters
- * grouped as in model.md section 6 with the angles that mean something (canting, bond phase).
+ * grouped as in public/notes.html#order-parameters with the angles that mean something (canting,
+ * bond phase).
  */
 export function Readout() {
   const hover = useFourfold((s) => s.view.hover);
@@ -135,7 +136,9 @@ export function Readout() {
             )}
           </dl>
           <table className="group-table">
-            <caption>Order parameters by symmetry group (model.md section 6)</caption>
+            {/* The readout lives only while the pointer is over the Map: no link here (the
+                header's Model notes link leads to the same heading). */}
+            <caption>Order parameters by symmetry group (Model notes: Order parameters)</caption>
             <tbody>
               {ORDER_GROUPS.map((g, k) => {
                 const present = magnitudes[k]! > ORDER_TOLERANCE;
