@@ -5,9 +5,10 @@ import { BUSY_MACHINE_MS, DEMO, failOnConsoleErrors, mapDone, pointAt } from './
 failOnConsoleErrors();
 
 // The demo's F/CAF boundary: CAF exists while E_Z < 4 |uPerp_F| and merges continuously into F
-// at E_Z = 4 |uPerp_F| (model.md section 5; Phys. Rev. B 85, 155439 (2012), whose Zeeman symbol
-// differs from our full splitting by a factor): uPerp = -E_Z / 4 = -0.15 at E_Z = 0.6, whatever
-// uZ is and whatever the Hartree ratios are (the CAF and F energies hold only Fock couplings).
+// at E_Z = 4 |uPerp_F| (public/notes.html#closed-forms; Phys. Rev. B 85, 155439 (2012), whose
+// Zeeman symbol differs from our full splitting by a factor): uPerp = -E_Z / 4 = -0.15 at E_Z =
+// 0.6, whatever uZ is and whatever the Hartree ratios are (the CAF and F energies hold only Fock
+// couplings).
 const BOUNDARY_X = -DEMO.zeeman / 4;
 
 async function cutDone(page: Page): Promise<void> {
@@ -129,7 +130,8 @@ test('a Cut typed end to end, then a tilt sweep at a pin, read their transitions
   await cut.getByTestId('cut-to-x').fill('1');
 
   // Pin a CAF point, then sweep the tilt there: E_Z = E_Z_perp / cos(theta) reaches
-  // 4 |uPerp_F| at cos(theta) = E_Z_perp / (4 |uPerp_F|) (model.md sections 5 and 9).
+  // 4 |uPerp_F| at cos(theta) = E_Z_perp / (4 |uPerp_F|) (public/notes.html#closed-forms and
+  // public/notes.html#units).
   await page.getByTestId('map-plot').scrollIntoViewIfNeeded();
   const [px, py] = await pointAt(page, -1, 1.5);
   await page.mouse.click(px, py);

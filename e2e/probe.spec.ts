@@ -44,7 +44,7 @@ test('a clicked point shows the same ground state as `npm run --silent solve`', 
 }) => {
   await page.goto('/');
   await mapDone(page);
-  // A CAF point of the demo (closed form in model.md section 5: cos(theta) = E_Z / (4 |uPerp_F|)).
+  // A CAF point of the demo: cos(theta) = E_Z / (4 |uPerp_F|) (public/notes.html#closed-forms).
   await pinAt(page, -0.7, 0.9);
   const details = page.getByTestId('probe-details');
   await expect(details).toBeVisible({ timeout: BUSY_MACHINE_MS });
@@ -179,7 +179,8 @@ test('a point pinned by typed coordinates; bad entries are named and pin nothing
   await expect(page.getByTestId('probe-details')).toHaveAttribute('data-phase', 'KD', {
     timeout: BUSY_MACHINE_MS,
   });
-  // KD: E = 2 uPerp_H - uPerp_F (model.md section 5) with the demo's uPerp_H = 1.2 uPerp_F.
+  // KD: E = 2 uPerp_H - uPerp_F with the demo's uPerp_H = 1.2 uPerp_F
+  // (public/notes.html#closed-forms).
   const energy = Number(await page.getByTestId('probe-energy').getAttribute('data-value'));
   expect(energy).toBeCloseTo(2 * DEMO.ratioPerp * -1.5 - -1.5, 9);
 });

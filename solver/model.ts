@@ -11,9 +11,9 @@ export interface ChannelCoupling {
 }
 
 /**
- * One Hartree-Fock problem (model.md section 4): couplings per channel, Zeeman energy E_Z (full
- * spin splitting), sublattice splitting Delta_V (positive lowers K, sublattice A), optional extra
- * one-body terms `sum c_ab G_ab` and the Coulomb exchange E_X (only shifts the gap).
+ * One Hartree-Fock problem (public/notes.html#energy): couplings per channel, Zeeman energy E_Z
+ * (full spin splitting), sublattice splitting Delta_V (positive lowers K, sublattice A), optional
+ * extra one-body terms `sum c_ab G_ab` and the Coulomb exchange E_X (only shifts the gap).
  * All energies in one unit of the user's choice.
  */
 export interface Model {

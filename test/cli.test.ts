@@ -192,7 +192,7 @@ function expectProjector({ re, im }: SolveOutput['projector'], nf: number): void
 }
 
 describe('fourfold solve (interfaces.md)', () => {
-  test('the interfaces.md example is CAF with E = -uZ_F - E_Z^2/(8|uPerp_F|) = -2.02 (model.md section 5, derived)', () => {
+  test('the interfaces.md example is CAF with E = -uZ_F - E_Z^2/(8|uPerp_F|) = -2.02 (public/notes.html#closed-forms, derived)', () => {
     const result = solveJson(INTERFACES_EXAMPLE) as SolveOutput;
     expect(Math.abs(result.energy - -2.02)).toBeLessThan(1e-12);
     expect(result.phase).toBe('CAF');
@@ -218,7 +218,7 @@ describe('fourfold solve (interfaces.md)', () => {
 
   test('an array of two models gives an array of two results in the same order', () => {
     // E_Z = 5 > 4 |uPerp_F| puts the second model in F: E = -2 uPerp_F - uZ_F - E_Z = -5
-    // (model.md section 5, derived).
+    // (public/notes.html#closed-forms, derived).
     const ferromagnet = { ...INTERFACES_EXAMPLE, zeeman: 5 };
     const results = solveJson([ferromagnet, INTERFACES_EXAMPLE]) as SolveOutput[];
     expect(Array.isArray(results)).toBe(true);
@@ -308,8 +308,9 @@ describe('fourfold map on the interfaces.md plane at 24 x 24 (E_Z = 0.4)', () =>
       map.phase[j]!.forEach((label) => expect(label).toMatch(/^[A-Za-z0-9+]+$/));
       map.energy[j]!.forEach((e) => expect(Number.isFinite(e)).toBe(true));
     }
-    // phase[j][i] sits at (x[i], y[j]). Closed forms of model.md section 5 (derived), at points
-    // away from the boundaries of model.md section 10 (Phys. Rev. B 85, 155439 (2012)):
+    // phase[j][i] sits at (x[i], y[j]). Closed forms of public/notes.html#closed-forms (derived),
+    // at points away from the boundaries of public/notes.html#checks (Phys. Rev. B 85, 155439
+    // (2012)):
     const at = (i: number, j: number) => ({ phase: map.phase[j]![i]!, energy: map.energy[j]![i]! });
     // (uPerp, uZ) = (-13/12, 23/12): CAF, E = -uZ - E_Z^2 / (8 |uPerp|).
     expect(at(5, 23).phase).toBe('CAF');
@@ -339,8 +340,8 @@ describe('fourfold map on the interfaces.md plane at 24 x 24 (E_Z = 0.4)', () =>
         expect(y).toBeLessThanOrEqual(2);
       }
     }
-    // F/CAF is continuous (model.md section 5, derived); CAF/KD is first order (Phys. Rev. B 85,
-    // 155439 (2012), recalled from memory).
+    // F/CAF is continuous (public/notes.html#closed-forms, derived); CAF/KD is first order (Phys.
+    // Rev. B 85, 155439 (2012), recalled from memory).
     const pairs = (a: string, b: string) =>
       map.boundaries.filter((x) => [...x.between].sort().join('|') === [a, b].sort().join('|'));
     expect(pairs('CAF', 'F').length).toBeGreaterThan(0);
@@ -419,7 +420,8 @@ describe('fourfold cut (a straight line of the plane)', () => {
     expect([cut.x[0], cut.y[0], cut.x[119], cut.y[119]]).toEqual([-1.9, 1.2, 1.9, -1.4]);
     expect(Object.keys(cut.groups)).toHaveLength(8);
     expect(cut.caution).toContain('Mean-field');
-    // KD (E = uPerp) at the start, F (E = -2 uPerp - uZ - E_Z) at the end: model.md section 5.
+    // KD (E = uPerp) at the start, F (E = -2 uPerp - uZ - E_Z) at the end:
+    // public/notes.html#closed-forms.
     expect(cut.phase[0]).toBe('KD');
     expect(cut.energy[0]).toBeCloseTo(-1.9, 12);
     expect(cut.cantingDeg[0]).toBeNull();
@@ -429,7 +431,7 @@ describe('fourfold cut (a straight line of the plane)', () => {
     expect(cut.slope[0]).toBeCloseTo(3.8, 12);
     expect(cut.slope[119]).toBeCloseTo(-5, 12);
     // KD -> CAF (first order), then CAF -> F (continuous) at uPerp = -E_Z / 4 = -0.1
-    // (model.md section 5; Phys. Rev. B 85, 155439 (2012)).
+    // (public/notes.html#closed-forms; Phys. Rev. B 85, 155439 (2012)).
     expect(cut.transitions.map((t) => [...t.between, t.order])).toEqual([
       ['KD', 'CAF', 'first'],
       ['CAF', 'F', 'continuous'],
@@ -517,7 +519,7 @@ describe('fourfold probe', () => {
     expect(probe.state.energy).toBe(solve.energy);
     expect(probe.state.phase).toBe(solve.phase);
     expect(probe.state.modes).toEqual(solve.modes);
-    // CAF canting cos(theta) = E_Z / (4 |uPerp_F|) = 0.1 (model.md section 5, derived).
+    // CAF canting cos(theta) = E_Z / (4 |uPerp_F|) = 0.1 (public/notes.html#closed-forms, derived).
     expect(Math.cos(probe.sublattices.a.angleToField)).toBeCloseTo(0.1, 10);
     expect(probe.modes.gapless.map((m) => m.generators)).toEqual([['0z']]);
     expect(probe.competitors[0]).toMatchObject({ phase: 'CAF', above: 0 });
@@ -530,7 +532,8 @@ describe('fourfold probe', () => {
     expect(run.status).toBe(0);
     const probe = JSON.parse(run.stdout) as ProbeOut;
     expect(probe.point).toEqual({ x: -1.5, y: 1.5 });
-    // uPerp = -1.5, uZ = 1.5, E_Z = 0.4: CAF with E = -uZ - E_Z^2 / (8 |uPerp|) (model.md section 5).
+    // uPerp = -1.5, uZ = 1.5, E_Z = 0.4: CAF with E = -uZ - E_Z^2 / (8 |uPerp|)
+    // (public/notes.html#closed-forms).
     expect(probe.state.phase).toBe('CAF');
     expect(probe.state.energy).toBeCloseTo(-1.5 - 0.16 / 12, 12);
     const svg = readFileSync(out, 'utf8');

@@ -78,7 +78,7 @@ describe('parseModel', () => {
         'unknown channel',
       ]);
     }
-    // 00 is the SU(4)-symmetric part (model.md section 4), so its message says so.
+    // 00 is the SU(4)-symmetric part (public/notes.html#energy), so its message says so.
     expect(errorOf(() => parseModel(withChannels({ '00': 1 })))).toContain('SU(4)');
   });
 

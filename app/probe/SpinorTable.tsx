@@ -4,9 +4,9 @@ import { formatDegrees, formatFixed } from '../format';
 const FLAVOURS = ['K↑', 'K↓', 'K′↑', 'K′↓'];
 
 /**
- * The occupied spinors in the flavour basis of model.md section 2 (canonical gauge: Hartree-Fock
- * eigenvectors, largest component real and positive), each amplitude as modulus and phase, the
- * spin-valley entanglement entropy, and the projector P.
+ * The occupied spinors in the flavour basis of public/notes.html#basis (canonical gauge:
+ * Hartree-Fock eigenvectors, largest component real and positive), each amplitude as modulus and
+ * phase, the spin-valley entanglement entropy, and the projector P.
  */
 export function SpinorTable({ report }: { report: ProbeReport }) {
   const p = report.state.projector;

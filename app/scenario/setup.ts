@@ -23,7 +23,7 @@ export interface ChannelSetup {
 }
 
 /**
- * The sample in physical units (model.md section 9). With it the model the solver sees is in
+ * The sample in physical units (public/notes.html#units). With it the model the solver sees is in
  * meV: `Setup.channels` hold u = u~ * B_perp (the panel shows and takes u~ in meV/T),
  * `Setup.zeeman` = g mu_B B_perp / cos(tilt), `Setup.valleyZeeman` is Delta_V in meV.
  */
@@ -42,9 +42,9 @@ export interface PhysicalSetup {
 }
 
 /**
- * A channel derived from an interaction range (model.md section 9). `strength` is the Hartree
- * coupling H = v(0) / (2 pi l_B^2) in the coupling unit (dimensionless, or meV/T in physical
- * units, where H grows as B_perp like a contact coupling); `range` is a in units of l_B
+ * A channel derived from an interaction range (public/notes.html#interaction-range). `strength` is
+ * the Hartree coupling H = v(0) / (2 pi l_B^2) in the coupling unit (dimensionless, or meV/T in
+ * physical units, where H grows as B_perp like a contact coupling); `range` is a in units of l_B
  * (dimensionless) or in nm (physical).
  */
 export interface RangeSetup {

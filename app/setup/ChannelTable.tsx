@@ -100,8 +100,8 @@ function ChannelRow({ channel }: { readonly channel: Channel }) {
 }
 
 /**
- * All 15 channels tau_a (x) sigma_b with their Hartree and Fock couplings (model.md sections
- * 2 and 4), for generic models; collapsed by default.
+ * All 15 channels tau_a (x) sigma_b with their Hartree and Fock couplings (public/notes.html#basis
+ * and public/notes.html#energy), for generic models; collapsed by default.
  */
 export function ChannelTable() {
   const active = useFourfold(

@@ -10,7 +10,7 @@ import { sweptTargets, useSweptTargets } from './sweep';
 
 type Common = 'uPerp' | 'uZ';
 
-/** The channels each common coupling sets (model.md section 4). */
+/** The channels each common coupling sets (public/notes.html#energy). */
 export const COMMON_CHANNELS: Readonly<Record<Common, readonly Channel[]>> = {
   uPerp: ['x0', 'y0'],
   uZ: ['z0'],

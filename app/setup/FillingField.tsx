@@ -9,7 +9,7 @@ const FILLINGS: readonly { readonly value: Filling; readonly text: string }[] = 
   { value: 1, text: '+1' },
 ];
 
-/** Filling factor nu of the zero-energy level (model.md section 1). */
+/** Filling factor nu of the zero-energy level (public/notes.html#setting). */
 export function FillingField() {
   const filling = useFourfold((s) => s.setup.filling);
   return (

@@ -44,7 +44,7 @@ export function genericModels(count: number, filling: Filling, seed: number): Mo
   return out;
 }
 
-/** The anisotropic valley model of model.md section 4 with H = F (interfaces.md example). */
+/** The anisotropic valley model of public/notes.html#energy with H = F (interfaces.md example). */
 export function standardDocument(uPerp: number, uZ: number, zeeman = 0.4): ModelDocument {
   return {
     filling: 0,
