@@ -63,7 +63,7 @@ export interface CutTransition {
 /** Profiles along a Cut, sample i at t = i / (n - 1); plain arrays, transferable. */
 export interface CutResult {
   readonly path: CutPath;
-  /** The horizontal quantity: its label (interfaces.md style: `E_Z`, `u_perp`, `t`, `tilt`). */
+  /** The horizontal quantity: its label (model-file style: `E_Z`, `u_perp`, `t`, `tilt`). */
   readonly axis: {
     readonly label: string;
     readonly unit: string;

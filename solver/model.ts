@@ -102,7 +102,8 @@ function parseCoupling(value: unknown, field: string): ChannelCoupling {
 }
 
 /**
- * Validates a model document (interfaces.md) and returns an immutable plain-data model.
+ * Validates a model document (the model file of the README) and returns an immutable plain-data
+ * model.
  * A bare number for a channel means hartree = fock. Throws ModelError with a one-line message.
  */
 export function parseModel(json: unknown, where = ''): Model {

@@ -79,7 +79,7 @@ export interface ProbeReport {
   readonly format: 'fourfold-probe';
   readonly version: string;
   readonly caution: string;
-  /** The solve result of interfaces.md (energy, projector, order, phase, gap, modes, ...). */
+  /** The solve result (energy, projector, order, phase, gap, modes, ...). */
   readonly state: SolveJson;
   readonly spinors: ProbeSpinor[];
   /** Hartree-Fock levels ascending with occupations (occupied ones include -E_X when set). */

@@ -7,7 +7,8 @@ import { afterAll, beforeAll, describe, expect, test } from 'vitest';
 import { INTERFACES_EXAMPLE, standardPlane } from './fixtures';
 import { CHANNELS, type SolveJson } from '../solver/index';
 
-// The CLI is driven exactly as interfaces.md describes it, through fourfold.mjs in a child process.
+// The CLI is driven exactly as the README (Command line) describes it, through fourfold.mjs in a
+// child process.
 
 const repoRoot = resolve(fileURLToPath(new URL('.', import.meta.url)), '..');
 
@@ -25,7 +26,7 @@ function fourfold(...args: string[]): Run {
   return { status: result.status, stdout: result.stdout, stderr: result.stderr };
 }
 
-/** The plane of interfaces.md (`map`), at 24 x 24. */
+/** The standard (uPerp, uZ) plane, at 24 x 24. */
 const PLANE_24 = standardPlane(24, 24);
 
 let dir = '';
@@ -59,7 +60,7 @@ function expectOneLineError(run: Run, mentions: string[]): void {
   for (const word of mentions) expect(lines[0]).toContain(word);
 }
 
-describe('fourfold CLI: bad input ends in one line naming the problem (interfaces.md)', () => {
+describe('fourfold CLI: bad input ends in one line naming the problem (README, Command line)', () => {
   test('a missing model file', () => {
     const path = join(dir, 'no-such-model.json');
     expectOneLineError(fourfold('solve', '--model', path), [path, 'no such file']);
@@ -153,7 +154,7 @@ describe('fourfold CLI: bad input ends in one line naming the problem (interface
   });
 });
 
-/** The documented fields of a `solve` result (interfaces.md), as the solver types them. */
+/** The documented fields of a `solve` result (README, Command line), as the solver types them. */
 type SolveOutput = Pick<
   SolveJson,
   'energy' | 'projector' | 'order' | 'phase' | 'gap' | 'modes' | 'goldstone'
@@ -191,8 +192,8 @@ function expectProjector({ re, im }: SolveOutput['projector'], nf: number): void
   expect(Math.abs(trace - nf)).toBeLessThan(1e-12);
 }
 
-describe('fourfold solve (interfaces.md)', () => {
-  test('the interfaces.md example is CAF with E = -uZ_F - E_Z^2/(8|uPerp_F|) = -2.02 (public/notes.html#closed-forms, derived)', () => {
+describe('fourfold solve (README, Command line)', () => {
+  test('the worked point is CAF with E = -uZ_F - E_Z^2/(8|uPerp_F|) = -2.02 (public/notes.html#closed-forms, derived)', () => {
     const result = solveJson(INTERFACES_EXAMPLE) as SolveOutput;
     expect(Math.abs(result.energy - -2.02)).toBeLessThan(1e-12);
     expect(result.phase).toBe('CAF');
@@ -231,7 +232,7 @@ describe('fourfold solve (interfaces.md)', () => {
   });
 
   test('energies in another unit (the example times 1e-22, e.g. joules): every energy scales by 1e-22', () => {
-    // interfaces.md: "All energies in one unit of the user's choice". Energy, gap and modes are
+    // README: energies "in one unit of your choice". Energy, gap and modes are
     // all energies, so each must scale with the unit.
     const s = 1e-22;
     const scaled = {
@@ -276,7 +277,7 @@ function balancedTags(xml: string): string[] {
   return names;
 }
 
-describe('fourfold map on the interfaces.md plane at 24 x 24 (E_Z = 0.4)', () => {
+describe('fourfold map on the standard plane at 24 x 24 (E_Z = 0.4)', () => {
   const mapModel = { filling: 0, zeeman: 0.4, valleyZeeman: 0, plane: PLANE_24 };
 
   function runMap(name: string): string {
@@ -388,7 +389,7 @@ describe('fourfold map on the interfaces.md plane at 24 x 24 (E_Z = 0.4)', () =>
 });
 
 describe('fourfold cut (a straight line of the plane)', () => {
-  // The standard model (H = F) on the interfaces.md plane, E_Z = 0.4.
+  // The standard model (H = F) on the standard plane, E_Z = 0.4.
   const cutModel = { filling: 0, zeeman: 0.4, valleyZeeman: 0, plane: PLANE_24 };
   const line = ['--from', '-1.9,1.2', '--to', '1.9,-1.4'];
 
@@ -509,7 +510,7 @@ describe('fourfold probe', () => {
     competitors: { phase: string; above: number }[];
   }
 
-  test('the interfaces.md example: the solve result plus canting, the broken symmetry and competitors', () => {
+  test('the worked point: the solve result plus canting, the broken symmetry and competitors', () => {
     const model = file('probe.model.json', INTERFACES_EXAMPLE);
     const run = fourfold('probe', '--model', model);
     expect(run.status).toBe(0);

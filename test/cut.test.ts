@@ -14,7 +14,7 @@ import { cutPathOf } from '../app/cut/cutPath';
 import { DEMO_SETUP } from '../app/scenario/demo';
 import { setupToScenario } from '../app/scenario/scenario';
 
-/** The standard model (H = F) on the (uPerp, uZ) plane of interfaces.md, at E_Z and Delta_V. */
+/** The standard model (H = F) on the (uPerp, uZ) plane (test/fixtures.ts), at E_Z and Delta_V. */
 function standardInput(zeeman: number, valleyZeeman = 0) {
   return parseMapInput({
     filling: 0,

@@ -5,7 +5,7 @@ import { regionOutlines } from '../app/figure/regionOutlines';
 import { computePhaseMap, parseMapInput, seededRandom, type PhaseMap } from '../solver/index';
 import { INTERFACES_EXAMPLE, standardPlane } from './fixtures';
 
-// A small fixed scenario: the standard model of interfaces.md (H = F, E_Z = 0.4, Delta_V = 0)
+// A small fixed scenario: the standard model (H = F, E_Z = 0.4, Delta_V = 0)
 // in its (uPerp, uZ) plane at 24 x 24, computed in-process.
 const E_Z = INTERFACES_EXAMPLE.zeeman;
 let map: PhaseMap;

@@ -20,7 +20,7 @@ import {
 
 const repoRoot = resolve(fileURLToPath(new URL('.', import.meta.url)), '..');
 
-/** Standard model (H = F) on the (uPerp, uZ) plane of interfaces.md. */
+/** Standard model (H = F) on the (uPerp, uZ) plane of test/fixtures.ts (standardPlane). */
 function standardPlaneModel(
   zeeman: number,
   n: number,

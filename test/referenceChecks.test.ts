@@ -44,7 +44,7 @@ describe('closed forms of public/notes.html#closed-forms (derived there from the
     expect(solve(standard(-1.5, -0.5, 0.1)).energy).toBeCloseTo(-1.5, 12);
   });
 
-  test('interfaces.md example: CAF with E = -2.02, total spin 0.2, one Goldstone mode', () => {
+  test('the worked point of public/notes.html#closed-forms: CAF with E = -2.02, total spin 0.2, one Goldstone mode', () => {
     const r = solve(standard(-1, 2, 0.4));
     expect(r.phase).toBe('CAF');
     expect(r.energy).toBeCloseTo(-2.02, 13);

@@ -12,7 +12,7 @@ export interface AxisSetup {
    * uPerp and uZ axes use `Setup.ratios`).
    */
   readonly hartreeRatio: number;
-  /** Only for 'custom' axes (loaded from a file): the interfaces.md label and targets. */
+  /** Only for 'custom' axes (loaded from a file): the model file's label and targets. */
   readonly label?: string;
   readonly targets?: Readonly<Record<string, number>>;
 }
@@ -56,7 +56,7 @@ export interface RangeSetup {
 /**
  * Everything the user sets up, in dimensionless units or meV (physical): the model (all 15 channels), filling,
  * fields, and the plane. Plain data, always valid as a whole: the panel validates each entry
- * before it gets here, and `setupToScenario` turns it into the interfaces.md document.
+ * before it gets here, and `setupToScenario` turns it into the model file (README, Command line).
  */
 export interface Setup {
   readonly filling: Filling;
