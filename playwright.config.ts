@@ -12,6 +12,12 @@ export default defineConfig({
   reporter: 'list',
   workers: 1,
   forbidOnly: !!process.env.CI,
+  // The tests wait on the app's own status (a Map done, a Cut done, a download), never on a
+  // clock, with the waits of e2e/demoPage.ts (BUSY_MACHINE_MS, 2 minutes per long task). A test
+  // maps the 256 x 256 demo plane up to five times, which takes minutes on a busy 2-core machine
+  // (a few seconds each when idle): allow six minutes per test, and 30 s for a quick assertion.
+  timeout: 360_000,
+  expect: { timeout: 30_000 },
   use: {
     baseURL,
   },
@@ -31,6 +37,7 @@ export default defineConfig({
     command: `npx vite build --outDir ${outDir} && npx vite preview --outDir ${outDir} --host 127.0.0.1 --strictPort --port ${port}`,
     url: baseURL,
     reuseExistingServer: !process.env.CI,
-    timeout: 120_000,
+    // Building and starting the server, on a machine that may be busy.
+    timeout: 300_000,
   },
 });

@@ -7,6 +7,7 @@ import { PinSummary } from './probe/PinSummary';
 import { ProbePanel } from './probe/ProbePanel';
 import { startProbeDriver } from './probe/probeDriver';
 import { CutPanel } from './cut/CutPanel';
+import { DrawingNote } from './cut/DrawingNote';
 import { FigureBar } from './figure/FigureBar';
 import { Readout } from './readout/Readout';
 import { NoticeLine } from './scenario/NoticeLine';
@@ -30,6 +31,15 @@ export function App() {
         <div className="title">
           <h1>Fourfold</h1>
           <p>Hartree-Fock ground states of graphene&rsquo;s zero-energy Landau level</p>
+          <a
+            className="notes-link"
+            href="notes.html"
+            target="_blank"
+            rel="noopener"
+            data-testid="notes-link"
+          >
+            Model notes
+          </a>
         </div>
         <ScenarioBar />
       </header>
@@ -42,6 +52,7 @@ export function App() {
         <section className="panel map-column" aria-labelledby="map-heading">
           <h2 id="map-heading">Map</h2>
           <MapView />
+          <DrawingNote />
           <MapStatus />
           <Legend />
           <FigureBar />

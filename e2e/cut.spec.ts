@@ -1,18 +1,19 @@
 import { readFileSync } from 'node:fs';
 import { expect, test, type Page } from '@playwright/test';
-import { DEMO, failOnConsoleErrors, mapDone, pointAt } from './demoPage';
+import { BUSY_MACHINE_MS, DEMO, failOnConsoleErrors, mapDone, pointAt } from './demoPage';
 
 failOnConsoleErrors();
 
 // The demo's F/CAF boundary: CAF exists while E_Z < 4 |uPerp_F| and merges continuously into F
-// at E_Z = 4 |uPerp_F| (model.md section 5; Phys. Rev. B 85, 155439 (2012), whose Zeeman symbol
-// differs from our full splitting by a factor): uPerp = -E_Z / 4 = -0.15 at E_Z = 0.6, whatever
-// uZ is and whatever the Hartree ratios are (the CAF and F energies hold only Fock couplings).
+// at E_Z = 4 |uPerp_F| (public/notes.html#closed-forms; Phys. Rev. B 85, 155439 (2012), whose
+// Zeeman symbol differs from our full splitting by a factor): uPerp = -E_Z / 4 = -0.15 at E_Z =
+// 0.6, whatever uZ is and whatever the Hartree ratios are (the CAF and F energies hold only Fock
+// couplings).
 const BOUNDARY_X = -DEMO.zeeman / 4;
 
 async function cutDone(page: Page): Promise<void> {
   await expect(page.getByTestId('cut-status')).toHaveAttribute('data-status', 'done', {
-    timeout: 30_000,
+    timeout: BUSY_MACHINE_MS,
   });
 }
 
@@ -40,8 +41,10 @@ test('a Cut dragged across the F/CAF boundary finds it at uPerp = -E_Z / 4, cont
   await mapDone(page);
   await page.getByTestId('cut-draw').click();
   await expect(page.getByTestId('cut-draw')).toHaveAttribute('aria-pressed', 'true');
-  // The button sits below the Map: bring the Map back into view before dragging on it.
+  // The button sits below the Map: bring the Map back into view before dragging on it. The Map
+  // says beside it that a press draws now.
   await page.getByTestId('map-plot').scrollIntoViewIfNeeded();
+  await expect(page.getByTestId('map-drawing-note')).toBeVisible();
   const [x0, y0] = await pointAt(page, -1, 1.5);
   const [x1, y1] = await pointAt(page, 1, 1.2);
   await page.mouse.move(x0, y0);
@@ -50,6 +53,10 @@ test('a Cut dragged across the F/CAF boundary finds it at uPerp = -E_Z / 4, cont
   await expect(page.getByTestId('map-cut-draft')).toBeVisible();
   await page.mouse.move(x1, y1, { steps: 4 });
   await page.mouse.up();
+  // One line per press of the button: the Map is back to pinning, and the release pinned nothing.
+  await expect(page.getByTestId('cut-draw')).toHaveAttribute('aria-pressed', 'false');
+  await expect(page.getByTestId('map-drawing-note')).toHaveCount(0);
+  await expect(page.locator('[data-testid^="map-pin-"]')).toHaveCount(0);
   await cutDone(page);
   await expect(page.getByTestId('map-cut-line')).toBeVisible();
   const found = await transitions(page);
@@ -81,6 +88,20 @@ test('a Cut dragged across the F/CAF boundary finds it at uPerp = -E_Z / 4, cont
   expect(svg).toContain('<svg xmlns="http://www.w3.org/2000/svg"');
   const lines = /<g class="transitions"[^>]*>([\s\S]*?)<\/g>/.exec(svg)![1]!;
   expect(lines.match(/stroke-dasharray/g)).toHaveLength(1);
+
+  // Escape leaves the drawing mode without a line; a click on the Map then pins a point.
+  const drawn = await page.getByTestId('cut-status').getAttribute('data-path');
+  expect(drawn).toMatch(/^line:/);
+  await page.getByTestId('cut-draw').click();
+  await expect(page.getByTestId('map-drawing-note')).toBeVisible();
+  await page.keyboard.press('Escape');
+  await expect(page.getByTestId('cut-draw')).toHaveAttribute('aria-pressed', 'false');
+  await expect(page.getByTestId('map-drawing-note')).toHaveCount(0);
+  await page.getByTestId('map-plot').scrollIntoViewIfNeeded();
+  const [px, py] = await pointAt(page, 0.5, 1.5);
+  await page.mouse.click(px, py);
+  await expect(page.getByTestId('map-pin-1')).toBeVisible();
+  await expect(page.getByTestId('cut-status')).toHaveAttribute('data-path', drawn!);
 });
 
 test('a Cut typed end to end, then a tilt sweep at a pin, read their transitions', async ({
@@ -109,7 +130,8 @@ test('a Cut typed end to end, then a tilt sweep at a pin, read their transitions
   await cut.getByTestId('cut-to-x').fill('1');
 
   // Pin a CAF point, then sweep the tilt there: E_Z = E_Z_perp / cos(theta) reaches
-  // 4 |uPerp_F| at cos(theta) = E_Z_perp / (4 |uPerp_F|) (model.md sections 5 and 9).
+  // 4 |uPerp_F| at cos(theta) = E_Z_perp / (4 |uPerp_F|) (public/notes.html#closed-forms and
+  // public/notes.html#units).
   await page.getByTestId('map-plot').scrollIntoViewIfNeeded();
   const [px, py] = await pointAt(page, -1, 1.5);
   await page.mouse.click(px, py);
@@ -119,7 +141,7 @@ test('a Cut typed end to end, then a tilt sweep at a pin, read their transitions
   await cut.getByTestId('cut-start-sweep').click();
   await cut.getByTestId('cut-sweep-to').fill('85');
   await expect(cut.getByTestId('cut-status')).toHaveAttribute('data-path', 'tilt:0:85', {
-    timeout: 30_000,
+    timeout: BUSY_MACHINE_MS,
   });
   await cutDone(page);
   await expect(cut.getByTestId('cut-transition')).toHaveCount(1);

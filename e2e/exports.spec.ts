@@ -1,7 +1,7 @@
 import { readFileSync } from 'node:fs';
 import { expect, test, type Download, type Page } from '@playwright/test';
 import { parseCsvStrictly, parseXmlStrictly, textsOf } from '../test/strictParsers';
-import { failOnConsoleErrors } from './demoPage';
+import { BUSY_MACHINE_MS, failOnConsoleErrors, mapDone } from './demoPage';
 
 failOnConsoleErrors();
 
@@ -49,14 +49,11 @@ const neutralised = (text: string) =>
 
 async function openHostile(page: Page): Promise<void> {
   await page.goto(hostileLink());
-  // A busy machine may take a while: wait on the Map's own status, generously.
-  await expect(page.getByTestId('map-status')).toHaveAttribute('data-phase', 'done', {
-    timeout: 120_000,
-  });
+  await mapDone(page);
 }
 
 /** Clicks `testId` and returns the downloaded file's name and bytes. */
-async function download(page: Page, testId: string, timeout = 60_000) {
+async function download(page: Page, testId: string, timeout = BUSY_MACHINE_MS) {
   const [file] = await Promise.all([
     page.waitForEvent('download', { timeout }) as Promise<Download>,
     page.getByTestId(testId).click(),
@@ -81,7 +78,6 @@ async function readSvg(page: Page, bytes: Buffer): Promise<string[]> {
 test('Map exports (SVG, PNG, CSV, JSON) of a scenario with hostile axis names and title', async ({
   page,
 }) => {
-  test.setTimeout(300_000);
   await openHostile(page);
   await page.getByTestId('figure-title').fill(HOSTILE_TITLE);
 
@@ -99,7 +95,7 @@ test('Map exports (SVG, PNG, CSV, JSON) of a scenario with hostile axis names an
   expect(png.bytes.subarray(12, 16).toString('latin1')).toBe('IHDR');
   expect(png.bytes.readUInt32BE(16)).toBeGreaterThan(0);
 
-  const csv = await download(page, 'export-csv', 120_000);
+  const csv = await download(page, 'export-csv', 2 * BUSY_MACHINE_MS);
   const { header, rows, comments } = parseCsvStrictly(csv.bytes.toString('utf8'));
   expect(comments).toHaveLength(2);
   expect(header.slice(0, 3)).toEqual([neutralised(HOSTILE_X), neutralised(HOSTILE_Y), 'phase']);
@@ -112,7 +108,7 @@ test('Map exports (SVG, PNG, CSV, JSON) of a scenario with hostile axis names an
   }
   expect(rows.some((row) => row[3]!.startsWith('-'))).toBe(true);
 
-  const json = await download(page, 'export-json', 120_000);
+  const json = await download(page, 'export-json', 2 * BUSY_MACHINE_MS);
   const doc = JSON.parse(json.bytes.toString('utf8')) as {
     plane: { x: { label: string }; y: { label: string } };
     phase: string[][];
@@ -123,7 +119,6 @@ test('Map exports (SVG, PNG, CSV, JSON) of a scenario with hostile axis names an
 });
 
 test('Cut exports (SVG, CSV, JSON) of a scenario with hostile axis names', async ({ page }) => {
-  test.setTimeout(300_000);
   await openHostile(page);
   const cut = page.getByTestId('cut');
   await cut.getByTestId('cut-from-x').fill('-1.8');
@@ -132,8 +127,10 @@ test('Cut exports (SVG, CSV, JSON) of a scenario with hostile axis names', async
   await cut.getByTestId('cut-to-y').fill('-1.8');
   // Done with the line typed last (not one of the partial lines before it).
   const status = cut.getByTestId('cut-status');
-  await expect(status).toHaveAttribute('data-path', 'line:-1.8,1.5:1.5,-1.8', { timeout: 60_000 });
-  await expect(status).toHaveAttribute('data-status', 'done', { timeout: 60_000 });
+  await expect(status).toHaveAttribute('data-path', 'line:-1.8,1.5:1.5,-1.8', {
+    timeout: BUSY_MACHINE_MS,
+  });
+  await expect(status).toHaveAttribute('data-status', 'done', { timeout: BUSY_MACHINE_MS });
   await expect(cut.getByTestId('cut-transition').first()).toBeVisible();
   const transitions = await cut.getByTestId('cut-transition').count();
 
@@ -165,12 +162,11 @@ test('Cut exports (SVG, CSV, JSON) of a scenario with hostile axis names', async
 });
 
 test('Probe exports (JSON, lattice SVG) of a pin in that scenario', async ({ page }) => {
-  test.setTimeout(300_000);
   await openHostile(page);
   const box = (await page.getByTestId('map-plot').boundingBox())!;
   await page.mouse.click(box.x + 0.3 * box.width, box.y + 0.3 * box.height);
   await expect(page.getByTestId('probe-details')).toHaveAttribute('data-phase', /.+/, {
-    timeout: 60_000,
+    timeout: BUSY_MACHINE_MS,
   });
   const phase = (await page.getByTestId('probe-details').getAttribute('data-phase'))!;
 

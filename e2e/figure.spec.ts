@@ -3,12 +3,12 @@ import { DOMParser } from '@xmldom/xmldom';
 import { expect, test, type Download, type Page } from '@playwright/test';
 import { pngResolution } from '../app/figure/pngResolution';
 import { SOFTWARE_VERSION } from '../solver/index';
-import { failOnConsoleErrors, mapDone } from './demoPage';
+import { BUSY_MACHINE_MS, failOnConsoleErrors, mapDone } from './demoPage';
 
 failOnConsoleErrors();
 
 /** Clicks `testId` and returns the downloaded file's name and bytes. */
-async function download(page: Page, testId: string, timeout = 30_000) {
+async function download(page: Page, testId: string, timeout = BUSY_MACHINE_MS) {
   const [file] = await Promise.all([
     page.waitForEvent('download', { timeout }) as Promise<Download>,
     page.getByTestId(testId).click(),
@@ -91,7 +91,7 @@ test('PNG at the chosen resolution, CSV of every grid point and JSON with the mo
   mkdirSync('test-results/screenshots', { recursive: true });
   writeFileSync('test-results/screenshots/figure-map-300dpi.png', png.bytes);
 
-  const csv = await download(page, 'export-csv', 120_000);
+  const csv = await download(page, 'export-csv', 2 * BUSY_MACHINE_MS);
   expect(csv.name).toBe('fourfold-map.csv');
   const lines = csv.bytes.toString('utf8').trimEnd().split('\n');
   expect(lines[0]).toMatch(/^# Mean-field/);
@@ -108,7 +108,7 @@ test('PNG at the chosen resolution, CSV of every grid point and JSON with the mo
     }
   }
 
-  const json = await download(page, 'export-json', 60_000);
+  const json = await download(page, 'export-json', 2 * BUSY_MACHINE_MS);
   expect(json.name).toBe('fourfold-map.json');
   const doc = JSON.parse(json.bytes.toString('utf8')) as Record<string, unknown>;
   expect(doc.version).toBe(SOFTWARE_VERSION);

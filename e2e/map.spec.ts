@@ -26,7 +26,7 @@ async function readout(page: Page) {
   };
 }
 
-test('the demo Map shows the closed-form phases where model.md section 5 predicts them', async ({
+test('the demo Map shows the closed-form phases where public/notes.html#closed-forms predicts them', async ({
   page,
 }) => {
   await page.goto('/');
@@ -34,9 +34,9 @@ test('the demo Map shows the closed-form phases where model.md section 5 predict
   await expect(page.getByTestId('legend')).toContainText('CAF');
   await page.screenshot({ path: 'test-results/screenshots/demo.png', fullPage: true });
 
-  // Closed forms of model.md section 5 (after Phys. Rev. B 85, 155439 (2012)), with separate
-  // Hartree (H) and Fock (F) couplings: E_F = -2 uPerp_F - uZ_F - E_Z, E_CDW = 2 uZ_H - uZ_F,
-  // E_KD = 2 uPerp_H - uPerp_F, E_CAF = -uZ_F - E_Z^2 / (8 |uPerp_F|) (Delta_V = 0).
+  // Closed forms of public/notes.html#closed-forms (after Phys. Rev. B 85, 155439 (2012)), with
+  // separate Hartree (H) and Fock (F) couplings: E_F = -2 uPerp_F - uZ_F - E_Z, E_CDW = 2 uZ_H -
+  // uZ_F, E_KD = 2 uPerp_H - uPerp_F, E_CAF = -uZ_F - E_Z^2 / (8 |uPerp_F|) (Delta_V = 0).
   const closedForm: Record<string, (u: number, z: number) => number> = {
     F: (u, z) => -2 * u - z - DEMO.zeeman,
     CDW: (u, z) => 2 * DEMO.ratioZ * z - z,
@@ -62,8 +62,8 @@ test('the demo Map shows the closed-form phases where model.md section 5 predict
 test('moving the Zeeman slider moves the F/CAF boundary to E_Z = 4 |uPerp|', async ({ page }) => {
   await page.goto('/');
   await mapDone(page);
-  // Along uZ = 1.5 the F/CAF boundary sits at uPerp = -E_Z / 4 (model.md section 5, after
-  // Phys. Rev. B 85, 155439 (2012)); find it to one pixel by hovering from the F side.
+  // Along uZ = 1.5 the F/CAF boundary sits at uPerp = -E_Z / 4 (public/notes.html#closed-forms,
+  // after Phys. Rev. B 85, 155439 (2012)); find it to one pixel by hovering from the F side.
   const boundaryAlong = async (): Promise<number> => {
     let last = '';
     for (let u = -0.05; u > -0.6; u -= PIXEL) {

@@ -3,7 +3,14 @@ import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { expect, test, type Page } from '@playwright/test';
-import { DEMO, demoModelAt, failOnConsoleErrors, mapDone, pointAt } from './demoPage';
+import {
+  BUSY_MACHINE_MS,
+  DEMO,
+  demoModelAt,
+  failOnConsoleErrors,
+  mapDone,
+  pointAt,
+} from './demoPage';
 
 failOnConsoleErrors();
 
@@ -37,10 +44,10 @@ test('a clicked point shows the same ground state as `npm run --silent solve`', 
 }) => {
   await page.goto('/');
   await mapDone(page);
-  // A CAF point of the demo (closed form in model.md section 5: cos(theta) = E_Z / (4 |uPerp_F|)).
+  // A CAF point of the demo: cos(theta) = E_Z / (4 |uPerp_F|) (public/notes.html#closed-forms).
   await pinAt(page, -0.7, 0.9);
   const details = page.getByTestId('probe-details');
-  await expect(details).toBeVisible({ timeout: 20_000 });
+  await expect(details).toBeVisible({ timeout: BUSY_MACHINE_MS });
   const x = Number(await details.getAttribute('data-x'));
   const y = Number(await details.getAttribute('data-y'));
   expect(Math.abs(x - -0.7)).toBeLessThan(0.02);
@@ -84,15 +91,15 @@ test('pins: several at once, each marked on the Map, removable, kept on reload a
   await mapDone(page);
   await pinAt(page, -1.5, 1.5); // KD
   await expect(page.getByTestId('probe-details')).toHaveAttribute('data-phase', 'KD', {
-    timeout: 20_000,
+    timeout: BUSY_MACHINE_MS,
   });
   await pinAt(page, 0.5, 1.5); // F
   await expect(page.getByTestId('probe-details')).toHaveAttribute('data-phase', 'F', {
-    timeout: 20_000,
+    timeout: BUSY_MACHINE_MS,
   });
   await pinAt(page, -0.2, -1.7); // CDW
   await expect(page.getByTestId('probe-details')).toHaveAttribute('data-phase', 'CDW', {
-    timeout: 20_000,
+    timeout: BUSY_MACHINE_MS,
   });
   await expect(page.locator('[data-testid^="map-pin-"]')).toHaveCount(3);
 
@@ -135,7 +142,7 @@ test('pins: several at once, each marked on the Map, removable, kept on reload a
   await mapDone(page);
   await expect(page.locator('[data-testid^="map-pin-"]')).toHaveCount(2);
   await expect(page.getByTestId('probe-details')).toHaveAttribute('data-phase', 'CDW', {
-    timeout: 20_000,
+    timeout: BUSY_MACHINE_MS,
   });
   await page.screenshot({ path: 'test-results/screenshots/probe-pins.png', fullPage: true });
 
@@ -147,7 +154,7 @@ test('pins: several at once, each marked on the Map, removable, kept on reload a
   await mapDone(other);
   await expect(other.locator('[data-testid^="map-pin-"]')).toHaveCount(2);
   await expect(other.getByTestId('probe-details')).toHaveAttribute('data-phase', 'CDW', {
-    timeout: 20_000,
+    timeout: BUSY_MACHINE_MS,
   });
   await fresh.close();
 });
@@ -170,9 +177,10 @@ test('a point pinned by typed coordinates; bad entries are named and pin nothing
   await page.getByTestId('pin-entry-submit').click();
   await expect(page.getByTestId('pin-entry-problem')).toHaveCount(0);
   await expect(page.getByTestId('probe-details')).toHaveAttribute('data-phase', 'KD', {
-    timeout: 20_000,
+    timeout: BUSY_MACHINE_MS,
   });
-  // KD: E = 2 uPerp_H - uPerp_F (model.md section 5) with the demo's uPerp_H = 1.2 uPerp_F.
+  // KD: E = 2 uPerp_H - uPerp_F with the demo's uPerp_H = 1.2 uPerp_F
+  // (public/notes.html#closed-forms).
   const energy = Number(await page.getByTestId('probe-energy').getAttribute('data-value'));
   expect(energy).toBeCloseTo(2 * DEMO.ratioPerp * -1.5 - -1.5, 9);
 });

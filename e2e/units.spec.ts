@@ -6,17 +6,12 @@ const SHOTS = process.env.FOURFOLD_E2E_SHOTS ?? 'test-results/screenshots';
 
 failOnConsoleErrors();
 
-test.beforeEach(() => {
-  // Each test maps the 256 x 256 demo plane several times; the machine may be shared.
-  test.setTimeout(120_000);
-});
-
 // CODATA 2018 (E. Tiesinga et al., Rev. Mod. Phys. 93, 025010 (2021)); e and h exact in the SI.
 const E = 1.602176634e-19;
 const HBAR = 6.62607015e-34 / (2 * Math.PI);
 const MU_B = 9.2740100783e-24;
 
-/** E_Z = g mu_B B_perp / cos(tilt) in meV (model.md section 9). */
+/** E_Z = g mu_B B_perp / cos(tilt) in meV (public/notes.html#units). */
 const zeemanMeV = (b: number, tiltDeg: number, g = 2) =>
   (g * MU_B * b) / Math.cos((tiltDeg * Math.PI) / 180) / (E * 1e-3);
 /** l_B = sqrt(hbar / (e B_perp)) in nm. */
@@ -57,7 +52,7 @@ test('physical units: E_Z and l_B follow the formulas, the Map follows E_Z, the 
   await page.getByTestId('physical-tilt').fill('60');
   await expect.poll(() => valueOf(page, 'derived-zeeman')).toBeCloseTo(zeemanMeV(9, 60), 10);
   expect(await valueOf(page, 'derived-magnetic-length')).toBeCloseTo(magneticLengthNm(9), 10);
-  // l_B = 25.6556 nm / sqrt(B / T) (model.md section 10).
+  // l_B = 25.6556 nm / sqrt(B / T) (public/notes.html#checks).
   expect(await valueOf(page, 'derived-magnetic-length')).toBeCloseTo(25.6556 / 3, 4);
   const exchange = await valueOf(page, 'derived-exchange');
   expect(exchange / (await valueOf(page, 'derived-coulomb'))).toBeCloseTo(
@@ -68,7 +63,7 @@ test('physical units: E_Z and l_B follow the formulas, the Map follows E_Z, the 
   await expect(page.getByTestId('mixing-caution')).toBeVisible();
   await mapDone(page);
 
-  // The Map solves E_Z in meV: in F, E = -2 uPerp_F - uZ_F - E_Z (model.md section 5).
+  // The Map solves E_Z in meV: in F, E = -2 uPerp_F - uZ_F - E_Z (public/notes.html#closed-forms).
   await hoverAt(page, 0.5, 1.5);
   const readout = page.getByTestId('readout');
   await expect(readout.getByTestId('readout-phase')).toHaveText('F');
@@ -166,7 +161,7 @@ test('interaction range: F/H of a Gaussian range follows 1/(1 + a^2/l_B^2) and t
   await page.getByTestId('range-strength').fill('-0.1');
   await page.getByTestId('range-length').fill('10');
   const l = magneticLengthNm(9);
-  // Closed form of model.md section 9 (derived there).
+  // Closed form of public/notes.html#interaction-range (derived there).
   await expect.poll(() => valueOf(page, 'range-ratio')).toBeCloseTo(1 / (1 + (10 / l) ** 2), 10);
   expect(await valueOf(page, 'range-hartree')).toBeCloseTo(-0.1, 12);
   const chart = page.getByTestId('range-chart');

@@ -1,6 +1,6 @@
 import type { Crossing } from './crossings';
 
-/** A boundary polyline between two labelled regions (interfaces.md `map` output). */
+/** A boundary polyline between two labelled regions (the `map` output). */
 export interface Boundary {
   readonly between: [string, string];
   readonly order: 'first' | 'continuous';

@@ -1,6 +1,6 @@
 /**
- * The sixteen spin-valley matrices G_ab = tau_a (x) sigma_b (model.md section 2), valley first,
- * in the flavour basis |K up>, |K down>, |K' up>, |K' down>.
+ * The sixteen spin-valley matrices G_ab = tau_a (x) sigma_b (public/notes.html#basis), valley
+ * first, in the flavour basis |K up>, |K down>, |K' up>, |K' down>.
  *
  * A channel index is 4 a + b with a, b in 0..3 standing for the letters 0, x, y, z; index 0 is the
  * identity `00`, indices 1..15 are the 15 interaction channels. Every G_ab has exactly one

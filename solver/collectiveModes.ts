@@ -2,7 +2,7 @@ import type { Couplings } from './couplings';
 import { symmetricEigen } from './linalg';
 import { DescentWorkspace, frameEnergy, tangentDimension, tangentModel } from './tangentSpace';
 
-/** q = 0 collective modes of a stationary state (model.md section 8). */
+/** q = 0 collective modes of a stationary state (public/notes.html#modes). */
 export interface CollectiveModes {
   /** One frequency omega >= 0 per conjugate pair, ascending (energy units, hbar = 1). */
   readonly frequencies: number[];

@@ -6,12 +6,12 @@ import { occupiedCount, type Model } from './model';
  * diagonal form of the energy used everywhere in the solver.
  *
  * Writing P = (1/4) sum_ab o_ab G_ab with o_ab = tr(G_ab P), and using G_cd G_ab G_cd = s G_ab
- * (s = +-1), the energy of model.md section 4 becomes diagonal in the order parameters:
+ * (s = +-1), the energy of public/notes.html#energy becomes diagonal in the order parameters:
  *
  *   E = c0 + sum_ab eta_ab o_ab + 1/2 sum_{ab != 00} kappa_ab o_ab^2,
  *   kappa_ab = H_ab - (1/4) sum_{cd != 00} F_cd s(cd, ab),   c0 = -(1/8) Nf^2 sum_cd F_cd,
  *
- * (derived here from section 4), and the Hartree-Fock Hamiltonian of section 7 is
+ * (derived here from that energy), and the Hartree-Fock Hamiltonian of public/notes.html#gap is
  * H_HF = sum_ab (eta_ab + kappa_ab o_ab) G_ab + (eta_00 - (Nf/4) sum_cd F_cd) 1 - E_X P.
  */
 export interface Couplings {
@@ -97,7 +97,7 @@ export function couplingsOf(model: Model): Couplings {
   return couplingsFromArrays(occupiedCount(model), couplingArrays(model), model.exchange ?? 0);
 }
 
-/** Energy per flux quantum (model.md section 4, without the Coulomb constant) from o_ab. */
+/** Energy per flux quantum (public/notes.html#energy, without the Coulomb constant) from o_ab. */
 export function energyOfOrder(c: Couplings, order: ArrayLike<number>): number {
   let e = c.c0 + c.eta[0]! * c.nf;
   for (let k = 1; k < MATRIX_COUNT; k++) {

@@ -17,7 +17,7 @@ import { DescentWorkspace } from './tangentSpace';
  * - `zeeman`, `valleyZeeman`: E_Z or Delta_V from `from` to `to` at the pinned point, replacing
  *   whatever the model and the plane set (the couplings stay those of the pin);
  * - `tilt`: the tilt angle in degrees from `from` to `to` at fixed perpendicular field: the
- *   couplings stay, E_Z = zeemanPerp / cos(tilt) (model.md section 9), zeemanPerp being E_Z at
+ *   couplings stay, E_Z = zeemanPerp / cos(tilt) (public/notes.html#units), zeemanPerp being E_Z at
  *   zero tilt.
  */
 export type CutPath =
@@ -63,7 +63,7 @@ export interface CutTransition {
 /** Profiles along a Cut, sample i at t = i / (n - 1); plain arrays, transferable. */
 export interface CutResult {
   readonly path: CutPath;
-  /** The horizontal quantity: its label (interfaces.md style: `E_Z`, `u_perp`, `t`, `tilt`). */
+  /** The horizontal quantity: its label (model-file style: `E_Z`, `u_perp`, `t`, `tilt`). */
   readonly axis: {
     readonly label: string;
     readonly unit: string;
@@ -74,7 +74,7 @@ export interface CutResult {
   readonly s: Float64Array;
   readonly x: Float64Array;
   readonly y: Float64Array;
-  /** Energy per flux quantum (model.md section 4). */
+  /** Energy per flux quantum (public/notes.html#energy). */
   readonly energy: Float64Array;
   /** dE/ds along the horizontal quantity, exact (Hellmann-Feynman: dE/ds = dE[P]/ds at fixed P). */
   readonly slope: Float64Array;
@@ -82,7 +82,7 @@ export interface CutResult {
   readonly groups: Float64Array;
   /** Canting of the sublattice-A spin from the field axis, radians; NaN without a spin moment. */
   readonly canting: Float64Array;
-  /** Quasiparticle gap (model.md section 7; without E_X unless the model sets it). */
+  /** Quasiparticle gap (public/notes.html#gap; without E_X unless the model sets it). */
   readonly gap: Float64Array;
   readonly labels: string[];
   readonly transitions: CutTransition[];
@@ -118,7 +118,7 @@ function pinnedTrack(input: MapInput, at: readonly [number, number], slot: 3 | 1
   const fixed = input.model.oneBody[slot === 3 ? '0z' : 'z0'] ?? 0;
   const nf = input.model.filling + 2;
   const exchange = input.model.exchange ?? 0;
-  // eta_0z = -E_Z / 2 and eta_z0 = -Delta_V / 2 (model.md section 4).
+  // eta_0z = -E_Z / 2 and eta_z0 = -Delta_V / 2 (public/notes.html#energy).
   return (value: number): Couplings => {
     arrays.eta[slot] = fixed - value / 2;
     return couplingsFromArrays(nf, arrays, exchange);
@@ -193,7 +193,7 @@ function trackOf(input: MapInput, path: CutPath): Track {
     at: (t) => at(value(t)),
     point: () => pin,
     s: value,
-    // dE/dE_Z = -o_0z / 2, dE/dDelta_V = -o_z0 / 2 (model.md section 4).
+    // dE/dE_Z = -o_0z / 2, dE/dDelta_V = -o_z0 / 2 (public/notes.html#energy).
     slope: (_t, o) => -o[slot]! / 2,
     axis: {
       label: path.kind === 'zeeman' ? 'E_Z' : 'Delta_V',

@@ -17,7 +17,7 @@ import { modelSymmetry } from './symmetry';
 export interface SolveResult {
   readonly model: Model;
   readonly couplings: Couplings;
-  /** Energy per flux quantum, model.md section 4 (no Coulomb constant). */
+  /** Energy per flux quantum, public/notes.html#energy (no Coulomb constant). */
   readonly energy: number;
   /** Occupied frame (vectors 0..Nf-1) at the canonical orbit point. */
   readonly frame: Float64Array;
@@ -33,7 +33,7 @@ export interface SolveResult {
   /** Whether each of `levels` is occupied (same order). */
   readonly occupied: boolean[];
   /**
-   * Quasiparticle gap (model.md section 7): lowest empty minus highest occupied HF level, plus
+   * Quasiparticle gap (public/notes.html#gap): lowest empty minus highest occupied HF level, plus
    * E_X when set; eps_(Nf+1) - eps_(Nf) under the Aufbau principle.
    */
   readonly gap: number;

@@ -1,10 +1,10 @@
 import { magneticLength } from './units';
 
 /**
- * Hartree and Fock couplings of one channel from an interaction v(q) (model.md section 9):
- * with the n = 0 form factor exp(-q^2 l^2 / 4),
+ * Hartree and Fock couplings of one channel from an interaction v(q)
+ * (public/notes.html#interaction-range): with the n = 0 form factor exp(-q^2 l^2 / 4),
  *   H = v(0) / (2 pi l^2),   F = (1 / 2 pi) integral_0^inf q dq v(q) exp(-q^2 l^2 / 2).
- * F is computed by numerical quadrature for every profile; the closed forms of section 9 are
+ * F is computed by numerical quadrature for every profile; the closed forms of the notes are
  * the tests' reference, not the code path.
  */
 export type RangeProfile = 'contact' | 'gaussian' | 'screened';

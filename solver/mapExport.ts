@@ -40,7 +40,7 @@ export function legendOf(
 }
 
 /**
- * The `map` output document of interfaces.md: grid coordinates, row-major labels
+ * The `map` output document (README, Command line): grid coordinates, row-major labels
  * (`phase[j][i]` at (x[i], y[j])), energies, gaps, the 15 order parameters, refined boundaries,
  * plus the model, the plane, the version and the mean-field caution.
  */

@@ -11,9 +11,9 @@ export interface ChannelCoupling {
 }
 
 /**
- * One Hartree-Fock problem (model.md section 4): couplings per channel, Zeeman energy E_Z (full
- * spin splitting), sublattice splitting Delta_V (positive lowers K, sublattice A), optional extra
- * one-body terms `sum c_ab G_ab` and the Coulomb exchange E_X (only shifts the gap).
+ * One Hartree-Fock problem (public/notes.html#energy): couplings per channel, Zeeman energy E_Z
+ * (full spin splitting), sublattice splitting Delta_V (positive lowers K, sublattice A), optional
+ * extra one-body terms `sum c_ab G_ab` and the Coulomb exchange E_X (only shifts the gap).
  * All energies in one unit of the user's choice.
  */
 export interface Model {
@@ -102,7 +102,8 @@ function parseCoupling(value: unknown, field: string): ChannelCoupling {
 }
 
 /**
- * Validates a model document (interfaces.md) and returns an immutable plain-data model.
+ * Validates a model document (the model file of the README) and returns an immutable plain-data
+ * model.
  * A bare number for a channel means hartree = fock. Throws ModelError with a one-line message.
  */
 export function parseModel(json: unknown, where = ''): Model {

@@ -3,7 +3,7 @@ import { orderOfProjector, projectorOf } from './state';
 
 /**
  * Ground states are degenerate along the orbits of the model's continuous symmetries
- * (model.md section 3). This picks one point of each orbit so that reported projectors and
+ * (public/notes.html#state). This picks one point of each orbit so that reported projectors and
  * spinors do not depend on where a descent happened to stop: a spin rotation about the field
  * turns the first nonzero pair (o_ax, o_ay), valley letters in the order 0, z, x, y, onto the
  * positive x axis; a valley rotation about tau_z does the same for (o_xb, o_yb), spin letters in

@@ -1,8 +1,8 @@
 import { channelIndex, type Channel } from './channels';
 
 /**
- * Order-parameter groups of model.md section 6: components that transform together under spin
- * rotation about the field (U(1)_s) and valley rotation about tau_z (U(1)_v).
+ * Order-parameter groups of public/notes.html#order-parameters: components that transform together
+ * under spin rotation about the field (U(1)_s) and valley rotation about tau_z (U(1)_v).
  */
 export interface OrderGroup {
   readonly key: OrderGroupKey;
@@ -57,7 +57,10 @@ export function groupMagnitudes(order: ArrayLike<number>): Float64Array {
   return out;
 }
 
-/** Spin vectors on sublattice A (valley K) and B (valley K'): (o_0b +- o_zb) / 2, b = x, y, z. */
+/**
+ * Spin vectors <sigma> on sublattice A (valley K) and B (valley K'): (o_0b +- o_zb) / 2,
+ * b = x, y, z, in units of hbar/2 (public/notes.html#probe).
+ */
 export function sublatticeSpins(order: ArrayLike<number>): { a: number[]; b: number[] } {
   const a: number[] = [];
   const b: number[] = [];
@@ -70,8 +73,9 @@ export function sublatticeSpins(order: ArrayLike<number>): { a: number[]; b: num
 
 /**
  * Angles where they mean something: the canting angle of the spin on sublattice A from the field
- * axis (radians; the CAF of model.md section 5 has cos(theta) = E_Z / (4 |uPerp_F|)), and the
- * phase of the Kekule amplitude o_x0 + i o_y0 (radians). NaN when the magnitude is below `tol`.
+ * axis (radians; the CAF of public/notes.html#closed-forms has cos(theta) = E_Z / (4 |uPerp_F|)),
+ * and the phase of the Kekule amplitude o_x0 + i o_y0 (radians). NaN when the magnitude is below
+ * `tol`.
  */
 export function orderAngles(
   order: ArrayLike<number>,

@@ -45,14 +45,14 @@ function channelSlot(name: string): number {
 }
 
 /**
- * Phase label from the computed state only (model.md section 6): the nonzero order-parameter
- * groups, in the fixed order of ORDER_GROUPS, joined by '+' (at odd filling, a product spinor is
- * named by its valley and spin factors instead). Groups that the one-body terms induce are left
- * out only when something else is broken. Where the model leaves a family of states degenerate
- * (a spin-isotropic model without a field, say), the solver reports the member that vanishing
- * fields select (degeneracy.ts), and the label names that member: a Neel state without a field
- * is named as in an infinitesimal field along the field axis (CAF), not by a merged name, so the
- * label does not change at E_Z = 0.
+ * Phase label from the computed state only (public/notes.html#labels): the nonzero
+ * order-parameter groups, in the fixed order of ORDER_GROUPS, joined by '+' (at odd filling, a
+ * product spinor is named by its valley and spin factors instead). Groups that the one-body terms
+ * induce are left out only when something else is broken. Where the model leaves a family of
+ * states degenerate (a spin-isotropic model without a field, say), the solver reports the member
+ * that vanishing fields select (degeneracy.ts), and the label names that member: a Neel state
+ * without a field is named as in an infinitesimal field along the field axis (CAF), not by a
+ * merged name, so the label does not change at E_Z = 0.
  */
 export function phaseLabel(order: ArrayLike<number>, c: Couplings): string {
   if (c.nf % 2 === 1) return composeLabel(order, c);

@@ -18,7 +18,7 @@ import {
 } from './model';
 
 /**
- * A two-coupling plane (interfaces.md `map`): an axis value t sets every target to
+ * A two-coupling plane (a model file's `plane`): an axis value t sets every target to
  * coefficient * t (targets `CH.hartree`, `CH.fock`, `zeeman`, `valleyZeeman`). When both axes
  * name the same target their contributions add.
  */
@@ -235,7 +235,7 @@ export class PlaneCouplings {
 }
 
 /**
- * The model a plane point stands for (interfaces.md `map`): every target set to
+ * The model a plane point stands for (README, Command line: A Map): every target set to
  * coefficient * t, summed over the axes that name it; everything else from the input's model.
  */
 export function modelAtPoint(input: MapInput, x: number, y: number): Model {

@@ -15,7 +15,7 @@ import { MEAN_FIELD_CAUTION, SOFTWARE_VERSION } from './version';
 export interface ProbeSpinor {
   /** Its Hartree-Fock level (without E_X). */
   readonly level: number;
-  /** |psi_f| for the flavours K up, K down, K' up, K' down (model.md section 2). */
+  /** |psi_f| for the flavours K up, K down, K' up, K' down (public/notes.html#basis). */
   readonly modulus: number[];
   /** arg psi_f in radians, (-pi, pi]; 0 where the modulus is below 1e-12. */
   readonly phase: number[];
@@ -34,7 +34,10 @@ export interface ProbeSpinor {
 export interface SiteOrder {
   /** Electrons per flux quantum on this sublattice, (Nf +- o_z0) / 2. */
   readonly charge: number;
-  /** Spin vector (o_0b +- o_zb) / 2 in units of hbar, b = x, y, z (z along the field). */
+  /**
+   * Spin vector <sigma> = (o_0b +- o_zb) / 2, b = x, y, z (z along the field), in units of hbar/2:
+   * length 1 for one fully polarised electron (public/notes.html#probe).
+   */
   readonly spin: number[];
   /** Angle between the spin and the field, radians (NaN for no spin). */
   readonly angleToField: number;
@@ -76,7 +79,7 @@ export interface ProbeReport {
   readonly format: 'fourfold-probe';
   readonly version: string;
   readonly caution: string;
-  /** The solve result of interfaces.md (energy, projector, order, phase, gap, modes, ...). */
+  /** The solve result (energy, projector, order, phase, gap, modes, ...). */
   readonly state: SolveJson;
   readonly spinors: ProbeSpinor[];
   /** Hartree-Fock levels ascending with occupations (occupied ones include -E_X when set). */

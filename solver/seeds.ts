@@ -9,10 +9,10 @@ import { orderOfProjector, projectorOf } from './state';
  * parameters are computed once and a model only needs a dot product to rank it.
  *
  * - Stabiliser states: joint eigenstates of a maximal set of three commuting G's, filled with any
- *   Nf of the four joint eigenvectors. They contain the F, CDW, KD and AF states of model.md
- *   section 5 and their rotations into the other channels.
+ *   Nf of the four joint eigenvectors. They contain the F, CDW, KD and AF states of
+ *   public/notes.html#closed-forms and their rotations into the other channels.
  * - Canted states: the CAF family at several canting angles and valley spinors tilted between
- *   the poles (KD towards CDW), the continuous families of section 5.
+ *   the poles (KD towards CDW), the continuous families of the closed forms.
  * - Random states: Haar-random frames from a fixed seed.
  */
 export interface Seed {

@@ -4,7 +4,7 @@ import { modelToJson } from './model';
 import { ORDER_GROUPS, orderAngles, sublatticeSpins } from './orderParameters';
 import { MEAN_FIELD_CAUTION, SOFTWARE_VERSION } from './version';
 
-/** Plain JSON form of a solve result (interfaces.md `solve` output, with extra fields). */
+/** Plain JSON form of a solve result (the `solve` output of the README, with extra fields). */
 export interface SolveJson {
   energy: number;
   projector: { re: number[][]; im: number[][] };

@@ -43,7 +43,7 @@ export function orderOfProjector(p: Float64Array, out: Float64Array): Float64Arr
 }
 
 /**
- * H_HF[P] of model.md section 7 from the order parameters, without the -E_X P term:
+ * H_HF[P] of public/notes.html#gap from the order parameters, without the -E_X P term:
  * sum_k (eta_k + kappa_k o_k) G_k + identityShift.
  */
 export function hartreeFockOfOrder(

@@ -11,7 +11,8 @@ import { hartreeFockOfOrder, orderOfProjector, projectorOf } from './state';
  * Algorithms on Matrix Manifolds, Princeton University Press (2008), chapter 4). Real
  * coordinates are ordered (Re Z_ai, Im Z_ai) with index 2 (a Nf + i).
  *
- * With M = U^dagger H_HF U and gamma^k_ai = u_a^dagger G_k u_i (derived here from section 4):
+ * With M = U^dagger H_HF U and gamma^k_ai = u_a^dagger G_k u_i (derived here from the energy,
+ * public/notes.html#energy):
  *   gradient  g = (2 Re M_ai, 2 Im M_ai),
  *   Hessian   K_kl = 2 Re[conj(alpha) beta (delta_ij M_ab - delta_ab M_ji)] + sum_k kappa_k w^k_k w^k_l,
  *   with w^k = (2 Re gamma^k_ai, 2 Im gamma^k_ai) and alpha, beta = 1 or i for the real or

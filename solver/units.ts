@@ -1,5 +1,5 @@
 /**
- * Physical scales of the n = 0 Landau level (model.md section 9). SI constants are the CODATA
+ * Physical scales of the n = 0 Landau level (public/notes.html#units). SI constants are the CODATA
  * 2018 recommended values (E. Tiesinga et al., Rev. Mod. Phys. 93, 025010 (2021)); e, hbar follow
  * from the exact SI definitions of 2019.
  */

@@ -7,7 +7,8 @@ import { afterAll, beforeAll, describe, expect, test } from 'vitest';
 import { INTERFACES_EXAMPLE, standardPlane } from './fixtures';
 import { CHANNELS, type SolveJson } from '../solver/index';
 
-// The CLI is driven exactly as interfaces.md describes it, through fourfold.mjs in a child process.
+// The CLI is driven exactly as the README (Command line) describes it, through fourfold.mjs in a
+// child process.
 
 const repoRoot = resolve(fileURLToPath(new URL('.', import.meta.url)), '..');
 
@@ -25,7 +26,7 @@ function fourfold(...args: string[]): Run {
   return { status: result.status, stdout: result.stdout, stderr: result.stderr };
 }
 
-/** The plane of interfaces.md (`map`), at 24 x 24. */
+/** The standard (uPerp, uZ) plane, at 24 x 24. */
 const PLANE_24 = standardPlane(24, 24);
 
 let dir = '';
@@ -59,7 +60,7 @@ function expectOneLineError(run: Run, mentions: string[]): void {
   for (const word of mentions) expect(lines[0]).toContain(word);
 }
 
-describe('fourfold CLI: bad input ends in one line naming the problem (interfaces.md)', () => {
+describe('fourfold CLI: bad input ends in one line naming the problem (README, Command line)', () => {
   test('a missing model file', () => {
     const path = join(dir, 'no-such-model.json');
     expectOneLineError(fourfold('solve', '--model', path), [path, 'no such file']);
@@ -153,7 +154,7 @@ describe('fourfold CLI: bad input ends in one line naming the problem (interface
   });
 });
 
-/** The documented fields of a `solve` result (interfaces.md), as the solver types them. */
+/** The documented fields of a `solve` result (README, Command line), as the solver types them. */
 type SolveOutput = Pick<
   SolveJson,
   'energy' | 'projector' | 'order' | 'phase' | 'gap' | 'modes' | 'goldstone'
@@ -191,8 +192,8 @@ function expectProjector({ re, im }: SolveOutput['projector'], nf: number): void
   expect(Math.abs(trace - nf)).toBeLessThan(1e-12);
 }
 
-describe('fourfold solve (interfaces.md)', () => {
-  test('the interfaces.md example is CAF with E = -uZ_F - E_Z^2/(8|uPerp_F|) = -2.02 (model.md section 5, derived)', () => {
+describe('fourfold solve (README, Command line)', () => {
+  test('the worked point is CAF with E = -uZ_F - E_Z^2/(8|uPerp_F|) = -2.02 (public/notes.html#closed-forms, derived)', () => {
     const result = solveJson(INTERFACES_EXAMPLE) as SolveOutput;
     expect(Math.abs(result.energy - -2.02)).toBeLessThan(1e-12);
     expect(result.phase).toBe('CAF');
@@ -218,7 +219,7 @@ describe('fourfold solve (interfaces.md)', () => {
 
   test('an array of two models gives an array of two results in the same order', () => {
     // E_Z = 5 > 4 |uPerp_F| puts the second model in F: E = -2 uPerp_F - uZ_F - E_Z = -5
-    // (model.md section 5, derived).
+    // (public/notes.html#closed-forms, derived).
     const ferromagnet = { ...INTERFACES_EXAMPLE, zeeman: 5 };
     const results = solveJson([ferromagnet, INTERFACES_EXAMPLE]) as SolveOutput[];
     expect(Array.isArray(results)).toBe(true);
@@ -231,7 +232,7 @@ describe('fourfold solve (interfaces.md)', () => {
   });
 
   test('energies in another unit (the example times 1e-22, e.g. joules): every energy scales by 1e-22', () => {
-    // interfaces.md: "All energies in one unit of the user's choice". Energy, gap and modes are
+    // README: energies "in one unit of your choice". Energy, gap and modes are
     // all energies, so each must scale with the unit.
     const s = 1e-22;
     const scaled = {
@@ -276,7 +277,7 @@ function balancedTags(xml: string): string[] {
   return names;
 }
 
-describe('fourfold map on the interfaces.md plane at 24 x 24 (E_Z = 0.4)', () => {
+describe('fourfold map on the standard plane at 24 x 24 (E_Z = 0.4)', () => {
   const mapModel = { filling: 0, zeeman: 0.4, valleyZeeman: 0, plane: PLANE_24 };
 
   function runMap(name: string): string {
@@ -308,8 +309,9 @@ describe('fourfold map on the interfaces.md plane at 24 x 24 (E_Z = 0.4)', () =>
       map.phase[j]!.forEach((label) => expect(label).toMatch(/^[A-Za-z0-9+]+$/));
       map.energy[j]!.forEach((e) => expect(Number.isFinite(e)).toBe(true));
     }
-    // phase[j][i] sits at (x[i], y[j]). Closed forms of model.md section 5 (derived), at points
-    // away from the boundaries of model.md section 10 (Phys. Rev. B 85, 155439 (2012)):
+    // phase[j][i] sits at (x[i], y[j]). Closed forms of public/notes.html#closed-forms (derived),
+    // at points away from the boundaries of public/notes.html#checks (Phys. Rev. B 85, 155439
+    // (2012)):
     const at = (i: number, j: number) => ({ phase: map.phase[j]![i]!, energy: map.energy[j]![i]! });
     // (uPerp, uZ) = (-13/12, 23/12): CAF, E = -uZ - E_Z^2 / (8 |uPerp|).
     expect(at(5, 23).phase).toBe('CAF');
@@ -339,8 +341,8 @@ describe('fourfold map on the interfaces.md plane at 24 x 24 (E_Z = 0.4)', () =>
         expect(y).toBeLessThanOrEqual(2);
       }
     }
-    // F/CAF is continuous (model.md section 5, derived); CAF/KD is first order (Phys. Rev. B 85,
-    // 155439 (2012), recalled from memory).
+    // F/CAF is continuous (public/notes.html#closed-forms, derived); CAF/KD is first order (Phys.
+    // Rev. B 85, 155439 (2012), recalled from memory).
     const pairs = (a: string, b: string) =>
       map.boundaries.filter((x) => [...x.between].sort().join('|') === [a, b].sort().join('|'));
     expect(pairs('CAF', 'F').length).toBeGreaterThan(0);
@@ -387,7 +389,7 @@ describe('fourfold map on the interfaces.md plane at 24 x 24 (E_Z = 0.4)', () =>
 });
 
 describe('fourfold cut (a straight line of the plane)', () => {
-  // The standard model (H = F) on the interfaces.md plane, E_Z = 0.4.
+  // The standard model (H = F) on the standard plane, E_Z = 0.4.
   const cutModel = { filling: 0, zeeman: 0.4, valleyZeeman: 0, plane: PLANE_24 };
   const line = ['--from', '-1.9,1.2', '--to', '1.9,-1.4'];
 
@@ -419,7 +421,8 @@ describe('fourfold cut (a straight line of the plane)', () => {
     expect([cut.x[0], cut.y[0], cut.x[119], cut.y[119]]).toEqual([-1.9, 1.2, 1.9, -1.4]);
     expect(Object.keys(cut.groups)).toHaveLength(8);
     expect(cut.caution).toContain('Mean-field');
-    // KD (E = uPerp) at the start, F (E = -2 uPerp - uZ - E_Z) at the end: model.md section 5.
+    // KD (E = uPerp) at the start, F (E = -2 uPerp - uZ - E_Z) at the end:
+    // public/notes.html#closed-forms.
     expect(cut.phase[0]).toBe('KD');
     expect(cut.energy[0]).toBeCloseTo(-1.9, 12);
     expect(cut.cantingDeg[0]).toBeNull();
@@ -429,7 +432,7 @@ describe('fourfold cut (a straight line of the plane)', () => {
     expect(cut.slope[0]).toBeCloseTo(3.8, 12);
     expect(cut.slope[119]).toBeCloseTo(-5, 12);
     // KD -> CAF (first order), then CAF -> F (continuous) at uPerp = -E_Z / 4 = -0.1
-    // (model.md section 5; Phys. Rev. B 85, 155439 (2012)).
+    // (public/notes.html#closed-forms; Phys. Rev. B 85, 155439 (2012)).
     expect(cut.transitions.map((t) => [...t.between, t.order])).toEqual([
       ['KD', 'CAF', 'first'],
       ['CAF', 'F', 'continuous'],
@@ -507,7 +510,7 @@ describe('fourfold probe', () => {
     competitors: { phase: string; above: number }[];
   }
 
-  test('the interfaces.md example: the solve result plus canting, the broken symmetry and competitors', () => {
+  test('the worked point: the solve result plus canting, the broken symmetry and competitors', () => {
     const model = file('probe.model.json', INTERFACES_EXAMPLE);
     const run = fourfold('probe', '--model', model);
     expect(run.status).toBe(0);
@@ -517,7 +520,7 @@ describe('fourfold probe', () => {
     expect(probe.state.energy).toBe(solve.energy);
     expect(probe.state.phase).toBe(solve.phase);
     expect(probe.state.modes).toEqual(solve.modes);
-    // CAF canting cos(theta) = E_Z / (4 |uPerp_F|) = 0.1 (model.md section 5, derived).
+    // CAF canting cos(theta) = E_Z / (4 |uPerp_F|) = 0.1 (public/notes.html#closed-forms, derived).
     expect(Math.cos(probe.sublattices.a.angleToField)).toBeCloseTo(0.1, 10);
     expect(probe.modes.gapless.map((m) => m.generators)).toEqual([['0z']]);
     expect(probe.competitors[0]).toMatchObject({ phase: 'CAF', above: 0 });
@@ -530,7 +533,8 @@ describe('fourfold probe', () => {
     expect(run.status).toBe(0);
     const probe = JSON.parse(run.stdout) as ProbeOut;
     expect(probe.point).toEqual({ x: -1.5, y: 1.5 });
-    // uPerp = -1.5, uZ = 1.5, E_Z = 0.4: CAF with E = -uZ - E_Z^2 / (8 |uPerp|) (model.md section 5).
+    // uPerp = -1.5, uZ = 1.5, E_Z = 0.4: CAF with E = -uZ - E_Z^2 / (8 |uPerp|)
+    // (public/notes.html#closed-forms).
     expect(probe.state.phase).toBe('CAF');
     expect(probe.state.energy).toBeCloseTo(-1.5 - 0.16 / 12, 12);
     const svg = readFileSync(out, 'utf8');

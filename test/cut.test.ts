@@ -14,7 +14,7 @@ import { cutPathOf } from '../app/cut/cutPath';
 import { DEMO_SETUP } from '../app/scenario/demo';
 import { setupToScenario } from '../app/scenario/scenario';
 
-/** The standard model (H = F) on the (uPerp, uZ) plane of interfaces.md, at E_Z and Delta_V. */
+/** The standard model (H = F) on the (uPerp, uZ) plane (test/fixtures.ts), at E_Z and Delta_V. */
 function standardInput(zeeman: number, valleyZeeman = 0) {
   return parseMapInput({
     filling: 0,
@@ -30,10 +30,11 @@ const group = (cut: CutResult, key: string, i: number): number =>
 
 describe('Cut: a tilt sweep at fixed couplings in the CAF region', () => {
   // uPerp = -1, uZ = 2 (H = F), E_Z at zero tilt 0.4, tilt 0 to 85 degrees at fixed
-  // perpendicular field: E_Z = 0.4 / cos(theta) (model.md section 9). CAF turns into F where
-  // E_Z = 4 |uPerp_F| with cos(canting) = E_Z / (4 |uPerp_F|) before it (model.md section 5;
-  // Phys. Rev. B 85, 155439 (2012), whose Zeeman symbol differs from our full splitting E_Z by a
-  // factor, so its condition reads E_Z = 4 |uPerp| in our convention, model.md section 10).
+  // perpendicular field: E_Z = 0.4 / cos(theta) (public/notes.html#units). CAF turns into F where
+  // E_Z = 4 |uPerp_F| with cos(canting) = E_Z / (4 |uPerp_F|) before it
+  // (public/notes.html#closed-forms; Phys. Rev. B 85, 155439 (2012), whose Zeeman symbol differs
+  // from our full splitting E_Z by a factor, so its condition reads E_Z = 4 |uPerp| in our
+  // convention, public/notes.html#checks).
   const zeemanPerp = 0.4;
   const cut = computeCut(
     standardInput(0.4),
@@ -54,7 +55,7 @@ describe('Cut: a tilt sweep at fixed couplings in the CAF region', () => {
     expect([transition!.x, transition!.y]).toEqual([-1, 2]);
   });
 
-  test('the canting angle and energy follow the closed forms along the way (model.md section 5)', () => {
+  test('the canting angle and energy follow the closed forms along the way (public/notes.html#closed-forms)', () => {
     let before = 0;
     for (let i = 0; i < cut.t.length; i++) {
       const zeeman = zeemanAt(cut.s[i]!);
@@ -76,7 +77,7 @@ describe('Cut: a tilt sweep at fixed couplings in the CAF region', () => {
     expect(before).toBe(198);
   });
 
-  test('dE/dtheta is exact: the derivative of the closed-form energy (model.md sections 5 and 9)', () => {
+  test('dE/dtheta is exact: the derivative of the closed-form energy (public/notes.html#closed-forms and public/notes.html#units)', () => {
     for (let i = 0; i < cut.t.length; i++) {
       const theta = (cut.s[i]! * Math.PI) / 180;
       const zeeman = zeemanAt(cut.s[i]!);
@@ -90,11 +91,12 @@ describe('Cut: a tilt sweep at fixed couplings in the CAF region', () => {
   });
 });
 
-describe('Cut: line cuts across first-order boundaries (model.md section 10, H = F)', () => {
+describe('Cut: line cuts across first-order boundaries (public/notes.html#checks, H = F)', () => {
   test('KD/CDW at uZ = uPerp (uPerp < 0) is located on the line and typed first order', () => {
     // A vertical cut at uPerp = -1.5 from uZ = -1.8 to 1.8 (E_Z = 0.4): CDW, then KD from
     // uZ = uPerp = -1.5 (Phys. Rev. B 85, 155439 (2012)), then CAF where
-    // -uZ - E_Z^2 / (8 |uPerp|) = uPerp, i.e. uZ = 1.5 - 0.16 / 12 (model.md section 5, derived).
+    // -uZ - E_Z^2 / (8 |uPerp|) = uPerp, i.e. uZ = 1.5 - 0.16 / 12 (public/notes.html#closed-forms,
+    // derived).
     const cut = computeCut(
       standardInput(0.4),
       { kind: 'line', from: [-1.5, -1.8], to: [-1.5, 1.8] },
@@ -117,7 +119,7 @@ describe('Cut: line cuts across first-order boundaries (model.md section 10, H =
     }
   });
 
-  test('F/CDW on a slanted cut lies on uZ = -uPerp - E_Z / 2 (model.md section 5, derived)', () => {
+  test('F/CDW on a slanted cut lies on uZ = -uPerp - E_Z / 2 (public/notes.html#closed-forms, derived)', () => {
     const from: [number, number] = [0.4, -1.9];
     const to: [number, number] = [1.6, 0.3];
     const cut = computeCut(standardInput(0.4), { kind: 'line', from, to }, 80);
@@ -162,7 +164,7 @@ describe('Cut: parameter sweeps at a pinned point', () => {
     expect(cut.transitions[0]!.between).toEqual(['CAF', 'F']);
     expect(cut.transitions[0]!.order).toBe('continuous');
     expect(Math.abs(cut.transitions[0]!.s - 4)).toBeLessThanOrEqual(BISECTION_TOLERANCE * 5.5);
-    // dE/dE_Z = -o_0z / 2: -E_Z / 4 in CAF, -1 in F (model.md section 5, derived).
+    // dE/dE_Z = -o_0z / 2: -E_Z / 4 in CAF, -1 in F (public/notes.html#closed-forms, derived).
     for (let i = 0; i < cut.t.length; i++) {
       const expected = cut.s[i]! < 4 ? -cut.s[i]! / 4 : -1;
       expect(Math.abs(cut.slope[i]! - expected)).toBeLessThan(1e-9);
@@ -179,7 +181,7 @@ describe('Cut: parameter sweeps at a pinned point', () => {
     // The horizontal axis is the swept value: s = x there.
     sweep.s.forEach((s, i) => expect(s).toBeCloseTo(sweep.x[i]!, 12));
     // KD/CAF at uZ = 1, uPerp = -(uZ ... ): -uZ - E_Z^2 / (8 |uPerp|) = uPerp (derived); F/CAF at
-    // uPerp = -E_Z / 4 = -0.1 (model.md section 5).
+    // uPerp = -E_Z / 4 = -0.1 (public/notes.html#closed-forms).
     const caf = sweep.transitions.find((t) => t.between.join() === 'CAF,F');
     expect(Math.abs(caf!.x - -0.1)).toBeLessThanOrEqual(BISECTION_TOLERANCE * 3);
   });
@@ -259,7 +261,7 @@ describe('Cut in the app: the tilt sweep takes E_Z at zero tilt from the Setup',
   test('dimensionless: the Setup E_Z is E_Z at zero tilt', () => {
     expect(cutPathOf(spec, input, DEMO_SETUP)).toEqual({ ...spec, zeemanPerp: DEMO_SETUP.zeeman });
   });
-  test('physical units: the Setup holds E_Z at its tilt, so E_Z(0) = E_Z cos(tilt) (model.md section 9)', () => {
+  test('physical units: the Setup holds E_Z at its tilt, so E_Z(0) = E_Z cos(tilt) (public/notes.html#units)', () => {
     const physical = {
       ...DEMO_SETUP,
       physical: {

@@ -3,7 +3,7 @@ import { CHANNELS, ModelError, parseModel, type Model, type RandomSource } from 
 
 /** Shared test inputs (not a test file itself: vitest runs `*.test.ts` only). */
 
-/** The model file of interfaces.md ("Model file (JSON)"). */
+/** A model file: the worked point of public/notes.html#closed-forms (H = F). */
 export const INTERFACES_EXAMPLE = {
   filling: 0,
   channels: {
@@ -16,7 +16,7 @@ export const INTERFACES_EXAMPLE = {
 };
 
 /**
- * The (uPerp, uZ) plane of interfaces.md (`map`) for the standard model (H = F), with its ranges
+ * The (uPerp, uZ) plane (a model file's `plane`) for the standard model (H = F), with its ranges
  * and resolution free.
  */
 export function standardPlane(

@@ -55,7 +55,7 @@ describe('exponential integral E1 (Abramowitz and Stegun, Handbook of Mathematic
   });
 });
 
-describe('range-derived couplings: quadrature against the closed forms of model.md section 9 (derived there)', () => {
+describe('range-derived couplings: quadrature against the closed forms of public/notes.html#interaction-range (derived there)', () => {
   const ranges = [0.01, 0.2, 0.7, 1, 1.5, 4, 30, 1000];
 
   test('Gaussian: H = g / 2 pi and F / H = 1 / (1 + a^2 / l^2)', () => {

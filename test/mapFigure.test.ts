@@ -5,7 +5,7 @@ import { regionOutlines } from '../app/figure/regionOutlines';
 import { computePhaseMap, parseMapInput, seededRandom, type PhaseMap } from '../solver/index';
 import { INTERFACES_EXAMPLE, standardPlane } from './fixtures';
 
-// A small fixed scenario: the standard model of interfaces.md (H = F, E_Z = 0.4, Delta_V = 0)
+// A small fixed scenario: the standard model (H = F, E_Z = 0.4, Delta_V = 0)
 // in its (uPerp, uZ) plane at 24 x 24, computed in-process.
 const E_Z = INTERFACES_EXAMPLE.zeeman;
 let map: PhaseMap;
@@ -187,7 +187,7 @@ describe('the SVG file', () => {
 });
 
 test('a tilt path is drawn through its points with both end angles, and only when given; axis units', () => {
-  // A ray towards the origin (model.md section 9): (-1.2, 1.6) scaled by cos(theta) / cos(0).
+  // A ray towards the origin (public/notes.html#units): (-1.2, 1.6) scaled by cos(theta) / cos(0).
   const points = [0, 40, 80].map((deg): [number, number] => {
     const c = Math.cos((deg * Math.PI) / 180);
     return [-1.2 * c, 1.6 * c];
@@ -207,9 +207,9 @@ test('a tilt path is drawn through its points with both end angles, and only whe
   expect(svg).not.toContain('meV');
 });
 
-describe('boundaries in the SVG lie on the closed-form lines (model.md section 5)', () => {
-  // nu = 0, H = F, Delta_V = 0, energies per flux quantum (model.md section 5, derived there
-  // from section 4): E_F = -2 uPerp - uZ - E_Z, E_CDW = uZ, E_KD = uPerp,
+describe('boundaries in the SVG lie on the closed-form lines (public/notes.html#closed-forms)', () => {
+  // nu = 0, H = F, Delta_V = 0, energies per flux quantum (public/notes.html#closed-forms, derived
+  // there from the energy): E_F = -2 uPerp - uZ - E_Z, E_CDW = uZ, E_KD = uPerp,
   // E_CAF = -uZ - E_Z^2 / (8 |uPerp|) for E_Z < 4 |uPerp|. The boundaries are where two of them
   // are equal: F/CAF at uPerp = -E_Z/4 (Phys. Rev. B 85, 155439 (2012): E_Z = 4 |uPerp| in our
   // convention), CAF/KD at uZ = -uPerp - E_Z^2 / (8 |uPerp|), KD/CDW at uZ = uPerp,
@@ -262,9 +262,9 @@ describe('boundaries in the SVG lie on the closed-form lines (model.md section 5
       expect(path.getAttribute('stroke-dasharray') !== null).toBe(order === 'continuous');
       expect(['first order', 'continuous']).toContain(order);
     }
-    // F/CAF is continuous (model.md section 5: CAF merges continuously into F), the rest first
-    // order; each runs from the frame to near the triple points about (-E_Z/4, 0): F/CAF is
-    // about 1.9 long, the three diagonals about 2.5 to 2.7.
+    // F/CAF is continuous (public/notes.html#closed-forms: CAF merges continuously into F), the
+    // rest first order; each runs from the frame to near the triple points about (-E_Z/4, 0): F/CAF
+    // is about 1.9 long, the three diagonals about 2.5 to 2.7.
     expect(seen.get('CAF|F')).toMatchObject({ order: 'continuous' });
     expect(seen.get('CAF|F')!.length).toBeGreaterThan(1.8);
     for (const key of ['CAF|KD', 'CDW|KD', 'CDW|F']) {

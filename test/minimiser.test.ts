@@ -32,7 +32,7 @@ function bruteForce(c: Couplings, starts: number, random: RandomSource): number 
   return best;
 }
 
-/** Dense 4x4 complex G_ab = tau_a (x) sigma_b, valley first (model.md section 2), built here. */
+/** Dense 4x4 complex G_ab = tau_a (x) sigma_b, valley first (public/notes.html#basis), built here. */
 function pauliProduct(a: number, b: number): Float64Array {
   const pauli: [number, number][][][] = [
     [
@@ -95,7 +95,7 @@ function trace(m: Float64Array): number {
   return m[0]! + m[10]! + m[20]! + m[30]!;
 }
 
-/** E[P] straight from model.md section 4, with dense matrices (independent of the solver). */
+/** E[P] straight from public/notes.html#energy, with dense matrices (independent of the solver). */
 function denseEnergy(model: Model, p: Float64Array): number {
   const letters = '0xyz';
   let energy =
@@ -138,7 +138,7 @@ function maxAbsDifference(a: Float64Array, b: Float64Array): number {
 }
 
 describe('energy functional', () => {
-  test('diagonal form in the order parameters equals the matrix form of model.md section 4', () => {
+  test('diagonal form in the order parameters equals the matrix form of public/notes.html#energy', () => {
     const random = seededRandom(11);
     const ws = new DescentWorkspace();
     for (let n = 0; n < 60; n++) {
@@ -210,9 +210,10 @@ describe('global minimiser', () => {
       expect(p[0]! + p[10]! + p[20]! + p[30]!).toBeCloseTo(c.nf, 12); // tr P = Nf
       expect(r.commutator).toBeLessThan(1e-9 * c.scale); // [H_HF, P] = 0
       // Moving one electron from occupied level i to empty level a changes the energy by
-      // eps_a - eps_i + 1/2 sum_k kappa_k (tr G_k (|a><a| - |i><i|))^2 (derived from section 4):
-      // at a global minimum that is never negative. When every kappa_k <= 0 this forces the
-      // Aufbau principle; with Hartree-dominated channels Aufbau may fail and the gap is < 0.
+      // eps_a - eps_i + 1/2 sum_k kappa_k (tr G_k (|a><a| - |i><i|))^2 (derived from the energy,
+      // public/notes.html#energy): at a global minimum that is never negative. When every
+      // kappa_k <= 0 this forces the Aufbau principle; with Hartree-dominated channels Aufbau may
+      // fail and the gap is < 0.
       const h = hartreeFockOfOrder(c, r.order, new Float64Array(32));
       const values = new Float64Array(4);
       const vectors = new Float64Array(32);

@@ -15,7 +15,7 @@ import {
   type RandomSource,
 } from '../solver/index';
 
-/** The plane of interfaces.md (`map`), at a small resolution. */
+/** The standard (uPerp, uZ) plane of a model file, at a small resolution. */
 const INTERFACES_PLANE = standardPlane(24, 16);
 
 /** Asserts a one-line message that starts with (names) the field path. */
@@ -31,7 +31,7 @@ function withChannels(channels: unknown): Record<string, unknown> {
 }
 
 describe('parseModel', () => {
-  test('accepts the interfaces.md example and returns a frozen plain-data model', () => {
+  test('accepts the worked-point model file and returns a frozen plain-data model', () => {
     const model = parseModel(INTERFACES_EXAMPLE);
     expect(model.filling).toBe(0);
     expect(model.channels).toEqual({
@@ -78,7 +78,7 @@ describe('parseModel', () => {
         'unknown channel',
       ]);
     }
-    // 00 is the SU(4)-symmetric part (model.md section 4), so its message says so.
+    // 00 is the SU(4)-symmetric part (public/notes.html#energy), so its message says so.
     expect(errorOf(() => parseModel(withChannels({ '00': 1 })))).toContain('SU(4)');
   });
 
@@ -173,7 +173,7 @@ function withAxis(axis: 'x' | 'y', changes: Record<string, unknown>): Record<str
 }
 
 describe('parsePlane and parseMapInput', () => {
-  test('accept the interfaces.md plane; grid coordinates are cell centres', () => {
+  test('accept the standard plane; grid coordinates are cell centres', () => {
     const { model, plane } = parseMapInput(GOOD_MAP);
     expect(model.channels.z0).toEqual({ hartree: 2, fock: 2 });
     expect(plane.resolution).toEqual([24, 16]);
@@ -318,7 +318,7 @@ function randomModelJson(random: RandomSource): Record<string, unknown> {
 }
 
 /**
- * The model that interfaces.md says a plane point stands for: every target set to
+ * The model that a plane point stands for (README, Command line: A Map): every target set to
  * coefficient * t, summed over the axes that name it, everything else from the model.
  */
 function modelAtPoint(
@@ -390,7 +390,7 @@ describe('PlaneCouplings', () => {
     }
   });
 
-  test('on the interfaces.md plane, at(-1, 2) is the interfaces.md example (uPerp = -1, uZ = 2, E_Z = 0.4)', () => {
+  test('on the standard plane, at(-1, 2) is the worked point of public/notes.html#closed-forms (uPerp = -1, uZ = 2, E_Z = 0.4)', () => {
     const planeCouplings = new PlaneCouplings(
       parseMapInput({ filling: 0, zeeman: 0.4, plane: INTERFACES_PLANE }),
     );

@@ -20,7 +20,7 @@ import {
 
 const repoRoot = resolve(fileURLToPath(new URL('.', import.meta.url)), '..');
 
-/** Standard model (H = F) on the (uPerp, uZ) plane of interfaces.md. */
+/** Standard model (H = F) on the (uPerp, uZ) plane of test/fixtures.ts (standardPlane). */
 function standardPlaneModel(
   zeeman: number,
   n: number,
@@ -37,8 +37,8 @@ function standardPlaneModel(
 }
 
 /**
- * Distance of (uPerp, uZ) from the closed-form boundary of a label pair (model.md section 5,
- * derived there from section 4, H = F, Delta_V = 0).
+ * Distance of (uPerp, uZ) from the closed-form boundary of a label pair
+ * (public/notes.html#closed-forms, derived there from the energy, H = F, Delta_V = 0).
  */
 function closedFormDistance(pair: string, u: number, z: number, zeeman: number): number {
   switch (pair) {
@@ -64,7 +64,7 @@ const EXPECTED_ORDER: Record<string, 'first' | 'continuous'> = {
 
 describe('Map of the standard model', () => {
   for (const zeeman of [0.3, 0.8]) {
-    test(`recovers the closed-form boundaries of model.md section 5 at E_Z = ${zeeman} to 1e-6 of the span, typed`, async () => {
+    test(`recovers the closed-form boundaries of public/notes.html#closed-forms at E_Z = ${zeeman} to 1e-6 of the span, typed`, async () => {
       // Ranges avoid putting pixel centres on the KD/CDW line uZ = uPerp, where H = F makes the two
       // states exactly degenerate (a valley-rotation family).
       const xRange: [number, number] = [-2, 2.03];
@@ -95,7 +95,7 @@ describe('Map of the standard model', () => {
     });
   }
 
-  test('labels at points whose phase is known in closed form (model.md section 5)', async () => {
+  test('labels at points whose phase is known in closed form (public/notes.html#closed-forms)', async () => {
     const map = await computePhaseMap(parseMapInput(standardPlaneModel(0.4, 40, [-2, 2], [-2, 2])));
     const at = (u: number, z: number): string => {
       const i = Math.floor(((u + 2) / 4) * 40);
@@ -144,11 +144,12 @@ describe('Map of the standard model', () => {
 });
 
 describe('transition typing does not depend on how narrow the final bracket is', () => {
-  test('the continuous F/CAF transition is typed continuous at the browser tolerance too (square-root onset, model.md section 5)', () => {
+  test('the continuous F/CAF transition is typed continuous at the browser tolerance too (square-root onset, public/notes.html#closed-forms)', () => {
     // Standard model uZ = 1, E_Z = 0.6: CAF for uPerp < -E_Z/4 = -0.15, F beyond, with the Neel
-    // order 2 sin(theta) growing as the square root of the distance (model.md section 5). A
-    // bracket of 1e-6 of a 4-wide span (the browser's) still leaves a step of about 0.015 in
-    // the order parameters, above FIRST_ORDER_JUMP; the typing must look closer.
+    // order 2 sin(theta) growing as the square root of the distance
+    // (public/notes.html#closed-forms). A bracket of 1e-6 of a 4-wide span (the browser's) still
+    // leaves a step of about 0.015 in the order parameters, above FIRST_ORDER_JUMP; the typing must
+    // look closer.
     const model = (uPerp: number) =>
       couplingsOf(
         parseModel({ filling: 0, channels: { x0: uPerp, y0: uPerp, z0: 1 }, zeeman: 0.6 }),

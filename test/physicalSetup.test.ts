@@ -27,7 +27,7 @@ import { sampleAt } from '../app/setup/samplePlacement';
 
 const DEG = Math.PI / 180;
 
-/** E_Z in meV from the defining formula g mu_B B_perp / cos(tilt) (model.md section 9). */
+/** E_Z in meV from the defining formula g mu_B B_perp / cos(tilt) (public/notes.html#units). */
 function zeemanFormula(b: number, tiltDeg: number, g: number): number {
   return (g * BOHR_MAGNETON * b) / Math.cos(tiltDeg * DEG) / (ELEMENTARY_CHARGE * 1e-3);
 }
@@ -59,7 +59,7 @@ function sample(extra: Partial<Setup> = {}): Setup {
   });
 }
 
-describe('physical units in the Setup (model.md section 9)', () => {
+describe('physical units in the Setup (public/notes.html#units)', () => {
   test('E_Z follows B_perp, tilt and g; couplings typed in meV/T scale with B_perp', () => {
     const s = sample();
     expect(s.zeeman / zeemanFormula(8, 40, 2)).toBeCloseTo(1, 12);
@@ -172,8 +172,9 @@ describe('tilt path on the Map', () => {
     expect(tiltTrajectory(sample({ ratios: { uPerp: 0.5, uZ: 1 } }))!.exact).toBe(false);
   });
 
-  test('the ray is physical: the sample at each tilt has the state of its point on the Map (derived from model.md section 4)', () => {
-    // A sample near the CAF/F boundary E_Z = 4|u_perp| (model.md section 5): the tilt crosses it.
+  test('the ray is physical: the sample at each tilt has the state of its point on the Map (derived from public/notes.html#energy)', () => {
+    // A sample near the CAF/F boundary E_Z = 4|u_perp| (public/notes.html#closed-forms): the tilt
+    // crosses it.
     const s = sample({
       channels: {
         ...zeroChannels(),
@@ -234,7 +235,8 @@ describe('the sample at a pinned point', () => {
     expect(path.exact).toBe(true);
     expect(path.current[0]).toBeCloseTo(-0.7, 12);
     expect(path.current[1]).toBeCloseTo(0.9, 12);
-    // At the largest tilt the point is the pin scaled by cos(theta_max) / cos(theta_now) (model.md section 9).
+    // At the largest tilt the point is the pin scaled by cos(theta_max) / cos(theta_now)
+    // (public/notes.html#units).
     const last = path.points[path.points.length - 1]!;
     const scale =
       Math.cos((placed.physical!.tiltMaxDeg * Math.PI) / 180) /

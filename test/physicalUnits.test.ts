@@ -53,7 +53,7 @@ const lib = {
     ),
 };
 
-describe('physical units against mathjs 15.2.0 (CODATA 2018 in both; model.md section 10)', () => {
+describe('physical units against mathjs 15.2.0 (CODATA 2018 in both; public/notes.html#checks)', () => {
   test("the library's 'eV' unit is the CODATA 2010 value, 4.3e-8 below CODATA 2018 (why energies convert through e)", () => {
     expect(mathjs.unit(1, 'eV').toNumber('J')).toBe(1.602176565e-19);
     expect(ELEMENTARY_CHARGE / mathjs.unit(1, 'eV').toNumber('J') - 1).toBeCloseTo(4.31e-8, 10);
@@ -66,7 +66,7 @@ describe('physical units against mathjs 15.2.0 (CODATA 2018 in both; model.md se
     expect(VACUUM_PERMITTIVITY / inUnit(mathjs.electricConstant, 'F/m')).toBeCloseTo(1, 12);
   });
 
-  test('l_B = 25.6556 nm at 1 T (model.md section 10) and as 1/sqrt(B) from the library', () => {
+  test('l_B = 25.6556 nm at 1 T (public/notes.html#checks) and as 1/sqrt(B) from the library', () => {
     expect(inUnit(lib.magneticLength(1), 'nm')).toBeCloseTo(25.6556, 4);
     for (const b of [0.5, 1, 9, 31.4]) {
       expect(magneticLength(b) / inUnit(lib.magneticLength(b), 'm')).toBeCloseTo(1, 12);

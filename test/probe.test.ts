@@ -14,7 +14,7 @@ import {
 } from '../solver/index';
 import { INTERFACES_EXAMPLE, standardPlane } from './fixtures';
 
-/** The anisotropic contact model of model.md section 4 (H = F). */
+/** The anisotropic contact model of public/notes.html#energy (H = F). */
 function standard(uPerp: number, uZ: number, zeeman: number, valleyZeeman = 0) {
   return parseModel({
     filling: 0,
@@ -24,11 +24,12 @@ function standard(uPerp: number, uZ: number, zeeman: number, valleyZeeman = 0) {
   });
 }
 
-describe('Probe numbers against closed forms (model.md sections 5 and 8)', () => {
+describe('Probe numbers against closed forms (public/notes.html#closed-forms and public/notes.html#modes)', () => {
   test('CAF: both sublattice spins at cos(theta) = E_Z/(4|uPerp|) from the field, opposite across it, one Goldstone mode (spin about the field)', () => {
     // PRB 85, 155439 (2012), canting of the CAF; its Zeeman symbol is half ours (from memory), so
-    // its boundary eps_Z = 2|u_perp| reads E_Z = 4|uPerp| here (model.md section 5, derived).
-    // model.md section 5 reference point: uPerp = -1, uZ = 2, E_Z = 0.4 gives E = -2.02.
+    // its boundary eps_Z = 2|u_perp| reads E_Z = 4|uPerp| here (public/notes.html#closed-forms,
+    // derived). The worked point of public/notes.html#closed-forms: uPerp = -1, uZ = 2, E_Z = 0.4
+    // gives E = -2.02.
     for (const zeeman of [0.4, 1.2, 2.8, 3.6]) {
       const p = probeModel(standard(-1, 2, zeeman));
       expect(p.state.phase).toBe('CAF');
@@ -77,7 +78,7 @@ describe('Probe numbers against closed forms (model.md sections 5 and 8)', () =>
     }
   });
 
-  test('CDW: both electrons on sublattice A when Delta_V > 0, energy 2 uZ_H - uZ_F - Delta_V (model.md section 5)', () => {
+  test('CDW: both electrons on sublattice A when Delta_V > 0, energy 2 uZ_H - uZ_F - Delta_V (public/notes.html#closed-forms)', () => {
     const p = probeModel(standard(-0.5, -1, 0.1, 0.2));
     expect(p.state.phase).toBe('CDW');
     expect(p.state.energy).toBeCloseTo(2 * -1 - -1 - 0.2, 12);
@@ -91,7 +92,8 @@ describe('Probe numbers against closed forms (model.md sections 5 and 8)', () =>
   });
 
   test('KD: three bond strengths Re[Delta w^m] in the Kekule pattern, every site touching one bond of each class', () => {
-    // KD energy 2 uPerp_H - uPerp_F (model.md section 5) wins over CDW (uZ) when uZ > uPerp.
+    // KD energy 2 uPerp_H - uPerp_F wins over CDW (uZ) when uZ > uPerp
+    // (public/notes.html#closed-forms).
     const p = probeModel(standard(-1, 0.5, 0.1));
     expect(p.state.phase).toBe('KD');
     expect(p.state.energy).toBeCloseTo(-1, 12);
@@ -147,7 +149,7 @@ describe('spin-valley entanglement of the occupied spinors', () => {
     // nu = -1 (one electron) with Hartree-only xx, yy, zz channels: E = H (o_xx^2 + o_yy^2 +
     // o_zz^2) / 2 with H < 0. A product spinor has sum n_a^2 m_a^2 <= 1; the maximum 3 needs
     // |o_aa| = 1 for all three, which only maximally entangled spinors reach (derived here from
-    // model.md section 4; Nielsen and Chuang (2000), section 2.5).
+    // public/notes.html#energy; Nielsen and Chuang (2000), section 2.5).
     const hartreeOnly = { hartree: -1, fock: 0 };
     const p = probeModel(
       parseModel({
@@ -195,7 +197,7 @@ describe('symmetries and gapless modes', () => {
     }
   });
 
-  test('a ferromagnet without Zeeman energy has one gapless pair for its two broken spin generators (model.md section 8)', () => {
+  test('a ferromagnet without Zeeman energy has one gapless pair for its two broken spin generators (public/notes.html#modes)', () => {
     const p = probeModel(parseModel({ filling: 0, channels: { x0: 1, y0: 1, z0: 2 }, zeeman: 0 }));
     expect(p.modes.goldstone).toBe(1);
     expect(p.modes.gapless).toHaveLength(1);
@@ -240,7 +242,7 @@ describe('the Probe of a plane point', () => {
     }
   });
 
-  test('competitors: the other state families with their height above the ground state, from the closed forms of model.md section 5', () => {
+  test('competitors: the other state families with their height above the ground state, from the closed forms of public/notes.html#closed-forms', () => {
     // Near the F/CDW line (uPerp > 0) the F state lies E_F - E_CDW = (-2 uPerp - uZ - E_Z) - uZ
     // above; near the KD/CDW line (uPerp < 0) the CDW lies uZ - uPerp above the KD (H = F).
     const nearF: ProbeReport = probeModel(standard(0.5, -0.6, 0.1));

@@ -26,7 +26,7 @@ import {
   type Model,
 } from '../solver/index';
 
-/** The common anisotropic model of model.md section 4 with H = F. */
+/** The common anisotropic model of public/notes.html#energy with H = F. */
 function standard(uPerp: number, uZ: number, zeeman = 0, valleyZeeman = 0, filling = 0): Model {
   return parseModel({
     filling,
@@ -36,7 +36,7 @@ function standard(uPerp: number, uZ: number, zeeman = 0, valleyZeeman = 0, filli
   });
 }
 
-describe('closed forms of model.md section 5 (derived there from section 4)', () => {
+describe('closed forms of public/notes.html#closed-forms (derived there from the energy)', () => {
   test('energies of F, CDW, KD at their projectors are the ground-state energies where they win', () => {
     // F: -2 uPerp - uZ - E_Z ; CDW: 2 uZ_H - uZ_F - Delta_V ; KD: 2 uPerp_H - uPerp_F.
     expect(solve(standard(0.5, 1, 0.3)).energy).toBeCloseTo(-2 * 0.5 - 1 - 0.3, 12);
@@ -44,7 +44,7 @@ describe('closed forms of model.md section 5 (derived there from section 4)', ()
     expect(solve(standard(-1.5, -0.5, 0.1)).energy).toBeCloseTo(-1.5, 12);
   });
 
-  test('interfaces.md example: CAF with E = -2.02, total spin 0.2, one Goldstone mode', () => {
+  test('the worked point of public/notes.html#closed-forms: CAF with E = -2.02, total spin 0.2, one Goldstone mode', () => {
     const r = solve(standard(-1, 2, 0.4));
     expect(r.phase).toBe('CAF');
     expect(r.energy).toBeCloseTo(-2.02, 13);
@@ -70,7 +70,7 @@ describe('closed forms of model.md section 5 (derived there from section 4)', ()
   });
 });
 
-describe('reference checks of model.md section 10', () => {
+describe('reference checks of public/notes.html#checks', () => {
   // Phys. Rev. B 85, 155439 (2012): boundaries at E_Z -> 0+, Delta_V = 0, H = F. E_Z = 1e-3 moves
   // them by at most E_Z / 2, far less than the 0.05 margin of the test points; a much smaller E_Z
   // would leave the CAF's preference for an in-plane Neel vector (E_Z^2 / 8|uPerp|) below rounding.
@@ -93,8 +93,9 @@ describe('reference checks of model.md section 10', () => {
 
   test('PRB 85, 155439 (2012): F/CAF at E_Z = 4|uPerp|, canting cos(theta) = E_Z/(4|uPerp|)', () => {
     // The paper writes the Zeeman term with a symbol that is half ours (from memory: its boundary
-    // reads eps_Z = 2|u_perp|); with model.md's E_Z (the full spin splitting) and the energy of
-    // section 4, the same boundary is E_Z = 4|uPerp| (derived in model.md section 5).
+    // reads eps_Z = 2|u_perp|); with our E_Z, the full spin splitting (public/notes.html#fields),
+    // and the energy of public/notes.html#energy, the same boundary is E_Z = 4|uPerp| (derived in
+    // public/notes.html#closed-forms).
     const uPerp = -0.5;
     for (const ratio of [0.1, 0.35, 0.6, 0.85, 0.99]) {
       const zeeman = ratio * 4 * Math.abs(uPerp);
@@ -133,7 +134,7 @@ describe('reference checks of model.md section 10', () => {
 
   test('exchange energy of a filled n = 0 level is sqrt(pi/2) e^2/(eps l_B) (Kallin and Halperin, PRB 30, 5655 (1984))', () => {
     expect(exchangeEnergyMeV(1, 1) / coulombScaleMeV(1, 1)).toBeCloseTo(1.2533141373155, 12);
-    // Scales as sqrt(B_perp) and 1/eps_r (model.md section 9).
+    // Scales as sqrt(B_perp) and 1/eps_r (public/notes.html#units).
     expect(exchangeEnergyMeV(4, 5) / exchangeEnergyMeV(1, 1)).toBeCloseTo(2 / 5, 12);
   });
 
@@ -150,7 +151,7 @@ describe('reference checks of model.md section 10', () => {
     expect(magneticLength(1) / lB).toBeCloseTo(1, 12);
   });
 
-  test('l_B = 25.6556 nm at 1 T from CODATA 2018 constants (model.md section 10)', () => {
+  test('l_B = 25.6556 nm at 1 T from CODATA 2018 constants (public/notes.html#checks)', () => {
     expect(magneticLength(1) * 1e9).toBeCloseTo(25.6556, 4);
   });
 
@@ -174,7 +175,7 @@ describe('reference checks of model.md section 10', () => {
     for (const [x, value] of table) expect(exponentialIntegralE1(x) / value).toBeCloseTo(1, 9);
   });
 
-  test('range-derived couplings follow the closed forms of model.md section 9 (derived there)', () => {
+  test('range-derived couplings follow the closed forms of public/notes.html#interaction-range (derived there)', () => {
     const g = 1.7;
     for (const a of [0.2, 0.7, 1.5, 4]) {
       const gaussian = rangeCouplings('gaussian', g, a);
@@ -194,7 +195,7 @@ describe('reference checks of model.md section 10', () => {
     expect(contact.fock).toBe(contact.hartree);
   });
 
-  test('nu = +-1 with contact couplings: every state has anisotropy energy 0 (nu = -1) or -sum F (nu = +1) (derived in model.md)', () => {
+  test('nu = +-1 with contact couplings: every state has anisotropy energy 0 (nu = -1) or -sum F (nu = +1) (derived in public/notes.html#checks)', () => {
     const random = seededRandom(20261201);
     const ws = new DescentWorkspace();
     for (let n = 0; n < 20; n++) {
@@ -216,9 +217,9 @@ describe('reference checks of model.md section 10', () => {
     }
   });
 
-  test('section 8: a ferromagnet at E_Z = 0 has one zero-frequency pair for two broken generators', () => {
+  test('public/notes.html#modes: a ferromagnet at E_Z = 0 has one zero-frequency pair for two broken generators', () => {
     // Spin-isotropic couplings in the F region (uPerp, uZ > 0): S_x and S_y rotations are both
-    // flat Hessian directions, yet they form one conjugate pair (model.md section 8).
+    // flat Hessian directions, yet they form one conjugate pair (public/notes.html#modes).
     const r = solve(standard(1, 1, 0));
     expect(r.phase).toBe('F');
     const flat = r.modes.hessianEigenvalues.filter((k) => Math.abs(k) < 1e-9);
@@ -231,7 +232,7 @@ describe('reference checks of model.md section 10', () => {
     expect(withField.modes.frequencies[0]).toBeCloseTo(0.3, 10);
   });
 
-  test('section 6: at nu = -1 and +1 a product spinor is named by its valley and spin factors', () => {
+  test('public/notes.html#labels: at nu = -1 and +1 a product spinor is named by its valley and spin factors', () => {
     const c = couplingsOf(standard(-1, 2, 0.2, 0, -1));
     const label = (spinor: number[], filling: -1 | 1): string => {
       // nu = -1: the particle is the spinor; nu = +1: the hole is (o_ab -> -o_ab).

@@ -113,7 +113,7 @@ describe('setup <-> scenario document', () => {
     expect(back.y.label).toBe('u_x0 - u_y0');
   });
 
-  test('the interfaces.md plane is recognised as u_perp and u_z axes with ratio 1', () => {
+  test('the standard plane of a model file is recognised as u_perp and u_z axes with ratio 1', () => {
     const setup = scenarioToSetup({ ...INTERFACES_EXAMPLE, plane: standardPlane(256, 256) });
     expect(setup.x.quantity).toBe('uPerp');
     expect(setup.y.quantity).toBe('uZ');

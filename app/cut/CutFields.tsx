@@ -100,7 +100,7 @@ export function LineFields({ spec, plane }: { spec: CutSpec | null; plane: Plane
           data-testid="cut-draw"
           onClick={() => setMapGesture(gesture === 'cut' ? 'pin' : 'cut')}
         >
-          {gesture === 'cut' ? 'Drawing on the Map: drag across it' : 'Draw on the Map'}
+          {gesture === 'cut' ? 'Drawing on the Map (Esc stops)' : 'Draw on the Map'}
         </button>
       </div>
     </div>

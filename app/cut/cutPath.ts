@@ -12,7 +12,7 @@ export function zeemanAtZeroTilt(
   setup: Setup,
 ): number {
   const c = new PlaneCouplings(input).at(at[0], at[1]);
-  // eta_0z = (oneBody 0z) - E_Z / 2 (model.md section 4).
+  // eta_0z = (oneBody 0z) - E_Z / 2 (public/notes.html#energy).
   const zeeman = -2 * (c.eta[3]! - (input.model.oneBody['0z'] ?? 0));
   const tilt = setup.physical?.tiltDeg;
   return tilt === undefined ? zeeman : zeeman * Math.cos((tilt * Math.PI) / 180);

@@ -22,12 +22,17 @@ function planePoint(event: PointerEvent<HTMLCanvasElement>): Pair | null {
 
 /**
  * Pointer handlers that draw a Cut on the Map while the Map's gesture is 'cut': press, drag,
- * release sets the Cut to the straight line between the two points (plane coordinates). The
+ * release sets the Cut to the straight line between the two points (plane coordinates) and
+ * returns the Map to pinning. A press without a drag draws nothing and stays in the mode. The
  * canvas keeps the pointer during the drag.
  */
 export function useCutDrawing() {
   const start = useRef<{ point: Pair; x: number; y: number } | null>(null);
+  // The click that ends a drawn line's press must not pin a point (the Map is back to pinning
+  // by then); a new press forgets it in case no click followed.
+  const lineJustDrawn = useRef(false);
   const onPointerDown = useCallback((event: PointerEvent<HTMLCanvasElement>) => {
+    lineJustDrawn.current = false;
     if (useFourfold.getState().view.mapGesture !== 'cut' || event.button !== 0) return;
     const point = planePoint(event);
     if (point === null) return;
@@ -37,7 +42,7 @@ export function useCutDrawing() {
   }, []);
   const onPointerMove = useCallback((event: PointerEvent<HTMLCanvasElement>) => {
     const from = start.current;
-    if (from === null) return;
+    if (from === null || useFourfold.getState().view.mapGesture !== 'cut') return;
     const point = planePoint(event);
     if (point !== null) useFourfold.getState().setCutDraft({ from: from.point, to: point });
   }, []);
@@ -45,16 +50,27 @@ export function useCutDrawing() {
     const from = start.current;
     if (from === null) return;
     start.current = null;
-    const { setCutDraft, setCutSpec } = useFourfold.getState();
+    const { view, setCutDraft, setCutSpec, setMapGesture } = useFourfold.getState();
     setCutDraft(null);
+    // Escape during the drag left the drawing mode: the line is dropped.
+    if (view.mapGesture !== 'cut') return;
     const point = planePoint(event);
     const moved = Math.hypot(event.clientX - from.x, event.clientY - from.y);
     if (point === null || moved < MIN_DRAG_PX) return;
     if (point[0] === from.point[0] && point[1] === from.point[1]) return;
     setCutSpec({ kind: 'line', from: from.point, to: point });
+    // One line per press of the button: the next click on the Map pins a point again.
+    setMapGesture('pin');
+    lineJustDrawn.current = true;
+  }, []);
+  /** True once for the click that ends a drawn line (the caller then ignores that click). */
+  const endsLine = useCallback((): boolean => {
+    const ends = lineJustDrawn.current;
+    lineJustDrawn.current = false;
+    return ends;
   }, []);
   return useMemo(
-    () => ({ onPointerDown, onPointerMove, onPointerUp }),
-    [onPointerDown, onPointerMove, onPointerUp],
+    () => ({ onPointerDown, onPointerMove, onPointerUp, endsLine }),
+    [onPointerDown, onPointerMove, onPointerUp, endsLine],
   );
 }

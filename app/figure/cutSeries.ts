@@ -51,8 +51,8 @@ function slopeTitle(cut: Pick<CutResult, 'axis'>): string {
 
 /**
  * The panels of a Cut, top to bottom: energy, its derivative along the horizontal axis, the
- * order-parameter groups that are nonzero somewhere (model.md section 6), the canting angle and
- * the quasiparticle gap.
+ * order-parameter groups that are nonzero somewhere (public/notes.html#order-parameters), the
+ * canting angle and the quasiparticle gap.
  */
 export function cutPanels(cut: CutResult): CutChartPanel[] {
   const n = cut.t.length;

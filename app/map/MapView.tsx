@@ -38,27 +38,31 @@ export function MapView() {
   }, []);
   // A click pins the pixel's centre (the point the hover readout shows) for the Probe; a click
   // on a pin's mark selects that pin instead.
-  const onClick = useCallback((event: MouseEvent<HTMLCanvasElement>) => {
-    const { map, view, probe, addPin, selectPin } = useFourfold.getState();
-    if (map.grid === null || view.mapGesture !== 'pin') return;
-    const box = event.currentTarget.getBoundingClientRect();
-    const fx = (event.clientX - box.left) / box.width;
-    const fy = (event.clientY - box.top) / box.height;
-    const { x, y } = map.grid.input.plane;
-    const hit = probe.pins.find(
-      (pin) =>
-        Math.hypot(
-          ((pin.x - x.from) / (x.to - x.from) - fx) * box.width,
-          ((y.to - pin.y) / (y.to - y.from) - fy) * box.height,
-        ) <= PIN_MARK_RADIUS,
-    );
-    if (hit) {
-      selectPin(hit.id);
-      return;
-    }
-    const pixel = pixelAtFraction(fx, fy, map.grid.nx, map.grid.ny);
-    if (pixel !== null) addPin(map.grid.x[pixel.i]!, map.grid.y[pixel.j]!);
-  }, []);
+  const { endsLine } = drawing;
+  const onClick = useCallback(
+    (event: MouseEvent<HTMLCanvasElement>) => {
+      const { map, view, probe, addPin, selectPin } = useFourfold.getState();
+      if (endsLine() || map.grid === null || view.mapGesture !== 'pin') return;
+      const box = event.currentTarget.getBoundingClientRect();
+      const fx = (event.clientX - box.left) / box.width;
+      const fy = (event.clientY - box.top) / box.height;
+      const { x, y } = map.grid.input.plane;
+      const hit = probe.pins.find(
+        (pin) =>
+          Math.hypot(
+            ((pin.x - x.from) / (x.to - x.from) - fx) * box.width,
+            ((y.to - pin.y) / (y.to - y.from) - fy) * box.height,
+          ) <= PIN_MARK_RADIUS,
+      );
+      if (hit) {
+        selectPin(hit.id);
+        return;
+      }
+      const pixel = pixelAtFraction(fx, fy, map.grid.nx, map.grid.ny);
+      if (pixel !== null) addPin(map.grid.x[pixel.i]!, map.grid.y[pixel.j]!);
+    },
+    [endsLine],
+  );
   const onPointerLeave = useCallback(() => {
     const { view, setHover } = useFourfold.getState();
     if (view.hover !== null) setHover(null);

@@ -2,7 +2,7 @@ import type { ProbeReport } from '../../solver/index';
 import { formatFixed } from '../format';
 
 /**
- * The q = 0 collective modes (model.md section 8): every frequency, the Goldstone count, and
+ * The q = 0 collective modes (public/notes.html#modes): every frequency, the Goldstone count, and
  * the broken symmetry each gapless mode belongs to.
  */
 export function ModeList({ report }: { report: ProbeReport }) {

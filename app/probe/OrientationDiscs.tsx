@@ -1,7 +1,9 @@
 import type { ProbeReport } from '../../solver/index';
-import { formatFixed } from '../format';
+import { formatDegrees, formatFixed } from '../format';
 
 const DEGREES = 180 / Math.PI;
+/** Below this length a vector has no direction to draw or to quote. */
+const NO_DIRECTION = 1e-9;
 const R = 34;
 const SIZE = 2 * R + 16;
 
@@ -23,8 +25,11 @@ function Disc({ testId, title, vector, up, down, colour }: DiscProps) {
   const [x, y, z] = vector as [number, number, number];
   const across = Math.hypot(x, y);
   const length = Math.hypot(across, z);
-  const polar = length > 1e-9 ? Math.atan2(across, z) : NaN;
-  const azimuth = across > 1e-9 ? Math.atan2(y, x) : NaN;
+  const directed = length > NO_DIRECTION;
+  // Angles only where the vector has a direction: a zero vector has no polar angle, a vector
+  // along the axis no azimuth. The data attributes are left out rather than set to NaN.
+  const polar = directed ? Math.atan2(across, z) : undefined;
+  const azimuth = across > NO_DIRECTION ? Math.atan2(y, x) : undefined;
   const c = R + 8;
   const tx = c + R * across;
   const ty = c - R * z;
@@ -33,10 +38,16 @@ function Disc({ testId, title, vector, up, down, colour }: DiscProps) {
       className="probe-disc"
       data-testid={testId}
       data-length={length}
+      data-direction={directed ? 'some' : 'none'}
       data-polar={polar}
-      data-cos={length > 1e-9 ? z / length : NaN}
+      data-cos={directed ? z / length : undefined}
     >
-      <svg width={SIZE} height={SIZE + 4} role="img" aria-label={title}>
+      <svg
+        width={SIZE}
+        height={SIZE + 4}
+        role="img"
+        aria-label={directed ? title : `${title}: zero, no direction`}
+      >
         <circle cx={c} cy={c} r={R} fill="none" stroke="currentColor" strokeOpacity={0.35} />
         <line
           x1={c}
@@ -63,12 +74,12 @@ function Disc({ testId, title, vector, up, down, colour }: DiscProps) {
       <figcaption>
         <strong>{title}</strong>
         <span>|v| = {formatFixed(length, 4)}</span>
-        <span>
-          {Number.isNaN(polar)
-            ? 'no direction'
+        <span data-testid={`${testId}-direction`}>
+          {polar === undefined
+            ? 'no direction (zero vector)'
             : `θ = ${formatFixed(polar * DEGREES, 2)}° (cos θ = ${formatFixed(z / length, 4)})`}
         </span>
-        {!Number.isNaN(azimuth) && <span>φ = {formatFixed(azimuth * DEGREES, 1)}°</span>}
+        {azimuth !== undefined && <span>φ = {formatDegrees(azimuth, 1)}°</span>}
       </figcaption>
     </figure>
   );
@@ -77,7 +88,8 @@ function Disc({ testId, title, vector, up, down, colour }: DiscProps) {
 /**
  * Spin on each sublattice (angle to the field: the canting angle of a CAF) and the valley
  * pseudospin of each spin species along the field (tau_z up = sublattice A, in-plane = bond
- * order). Spin in units of hbar; the pseudospin (o_a0 +- o_az) / 2.
+ * order). The spin is <sigma> = (o_0b +- o_zb) / 2, in units of hbar/2 (length 1 for one fully
+ * polarised electron); the pseudospin (o_a0 +- o_az) / 2.
  */
 export function OrientationDiscs({ report }: { report: ProbeReport }) {
   const { a, b } = report.sublattices;
@@ -119,10 +131,11 @@ export function OrientationDiscs({ report }: { report: ProbeReport }) {
         />
       </div>
       <p className="probe-note">
-        θ is measured from the vertical axis (the field for spin, τ<sub>z</sub> for valley); φ is
-        the direction across it, fixed only up to the rotations the state breaks.
+        Spin is ⟨σ⟩, in units of ħ/2: length 1 for one fully polarised electron. θ is measured from
+        the vertical axis (the field for spin, τ<sub>z</sub> for valley); φ is the direction across
+        it, fixed only up to the rotations the state breaks. A zero vector has no direction.
         {report.bonds.amplitude > 1e-6 &&
-          ` Kekulé amplitude |o_x0 + i o_y0| = ${formatFixed(report.bonds.amplitude, 4)}, phase ${formatFixed(report.bonds.phase * DEGREES, 1)}°.`}
+          ` Kekulé amplitude |o_x0 + i o_y0| = ${formatFixed(report.bonds.amplitude, 4)}, phase ${formatDegrees(report.bonds.phase, 1)}°.`}
       </p>
     </>
   );

@@ -1,4 +1,4 @@
-import { useState, type FormEvent } from 'react';
+import { useState, type ChangeEvent, type FormEvent } from 'react';
 import { AxisName } from '../readout/AxisName';
 import { COUPLING_RULE, parseEntry } from '../setup/numberEntry';
 import { useFourfold } from '../store/index';
@@ -11,6 +11,11 @@ export function PinEntry() {
   const [problem, setProblem] = useState<string | null>(null);
   const xName = plane?.x.label ?? 'x';
   const yName = plane?.y.label ?? 'y';
+  // The message is about the last submitted entries: editing either field retires it.
+  const edit = (set: (text: string) => void) => (event: ChangeEvent<HTMLInputElement>) => {
+    set(event.target.value);
+    setProblem(null);
+  };
   const submit = (event: FormEvent) => {
     event.preventDefault();
     const px = parseEntry(x, COUPLING_RULE);
@@ -23,20 +28,20 @@ export function PinEntry() {
   return (
     <form className="pin-entry" onSubmit={submit} aria-label="Pin a point by its coordinates">
       <label>
-        {plane ? <AxisName label={plane.x.label} /> : 'x'}
+        <span className="pin-entry-name">{plane ? <AxisName label={plane.x.label} /> : 'x'}</span>
         <input
           value={x}
-          onChange={(e) => setX(e.target.value)}
+          onChange={edit(setX)}
           inputMode="decimal"
           size={8}
           data-testid="pin-entry-x"
         />
       </label>
       <label>
-        {plane ? <AxisName label={plane.y.label} /> : 'y'}
+        <span className="pin-entry-name">{plane ? <AxisName label={plane.y.label} /> : 'y'}</span>
         <input
           value={y}
-          onChange={(e) => setY(e.target.value)}
+          onChange={edit(setY)}
           inputMode="decimal"
           size={8}
           data-testid="pin-entry-y"

@@ -1,13 +1,12 @@
 import type { ProbeReport } from '../../solver/index';
-import { formatFixed } from '../format';
+import { formatDegrees, formatFixed } from '../format';
 
-const DEGREES = 180 / Math.PI;
 const FLAVOURS = ['K↑', 'K↓', 'K′↑', 'K′↓'];
 
 /**
- * The occupied spinors in the flavour basis of model.md section 2 (canonical gauge: Hartree-Fock
- * eigenvectors, largest component real and positive), each amplitude as modulus and phase, the
- * spin-valley entanglement entropy, and the projector P.
+ * The occupied spinors in the flavour basis of public/notes.html#basis (canonical gauge:
+ * Hartree-Fock eigenvectors, largest component real and positive), each amplitude as modulus and
+ * phase, the spin-valley entanglement entropy, and the projector P.
  */
 export function SpinorTable({ report }: { report: ProbeReport }) {
   const p = report.state.projector;
@@ -31,30 +30,29 @@ export function SpinorTable({ report }: { report: ProbeReport }) {
           {report.spinors.map((s, k) => (
             <tr key={k} data-testid={`probe-spinor-${k}`} data-entropy={s.entropy}>
               <td>{formatFixed(s.level, 4)}</td>
-              {s.modulus.map((m, r) => (
-                <td key={r} data-modulus={m} data-phase={s.phase[r]}>
-                  {m < 5e-7 ? (
-                    '0'
-                  ) : (
-                    <>
-                      {formatFixed(m, 4)}
-                      {Math.abs(s.phase[r]! * DEGREES) >= 0.05 && (
-                        <span className="probe-phase-angle">
-                          {' '}
-                          ∠{formatFixed(s.phase[r]! * DEGREES, 1)}°
-                        </span>
-                      )}
-                    </>
-                  )}
-                </td>
-              ))}
+              {s.modulus.map((m, r) => {
+                const angle = formatDegrees(s.phase[r]!, 1);
+                return (
+                  <td key={r} data-modulus={m} data-phase={s.phase[r]}>
+                    {m < 5e-7 ? (
+                      '0'
+                    ) : (
+                      <>
+                        {formatFixed(m, 4)}
+                        {angle !== '0' && <span className="probe-phase-angle"> ∠{angle}°</span>}
+                      </>
+                    )}
+                  </td>
+                );
+              })}
               <td>{formatFixed(s.entropy, 4)}</td>
             </tr>
           ))}
         </tbody>
       </table>
       <p className="probe-note">
-        Within a degenerate level the spinors are one basis of many; the entropy refers to this one
+        Each amplitude is its modulus and phase ∠, in degrees from −180 (excluded) to 180. Within a
+        degenerate level the spinors are one basis of many; the entropy refers to this one
         (Hartree-Fock eigenvectors in reduced row-echelon form).
       </p>
       <details className="probe-projector">

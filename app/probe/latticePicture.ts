@@ -7,7 +7,7 @@ export interface LatticeSite {
   readonly sublattice: 'A' | 'B';
   /** Electrons per flux quantum on this sublattice (0..Nf). */
   readonly charge: number;
-  /** Spin vector in units of hbar; z along the field, drawn out of the page. */
+  /** Spin vector <sigma> (units of hbar/2); z along the field, drawn out of the page. */
   readonly spin: readonly number[];
 }
 

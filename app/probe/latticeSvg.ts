@@ -1,5 +1,6 @@
 import type { ProbeReport } from '../../solver/index';
 import { xmlText } from '../figure/xmlText';
+import { formatDegrees } from '../format';
 import { latticePicture, type LatticeBond, type LatticeSite } from './latticePicture';
 
 /** Pixels per carbon-carbon distance. */
@@ -128,14 +129,14 @@ export function latticeSvg(report: ProbeReport, title?: string): string {
   const strengths = report.bonds.strengths.map((s) => fixed(s)).join(', ');
   const legend = [
     `${title ? `${title}: ` : ''}${report.state.phase}`,
-    `A (K): charge ${fixed(a.charge)}, spin ${vec(a.spin)}`,
-    `B (K'): charge ${fixed(b.charge)}, spin ${vec(b.spin)}`,
+    `A (K): charge ${fixed(a.charge)}, spin ⟨σ⟩ ${vec(a.spin)}`,
+    `B (K'): charge ${fixed(b.charge)}, spin ⟨σ⟩ ${vec(b.spin)}`,
     ...(pic.maxModulation > 1e-9
       ? [
           `Bond classes 0, 1, 2: ${strengths}` +
             (Number.isNaN(report.bonds.phase)
               ? ''
-              : ` (Kekule phase ${fixed((report.bonds.phase * 180) / Math.PI, 1)} deg)`),
+              : ` (Kekule phase ${formatDegrees(report.bonds.phase, 1)} deg)`),
           spinResolved
             ? 'Bonds: one stroke per spin (up blue, down orange), wide = strong'
             : 'Bonds: dark and wide = strong, light and thin = weak',

@@ -1,4 +1,4 @@
-/** Typeset name of a plane axis from its interfaces.md label (u_perp, u_z, E_Z, Delta_V, u_xy). */
+/** Typeset name of a plane axis from its model-file label (u_perp, u_z, E_Z, Delta_V, u_xy). */
 export function AxisName({ label }: { label: string }) {
   if (label === 'u_perp')
     return (

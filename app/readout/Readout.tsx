@@ -10,7 +10,7 @@ import {
   groupMagnitudes,
   orderAngles,
 } from '../../solver/index';
-import { formatFixed } from '../format';
+import { formatDegrees, formatFixed } from '../format';
 import { useFourfold } from '../store/index';
 import { AxisName } from './AxisName';
 
@@ -20,7 +20,8 @@ const VALLEY_ROTATION = 12;
 
 /**
  * The state under the pointer: position, phase label, energy, gap, and the order parameters
- * grouped as in model.md section 6 with the angles that mean something (canting, bond phase).
+ * grouped as in public/notes.html#order-parameters with the angles that mean something (canting,
+ * bond phase).
  */
 export function Readout() {
   const hover = useFourfold((s) => s.view.hover);
@@ -121,9 +122,7 @@ export function Readout() {
             {bond > ORDER_TOLERANCE && (
               <div>
                 <dt>Bond-order phase arg(o_x0 + i o_y0)</dt>
-                <dd data-testid="readout-bond-phase">
-                  {formatFixed(angles.bondPhase * DEGREES, 2)}°
-                </dd>
+                <dd data-testid="readout-bond-phase">{formatDegrees(angles.bondPhase, 2)}°</dd>
                 {isSymmetry(
                   couplingsOf(modelAtPoint(grid.input, grid.x[hover.i]!, grid.y[hover.j]!)),
                   VALLEY_ROTATION,
@@ -137,7 +136,9 @@ export function Readout() {
             )}
           </dl>
           <table className="group-table">
-            <caption>Order parameters by symmetry group (model.md section 6)</caption>
+            {/* The readout lives only while the pointer is over the Map: no link here (the
+                header's Model notes link leads to the same heading). */}
+            <caption>Order parameters by symmetry group (Model notes: Order parameters)</caption>
             <tbody>
               {ORDER_GROUPS.map((g, k) => {
                 const present = magnitudes[k]! > ORDER_TOLERANCE;

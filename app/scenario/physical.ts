@@ -12,7 +12,7 @@ import {
 } from '../../solver/index';
 import type { ChannelSetup, PhysicalSetup, RangeSetup, Setup } from './setup';
 
-/** Fermi velocity of graphene for the Landau-level scale, m/s (model.md section 9). */
+/** Fermi velocity of graphene for the Landau-level scale, m/s (public/notes.html#units). */
 export const FERMI_VELOCITY = 1.0e6;
 
 /**
@@ -58,7 +58,7 @@ export const PHYSICAL_RULES = {
 /** Bounds of a range entry: in units of l_B (dimensionless) or nm (physical). */
 export const RANGE_RULE = { min: 0, max: 1000, tooSmall: 'a range is not negative' } as const;
 
-/** Derived scales of a physical setup, shown live in the Setup (model.md section 9). */
+/** Derived scales of a physical setup, shown live in the Setup (public/notes.html#units). */
 export interface PhysicalScales {
   /** E_Z = g mu_B B_perp / cos(tilt), meV. */
   readonly zeemanMeV: number;
@@ -101,7 +101,7 @@ export function couplingScale(setup: Pick<Setup, 'physical'>): number {
 
 /**
  * H and F of a range channel in the solver's unit (meV in physical units): H = strength *
- * scale, F = H * (F/H)(a / l_B), F/H by the quadrature of model.md section 9.
+ * scale, F = H * (F/H)(a / l_B), F/H by the quadrature of public/notes.html#interaction-range.
  */
 export function rangeChannel(range: RangeSetup, physical: PhysicalSetup | undefined): ChannelSetup {
   const hartree = range.strength * couplingScale({ physical });

@@ -17,7 +17,7 @@ import type { PhysicalSetup, RangeSetup, Setup } from './setup';
 
 /**
  * The scenario document's extra fields for physical units and interaction ranges. The model
- * itself stays the interfaces.md model in meV (what `npm run map` solves); the sample's units
+ * itself stays the CLI's model file in meV (what `npm run map` solves); the sample's units
  * and ranges ride along in the accepted `fourfold` field, and E_X in the model's `exchange`.
  *
  *   "exchange": 12.3,                       (only when the gap includes E_X)

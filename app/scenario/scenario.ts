@@ -10,10 +10,10 @@ import {
 import { physicalFromScenario, physicalToScenario } from './physicalScenario';
 import { zeroChannels, type AxisQuantity, type AxisSetup, type Setup } from './setup';
 
-/** The scenario document: the model file of interfaces.md with its plane (what `map` reads). */
+/** The scenario document: the CLI's model file with its plane (what `map` reads). */
 export type ScenarioJson = Record<string, unknown>;
 
-/** Axis label written into the plane (interfaces.md style), per quantity. */
+/** Axis label written into the plane (model-file style), per quantity. */
 export const AXIS_LABELS: Readonly<Record<Exclude<AxisQuantity, 'custom'>, string>> = {
   uPerp: 'u_perp',
   uZ: 'u_z',
@@ -22,7 +22,7 @@ export const AXIS_LABELS: Readonly<Record<Exclude<AxisQuantity, 'custom'>, strin
   ...(Object.fromEntries(CHANNELS.map((ch) => [ch, `u_${ch}`])) as Record<Channel, string>),
 };
 
-/** Targets that an axis sets per unit of its value (interfaces.md plane). */
+/** Targets that an axis sets per unit of its value (the model file's plane). */
 export function axisTargets(axis: AxisSetup, setup: Pick<Setup, 'ratios'>): Record<string, number> {
   switch (axis.quantity) {
     case 'uPerp': {
@@ -84,7 +84,7 @@ function sameTargets(a: Record<string, number>, b: Readonly<Record<string, numbe
 }
 
 /**
- * Recognises an interfaces.md axis as one of our quantities (with its Hartree ratio), or keeps
+ * Recognises a model-file axis as one of our quantities (with its Hartree ratio), or keeps
  * it as a custom axis with its own label and targets.
  */
 function axisFromPlane(

@@ -11,7 +11,7 @@ export const SCENARIO_FILE_NAME = 'fourfold-scenario.json';
 export const SCENARIO_FILE_MAX_BYTES = 1_000_000;
 
 /**
- * The scenario file: the interfaces.md model with its plane (what `npm run map -- --model FILE`
+ * The scenario file: the CLI's model file with its plane (what `npm run map -- --model FILE`
  * reads), pretty-printed, plus the accepted extra field `fourfold` with the software version (and
  * the physical units, interaction ranges and Probe pins, when set).
  */

@@ -12,7 +12,7 @@ export interface AxisSetup {
    * uPerp and uZ axes use `Setup.ratios`).
    */
   readonly hartreeRatio: number;
-  /** Only for 'custom' axes (loaded from a file): the interfaces.md label and targets. */
+  /** Only for 'custom' axes (loaded from a file): the model file's label and targets. */
   readonly label?: string;
   readonly targets?: Readonly<Record<string, number>>;
 }
@@ -23,7 +23,7 @@ export interface ChannelSetup {
 }
 
 /**
- * The sample in physical units (model.md section 9). With it the model the solver sees is in
+ * The sample in physical units (public/notes.html#units). With it the model the solver sees is in
  * meV: `Setup.channels` hold u = u~ * B_perp (the panel shows and takes u~ in meV/T),
  * `Setup.zeeman` = g mu_B B_perp / cos(tilt), `Setup.valleyZeeman` is Delta_V in meV.
  */
@@ -42,9 +42,9 @@ export interface PhysicalSetup {
 }
 
 /**
- * A channel derived from an interaction range (model.md section 9). `strength` is the Hartree
- * coupling H = v(0) / (2 pi l_B^2) in the coupling unit (dimensionless, or meV/T in physical
- * units, where H grows as B_perp like a contact coupling); `range` is a in units of l_B
+ * A channel derived from an interaction range (public/notes.html#interaction-range). `strength` is
+ * the Hartree coupling H = v(0) / (2 pi l_B^2) in the coupling unit (dimensionless, or meV/T in
+ * physical units, where H grows as B_perp like a contact coupling); `range` is a in units of l_B
  * (dimensionless) or in nm (physical).
  */
 export interface RangeSetup {
@@ -56,7 +56,7 @@ export interface RangeSetup {
 /**
  * Everything the user sets up, in dimensionless units or meV (physical): the model (all 15 channels), filling,
  * fields, and the plane. Plain data, always valid as a whole: the panel validates each entry
- * before it gets here, and `setupToScenario` turns it into the interfaces.md document.
+ * before it gets here, and `setupToScenario` turns it into the model file (README, Command line).
  */
 export interface Setup {
   readonly filling: Filling;

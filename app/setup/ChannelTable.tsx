@@ -53,46 +53,55 @@ function ChannelRow({ channel }: { readonly channel: Channel }) {
     (axis) => `swept along ${axis}`,
   );
   if (fromRange) notes.push('from range');
+  const rowClass = notes.length > 0 ? 'is-swept' : undefined;
   return (
-    <tr data-channel={channel} className={notes.length > 0 ? 'is-swept' : undefined}>
-      <th scope="row">
-        <code>{channel}</code>
-      </th>
-      <td className="matrix">
-        <ChannelMatrix channel={channel} />
-      </td>
-      <td>
-        <NumberField
-          id={`channel-${channel}-hartree`}
-          name={`${channel}.hartree`}
-          ariaLabel={`${channel} Hartree`}
-          value={hartree}
-          rule={COUPLING_RULE}
-          disabled={(sweptHartree !== undefined && !physical) || fromRange}
-          testId={`channel-${channel}-hartree`}
-          onCommit={(v) => commitChannel(channel, 'hartree', v)}
-        />
-      </td>
-      <td>
-        <NumberField
-          id={`channel-${channel}-fock`}
-          name={`${channel}.fock`}
-          ariaLabel={`${channel} Fock`}
-          value={fock}
-          rule={COUPLING_RULE}
-          disabled={(sweptFock !== undefined && !physical) || fromRange}
-          testId={`channel-${channel}-fock`}
-          onCommit={(v) => commitChannel(channel, 'fock', v)}
-        />
-      </td>
-      <td className="setup-hint">{notes.join('; ')}</td>
-    </tr>
+    <>
+      <tr data-channel={channel} className={rowClass}>
+        <th scope="row">
+          <code>{channel}</code>
+          <span className="channel-matrix">
+            <ChannelMatrix channel={channel} />
+          </span>
+        </th>
+        <td>
+          <NumberField
+            id={`channel-${channel}-hartree`}
+            name={`${channel}.hartree`}
+            ariaLabel={`${channel} Hartree`}
+            value={hartree}
+            rule={COUPLING_RULE}
+            disabled={(sweptHartree !== undefined && !physical) || fromRange}
+            testId={`channel-${channel}-hartree`}
+            onCommit={(v) => commitChannel(channel, 'hartree', v)}
+          />
+        </td>
+        <td>
+          <NumberField
+            id={`channel-${channel}-fock`}
+            name={`${channel}.fock`}
+            ariaLabel={`${channel} Fock`}
+            value={fock}
+            rule={COUPLING_RULE}
+            disabled={(sweptFock !== undefined && !physical) || fromRange}
+            testId={`channel-${channel}-fock`}
+            onCommit={(v) => commitChannel(channel, 'fock', v)}
+          />
+        </td>
+      </tr>
+      {notes.length > 0 && (
+        <tr className={`channel-note ${rowClass}`} data-note-for={channel}>
+          <td colSpan={3} className="setup-hint">
+            {channel}: {notes.join('; ')}
+          </td>
+        </tr>
+      )}
+    </>
   );
 }
 
 /**
- * All 15 channels tau_a (x) sigma_b with their Hartree and Fock couplings (model.md sections
- * 2 and 4), for generic models; collapsed by default.
+ * All 15 channels tau_a (x) sigma_b with their Hartree and Fock couplings (public/notes.html#basis
+ * and public/notes.html#energy), for generic models; collapsed by default.
  */
 export function ChannelTable() {
   const active = useFourfold(
@@ -113,15 +122,11 @@ export function ChannelTable() {
         <thead>
           <tr>
             <th scope="col">channel</th>
-            <th scope="col">matrix</th>
             <th scope="col">
               Hartree <var>H</var>
             </th>
             <th scope="col">
               Fock <var>F</var>
-            </th>
-            <th scope="col">
-              <span className="visually-hidden">note</span>
             </th>
           </tr>
         </thead>

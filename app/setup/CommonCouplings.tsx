@@ -10,7 +10,7 @@ import { sweptTargets, useSweptTargets } from './sweep';
 
 type Common = 'uPerp' | 'uZ';
 
-/** The channels each common coupling sets (model.md section 4). */
+/** The channels each common coupling sets (public/notes.html#energy). */
 export const COMMON_CHANNELS: Readonly<Record<Common, readonly Channel[]>> = {
   uPerp: ['x0', 'y0'],
   uZ: ['z0'],
@@ -155,12 +155,12 @@ function CommonCoupling({ which }: { readonly which: Common }) {
           testId={`${id}-ratio`}
           onCommit={(v) => commitRatio(which, v)}
         />
-      </td>
-      <td className="derived">
-        {(sweepingAxis !== null && physical && !fromRange) ||
-        (sweepingAxis === null && sweptChannel === undefined)
-          ? formatDisplay(hartree)
-          : '—'}
+        {((sweepingAxis !== null && physical && !fromRange) ||
+          (sweepingAxis === null && sweptChannel === undefined)) && (
+          <span className="derived" data-testid={`${id}-hartree`}>
+            <var>H</var> = {formatDisplay(hartree)}
+          </span>
+        )}
       </td>
     </tr>
   );
@@ -184,10 +184,6 @@ export function CommonCouplings() {
             <th scope="col">
               <var>H</var> / <var>F</var>
             </th>
-            <th scope="col">
-              Hartree <var>H</var>
-              {unit}
-            </th>
           </tr>
         </thead>
         <tbody>
@@ -196,8 +192,9 @@ export function CommonCouplings() {
         </tbody>
       </table>
       <p className="setup-hint">
-        For a contact interaction <var>H</var> = <var>F</var> (ratio 1); a finite range makes them
-        differ. The ratio also sets the Hartree part of an axis that sweeps the coupling.
+        The Hartree part is <var>H</var> = ratio × <var>F</var>. For a contact interaction{' '}
+        <var>H</var> = <var>F</var> (ratio 1); a finite range makes them differ. The ratio also sets
+        the Hartree part of an axis that sweeps the coupling.
       </p>
     </fieldset>
   );

@@ -1,6 +1,7 @@
 import type { Filling } from '../../solver/index';
 import { useFourfold } from '../store/index';
 import { commitSetup } from './commitSetup';
+import { electronsPerFluxQuantum } from './fillingCount';
 
 const FILLINGS: readonly { readonly value: Filling; readonly text: string }[] = [
   { value: -1, text: '−1' },
@@ -8,7 +9,7 @@ const FILLINGS: readonly { readonly value: Filling; readonly text: string }[] = 
   { value: 1, text: '+1' },
 ];
 
-/** Filling factor nu of the zero-energy level (model.md section 1). */
+/** Filling factor nu of the zero-energy level (public/notes.html#setting). */
 export function FillingField() {
   const filling = useFourfold((s) => s.setup.filling);
   return (
@@ -31,8 +32,9 @@ export function FillingField() {
           </label>
         ))}
       </div>
-      <p className="setup-hint">
-        The n = 0 level holds <var>ν</var> + 2 = {filling + 2} electrons per flux quantum.
+      <p className="setup-hint" data-testid="filling-electrons">
+        The n = 0 level holds {electronsPerFluxQuantum(filling)} (<var>ν</var> + 2 of its four
+        spin-valley states filled).
       </p>
     </fieldset>
   );

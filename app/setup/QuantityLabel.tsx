@@ -49,7 +49,10 @@ export function QuantityLabel({
   }
 }
 
-/** The matrix of a channel, tau_a (x) sigma_b (model.md section 2), with identity factors left out. */
+/**
+ * The matrix of a channel, tau_a (x) sigma_b (public/notes.html#basis), with identity factors left
+ * out.
+ */
 export function ChannelMatrix({ channel }: { readonly channel: Channel }) {
   const [valley, spin] = channel;
   const tau =

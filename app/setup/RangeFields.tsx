@@ -59,7 +59,7 @@ function Value({ testId, name, value }: { testId: string; name: string; value: n
 
 /**
  * Hartree and Fock couplings of a channel from an interaction's strength, range and profile
- * (model.md section 9), instead of typing them; shows F/H against the field.
+ * (public/notes.html#interaction-range), instead of typing them; shows F/H against the field.
  */
 export function RangeFields() {
   const [target, setTarget] = useState<RangeTarget>('uPerp');

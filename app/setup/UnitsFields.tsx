@@ -138,7 +138,7 @@ function DerivedScales({ physical }: { readonly physical: PhysicalSetup }) {
           }
           value={scales.zeemanMeV}
           unit="meV"
-          title="g μ_B B_perp / cos θ, the full spin splitting (model.md section 9)"
+          title="g μ_B B_perp / cos θ, the full spin splitting (model notes: Units and field scaling)"
         />
         <Derived
           testId="derived-magnetic-length"

@@ -4,7 +4,7 @@ import type { Setup } from '../scenario/setup';
 
 /**
  * The value every target of the plane takes at the point (x, y): coefficient * t, summed over
- * the axes that name it (interfaces.md `map`).
+ * the axes that name it (the model file's plane).
  */
 export function targetValuesAt(setup: Setup, x: number, y: number): Map<string, number> {
   const values = new Map<string, number>();
@@ -21,7 +21,7 @@ export function targetValuesAt(setup: Setup, x: number, y: number): Map<string, 
 
 /**
  * The sample's own values put at the plane point (x, y): every target the axes set takes
- * coefficient * t there, as the Map does at that point (interfaces.md `map`), so the tilt path
+ * coefficient * t there, as the Map does at that point (the model file's plane), so the tilt path
  * starts from it. E_Z is left alone: in physical units it follows B_perp, the tilt and g.
  * Returns the changed parts of the setup (channels, Delta_V).
  */

@@ -12,7 +12,7 @@ export function axisTargetNames(axis: AxisSetup): string[] {
 
 /**
  * Which axis sets each swept target. A swept target's value in the Setup is not used: the axis
- * replaces it across the plane (interfaces.md `map`).
+ * replaces it across the plane (the model file's plane, as `npm run map` reads it).
  */
 export function sweptTargets(
   setup: Pick<Setup, 'x' | 'y'>,

@@ -62,14 +62,14 @@ function sampleInPlane(setup: Setup, xs: number, ys: number): boolean {
 
 /**
  * The path of a physical sample on the Map of `setup`'s plane as the tilt goes from 0 to
- * `tiltMaxDeg` at fixed B_perp (model.md section 9): the couplings stay, E_Z(theta) =
+ * `tiltMaxDeg` at fixed B_perp (public/notes.html#units): the couplings stay, E_Z(theta) =
  * E_Z(0) / cos(theta) grows. Null without physical units, on a custom axis, or when both axes
  * are E_Z.
  *
  * - One axis is E_Z: the map shows every E_Z at the other quantities' fixed values, so the path
  *   is the sample itself, a straight segment along the E_Z axis from E_Z(0) to E_Z(max).
  * - Both axes are couplings (or Delta_V): the map is drawn at the one E_Z of the current tilt.
- *   The energy of model.md section 4 is homogeneous of degree one in all couplings, E_Z and
+ *   The energy of public/notes.html#energy is homogeneous of degree one in all couplings, E_Z and
  *   Delta_V together, so the ground state depends on their ratios only: the sample at tilt
  *   theta has the state of the map point u * E_Z(current) / E_Z(theta) = u cos(theta) /
  *   cos(current). In coordinates scaled by E_Z (u / E_Z) this is the ray u cos(theta) / E_Z(0)

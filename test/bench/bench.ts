@@ -223,7 +223,7 @@ export async function runBenchmark(options: BenchOptions): Promise<void> {
         )
         .join('; '),
     `standard variants (uPerp, uZ): ${STANDARD_POINTS.map((p) => `${p.name} (${p.uPerp}, ${p.uZ})`).join(', ')}; zeeman 0.4.`,
-    `map: standard model, plane of interfaces.md, per-pixel data and refined boundaries; in-process runs ` +
+    `map: standard model on the (u_perp, u_z) plane, per-pixel data and refined boundaries; in-process runs ` +
       mapInProcess.runsMillis.map((ms) => `${(ms / 1000).toFixed(2)} s`).join(', ') +
       ` (thread-pool start-up included); ${labels.size} phases (${[...labels].join(', ')}), ` +
       `${mapInProcess.map.boundaries.length} boundary polylines, ${mapInProcess.map.crossings.length} crossings.`,

@@ -13,7 +13,7 @@ import { CHROMIUM_ARGS, CHROMIUM_EXECUTABLE } from '../../e2e/chromium.mjs';
 const PORT = 4318;
 const BASE = `http://127.0.0.1:${PORT}`;
 
-/** The interfaces.md example model and plane at 256 x 256 (the benchmark scenario). */
+/** The standard model's worked point and plane at 256 x 256 (the benchmark scenario). */
 const SCENARIO = {
   filling: 0,
   channels: {
@@ -216,7 +216,7 @@ export function printBrowserReport(root, result) {
     cells.map((c, k) => (k === 0 ? c.padEnd(widths[k]) : c.padStart(widths[k]))).join('  ');
   const { drag } = result;
   const text = [
-    `Fourfold in the browser: ${result.cores} workers, scenario = interfaces.md model and plane at 256 x 256`,
+    `Fourfold in the browser: ${result.cores} workers, scenario = standard model and (u_perp, u_z) plane at 256 x 256`,
     '',
     format(header),
     widths.map((w) => '-'.repeat(w)).join('  '),

@@ -25,7 +25,7 @@ export interface InProcessMap {
 }
 
 /**
- * The standard model's map (interfaces.md plane) computed in this process on a thread pool of
+ * The standard model's map (standard plane) computed in this process on a thread pool of
  * `threads` workers, `runs` times; each run starts its own pool.
  */
 export async function inProcessMap(

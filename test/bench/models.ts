@@ -1,7 +1,7 @@
 import { CHANNELS, parseModel, seededRandom, type Filling, type Model } from '../../solver/index';
 import { standardPlane } from '../fixtures';
 
-/** A model document as the CLI reads it (interfaces.md). */
+/** A model document as the CLI reads it (README, Command line). */
 export type ModelDocument = Record<string, unknown>;
 
 export interface ModelPair {
@@ -44,7 +44,7 @@ export function genericModels(count: number, filling: Filling, seed: number): Mo
   return out;
 }
 
-/** The anisotropic valley model of model.md section 4 with H = F (interfaces.md example). */
+/** The anisotropic valley model of public/notes.html#energy with H = F (its worked point). */
 export function standardDocument(uPerp: number, uZ: number, zeeman = 0.4): ModelDocument {
   return {
     filling: 0,
@@ -58,7 +58,7 @@ export function standardDocument(uPerp: number, uZ: number, zeeman = 0.4): Model
   };
 }
 
-/** (uPerp, uZ) of the standard model of interfaces.md and of variants in each phase. */
+/** (uPerp, uZ) of the standard model's worked point and of variants in each phase. */
 export const STANDARD_POINTS: readonly { name: string; uPerp: number; uZ: number }[] = [
   { name: 'standard (CAF)', uPerp: -1, uZ: 2 },
   { name: 'F', uPerp: 0.5, uZ: 1 },
@@ -76,7 +76,7 @@ export function standardModels(): ModelPair[] {
   }));
 }
 
-/** The standard model with the plane of interfaces.md at the given resolution. */
+/** The standard model on the standard (uPerp, uZ) plane at the given resolution. */
 export function standardMapDocument(resolution: number): ModelDocument {
   return { ...standardDocument(-1, 2), plane: standardPlane(resolution, resolution) };
 }

@@ -18,7 +18,7 @@ import {
  * Princeton University Press (2008), section 4.2). No seed library, no Newton step, no warm
  * start: each point is solved from scratch.
  *
- * The Euclidean gradient of E with respect to P is H_HF[P] (model.md section 7), so moving
+ * The Euclidean gradient of E with respect to P is H_HF[P] (public/notes.html#gap), so moving
  * occupied vector u_i by delta_i changes E by 2 Re sum_i u_i^dagger H_HF delta_i. The steepest
  * direction is delta_i = -(1 - P) H_HF u_i; with d_i = (1 - P) H_HF u_i the slope along it is
  * -2 sum_i |d_i|^2. A step moves u_i to u_i - t d_i and re-orthonormalises the occupied vectors
