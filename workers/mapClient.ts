@@ -3,8 +3,11 @@ import { MapScheduler } from './mapScheduler';
 import type { AsyncMapStages, MapStagesApi } from './mapStages';
 import { WorkerPool, type PoolEvent, type PoolMember } from './workerPool';
 
-/** What `workers/mapWorker.ts` exposes: the stages and a ping answered between tasks. */
-type MapWorkerApi = MapStagesApi & { ping(): boolean };
+/**
+ * What `workers/mapWorker.ts` exposes: the stages, a ping answered between tasks, and whether it
+ * holds its life lock (answered once it does).
+ */
+type MapWorkerApi = MapStagesApi & { ping(): boolean; lifeLock(): Promise<boolean> };
 
 /** The page's map workers still running (in order of creation). */
 const running = new Set<Worker>();
@@ -17,11 +20,11 @@ export function runningMapWorkers(): readonly Worker[] {
 
 /**
  * One browser module worker running the Map stages. It holds a Web Lock named after it while it
- * lives, so its ping asks the browser's lock manager, which answers at once even while the
- * worker is busy: a lock once held and now gone means the worker stopped (a `terminate()` or
+ * lives; once it says so, its ping asks the browser's lock manager, which answers at once even
+ * while the worker is busy, and a lock gone means the worker stopped (a `terminate()` or
  * `close()` fires no event). Where Web Locks are missing (a page not served over HTTPS or from
- * localhost), and until the lock is first seen, the ping is a call the worker answers between
- * tasks.
+ * localhost), and until the worker holds its lock, the ping is a call the worker answers
+ * between tasks.
  */
 function browserMember(): PoolMember<AsyncMapStages> {
   const locks = navigator.locks as LockManager | undefined;
@@ -38,20 +41,16 @@ function browserMember(): PoolMember<AsyncMapStages> {
       ),
     );
   });
-  let lockSeen = false;
+  let holdsLock = false;
+  if (locks) void remote.lifeLock().then((holds) => (holdsLock = holds));
   return {
     api: remote as unknown as AsyncMapStages,
     died,
     async ping() {
-      if (locks) {
-        const { held = [] } = await locks.query();
-        if (held.some((lock) => lock.name === name)) {
-          lockSeen = true;
-          return;
-        }
-        if (lockSeen) throw new Error('the worker stopped without an error');
-      }
-      await remote.ping();
+      if (!holdsLock) return remote.ping();
+      const { held = [] } = await locks!.query();
+      if (!held.some((lock) => lock.name === name))
+        throw new Error('the worker stopped without an error');
     },
     terminate() {
       running.delete(worker);
