@@ -94,9 +94,10 @@ export async function createMapScheduler(onEvent?: (event: PoolEvent) => void): 
       : new WorkerPool(browserMember, size, {
           fallback: mainThreadMember,
           onEvent,
-          // The lock manager answers a ping at once; a worker's own answer waits for the tasks
-          // ahead of it (up to three, a Probe takes up to a second or two on a busy machine).
-          livenessMs: navigator.locks ? 2000 : 8000,
+          // A worker holding its lock is known dead at once. A worker's own answer to a ping waits
+          // for the tasks ahead of it (up to three; a Probe takes a second or two on a busy
+          // machine), so that answer gets 8 s.
+          livenessMs: 8000,
         });
   await pool.each((api) => api.warmUp());
   return { scheduler: new MapScheduler(pool), pool };

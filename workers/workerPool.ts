@@ -96,8 +96,6 @@ export interface PoolOptions<Api = unknown> {
   readonly fallback?: () => PoolMember<Api>;
   /** Hears of replaced workers and of the fallback, once each. */
   readonly onEvent?: (event: PoolEvent) => void;
-  /** The clock (ms). */
-  readonly now?: () => number;
 }
 
 function messageOf(error: unknown): string {
@@ -126,7 +124,6 @@ export class WorkerPool<Api> {
   /** Set when no worker can start and there is no fallback. */
   private broken: Error | null = null;
   private ticker: ReturnType<typeof setTimeout> | undefined;
-  private readonly now: () => number;
   readonly attempts: number;
   readonly timeoutMs: number;
   readonly depth: number;
@@ -154,7 +151,6 @@ export class WorkerPool<Api> {
     this.backoffMs = options.backoffMs ?? 250;
     this.maxBackoffMs = options.maxBackoffMs ?? 4000;
     this.maxStarts = options.maxStarts ?? 5;
-    this.now = options.now ?? (() => performance.now());
     this.slots = Array.from({ length: Math.max(1, size) }, () => this.emptySlot());
   }
 
@@ -181,7 +177,7 @@ export class WorkerPool<Api> {
   /** The slot's worker, started if there is none and the backoff allows; null if not now. */
   private memberOf(slot: Slot<Api>): PoolMember<Api> | null {
     if (slot.member) return slot.member;
-    if (slot.retired || this.closed || this.now() < slot.notBefore) return null;
+    if (slot.retired || this.closed || performance.now() < slot.notBefore) return null;
     let member: PoolMember<Api>;
     try {
       member = this.create();
@@ -191,7 +187,7 @@ export class WorkerPool<Api> {
     }
     slot.member = member;
     slot.started = false;
-    slot.lastAnswer = this.now();
+    slot.lastAnswer = performance.now();
     slot.pingSentAt = null;
     // The one reaction the pool attaches to a worker's death.
     member.died.catch((error: unknown) => this.lose(slot, member, error));
@@ -294,7 +290,7 @@ export class WorkerPool<Api> {
   }
 
   private send(slot: Slot<Api>, member: PoolMember<Api>, task: Task<Api>): void {
-    const flight: InFlight<Api> = { task, startedAt: this.now() };
+    const flight: InFlight<Api> = { task, startedAt: performance.now() };
     slot.inFlight.add(flight);
     let answer: Promise<unknown>;
     try {
@@ -325,7 +321,7 @@ export class WorkerPool<Api> {
   private answered(slot: Slot<Api>): void {
     slot.started = true;
     slot.failedStarts = 0;
-    slot.lastAnswer = this.now();
+    slot.lastAnswer = performance.now();
   }
 
   /**
@@ -376,7 +372,7 @@ export class WorkerPool<Api> {
   private backOff(slot: Slot<Api>): void {
     const delay =
       slot.strikes <= 1 ? 0 : Math.min(this.maxBackoffMs, this.backoffMs * 2 ** (slot.strikes - 2));
-    slot.notBefore = this.now() + delay;
+    slot.notBefore = performance.now() + delay;
     clearTimeout(slot.wake);
     slot.wake =
       delay > 0
@@ -413,7 +409,7 @@ export class WorkerPool<Api> {
   /** Pings silent workers, and loses those that hung on a task or left a ping unanswered. */
   private tick(): void {
     this.ticker = undefined;
-    const now = this.now();
+    const now = performance.now();
     for (const slot of this.slots) {
       const member = slot.member;
       if (!member || slot.inFlight.size === 0) continue;
