@@ -2,9 +2,12 @@ import { StrictMode } from 'react';
 import { createRoot } from 'react-dom/client';
 import { App } from './App';
 import './styles.css';
+import { installTestHooks } from './testHooks';
 
 const container = document.getElementById('root');
 if (!container) throw new Error('index.html has no #root element');
+
+installTestHooks();
 
 createRoot(container).render(
   <StrictMode>

@@ -1,8 +1,10 @@
 import { ModelError, parseMapInput, type MapInput, errorLine } from '../solver/index';
 import { createMapScheduler } from '../workers/mapClient';
-import { provideSidePool } from './sidePool';
+import { provideSidePool, sidePoolFailed } from './sidePool';
 import type { MapMode, MapScheduler } from '../workers/mapScheduler';
 import { setupToScenario } from './scenario/scenario';
+import { workerNotice } from './status/workerNotice';
+import type { PoolEvent } from '../workers/workerPool';
 import type { Setup } from './scenario/setup';
 import { useFourfold, type FourfoldState } from './store/index';
 
@@ -33,6 +35,17 @@ export function startMapDriver(mode: MapMode = 'staged'): () => void {
   let stopped = false;
   let awaitingCoarse = false;
   let pending: { setup: Setup; changedAt: number } | null = null;
+  // News of the workers stays under the Map until a job started after it is done (a worker
+  // replaced), or for good (none could start).
+  let replacedSoFar = 0;
+  let workersNoticeJob = 0;
+  let workersNoticeStays = false;
+  const onPoolEvent = (event: PoolEvent): void => {
+    if (event.kind === 'replaced') replacedSoFar++;
+    workersNoticeJob = scheduler?.current ?? 0;
+    workersNoticeStays ||= event.kind !== 'replaced';
+    store.getState().setMap({ workers: workerNotice(event, replacedSoFar) });
+  };
 
   const launch = (setup: Setup, changedAt: number): void => {
     if (!scheduler) {
@@ -103,6 +116,8 @@ export function startMapDriver(mode: MapMode = 'staged'): () => void {
             performance.measure(MARK_DONE, { start: changedAt, detail: { job, mode } }),
           );
           bump({ grid, boundaries, phase: 'done', doneMs: ms }, true);
+          if (!workersNoticeStays && job > workersNoticeJob)
+            store.getState().setMap({ workers: null });
         },
         problem: (text) => {
           if (job !== scheduler?.current) return;
@@ -137,7 +152,7 @@ export function startMapDriver(mode: MapMode = 'staged'): () => void {
   changed(store.getState().setup);
 
   let pool: { close(): void } | null = null;
-  createMapScheduler()
+  createMapScheduler(onPoolEvent)
     .then((created) => {
       if (stopped) {
         created.pool.close();
@@ -149,6 +164,7 @@ export function startMapDriver(mode: MapMode = 'staged'): () => void {
       flush();
     })
     .catch((error: unknown) => {
+      sidePoolFailed(error);
       store.getState().setMap({ problem: `The map workers could not start: ${errorLine(error)}` });
     });
 

@@ -16,14 +16,28 @@ export const SIDE_TASK_QUIET_MS = 120;
 export const SIDE_PRIORITY = -1;
 
 let provide: (pool: WorkerPool<AsyncMapStages>) => void = () => undefined;
-const ready = new Promise<WorkerPool<AsyncMapStages>>((resolve) => (provide = resolve));
+let fail: (error: unknown) => void = () => undefined;
+const ready = new Promise<WorkerPool<AsyncMapStages>>((resolve, reject) => {
+  provide = resolve;
+  fail = reject;
+});
+// Reported by the map driver; a side task that asks later gets the same error.
+ready.catch(() => undefined);
 
 /** Hands the Map's worker pool to the side tasks (called once by the map driver). */
 export function provideSidePool(pool: WorkerPool<AsyncMapStages>): void {
   provide(pool);
 }
 
-/** Runs one side task on the shared worker pool, once the pool exists. */
+/** The Map's worker pool could not be made: side tasks fail with `error` instead of waiting. */
+export function sidePoolFailed(error: unknown): void {
+  fail(error);
+}
+
+/**
+ * Runs one side task on the shared worker pool, once the pool exists. The pool retries it on a
+ * new worker if its worker dies, and runs it on the page if no worker can start.
+ */
 export async function runSideTask<T>(task: (api: AsyncMapStages) => Promise<T>): Promise<T> {
   const pool = await ready;
   return pool.run(SIDE_JOB, SIDE_PRIORITY, task);

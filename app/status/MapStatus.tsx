@@ -9,12 +9,16 @@ const PHASE_TEXT = {
   failed: 'Stopped',
 } as const;
 
-/** One line under the Map: progress and timings, and any problem with the setup or the run. */
+/**
+ * One line under the Map: progress and timings, any problem with the setup or the run, and
+ * news of the map workers (one replaced, or none could start).
+ */
 export function MapStatus() {
   const phase = useFourfold((s) => s.map.phase);
   const coarseMs = useFourfold((s) => s.map.coarseMs);
   const doneMs = useFourfold((s) => s.map.doneMs);
   const problem = useFourfold((s) => s.map.problem);
+  const workers = useFourfold((s) => s.map.workers);
   const setupProblem = useFourfold((s) => s.view.setupProblem);
   const resolution = useFourfold((s) => s.map.grid?.input.plane.resolution);
   return (
@@ -33,6 +37,11 @@ export function MapStatus() {
       {problem && (
         <p className="error" role="alert" data-testid="map-problem">
           {problem}
+        </p>
+      )}
+      {workers && (
+        <p className="map-workers" role="status" data-testid="map-workers">
+          {workers}
         </p>
       )}
     </div>
