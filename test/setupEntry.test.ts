@@ -8,7 +8,8 @@ import {
   type EntryRule,
 } from '../app/setup/numberEntry';
 import { commitSetup } from '../app/setup/commitSetup';
-import { sweptTargets } from '../app/setup/sweep';
+import { onePartChannels, sweptTargets } from '../app/setup/sweep';
+import type { Setup } from '../app/scenario/setup';
 import { STORAGE_KEY, useFourfold } from '../app/store/index';
 
 // The store autosaves to localStorage, which Node does not have; this stands in for it before
@@ -79,18 +80,26 @@ describe('swept targets', () => {
   });
 
   test('a target both axes set is reported as swept along both', () => {
-    const swept = sweptTargets({
+    const setup: Setup = {
+      ...DEMO_SETUP,
       x: { quantity: 'zeeman', from: 0, to: 1, hartreeRatio: 1 },
       y: {
         quantity: 'custom',
         from: 0,
         to: 1,
         hartreeRatio: 1,
-        targets: { zeeman: 0.5, 'zz.fock': 1 },
+        targets: { zeeman: 0.5, 'zz.fock': 1, 'xx.fock': 2 },
       },
-    });
+      channels: { ...DEMO_SETUP.channels, xx: { hartree: 0.3, fock: 0.1 } },
+    };
+    const swept = sweptTargets(setup);
     expect(swept.get('zeeman')).toBe('x and y');
     expect(swept.get('zz.fock')).toBe('y');
+    // zz is not listed: its Hartree part follows the axis (missing hartree = fock); xx is
+    // listed and keeps its own.
+    expect(swept.get('zz.hartree')).toBe('y');
+    expect(swept.has('xx.hartree')).toBe(false);
+    expect(onePartChannels(setup)).toEqual(new Set(['zz', 'xx']));
   });
 });
 
