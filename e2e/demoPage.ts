@@ -20,9 +20,10 @@ export function failOnConsoleErrors(): void {
   });
 }
 
+/** Waits for the finished Map, allowing for a busy two-core machine. */
 export async function mapDone(page: Page): Promise<void> {
   await expect(page.getByTestId('map-status')).toHaveAttribute('data-phase', 'done', {
-    timeout: 30_000,
+    timeout: 120_000,
   });
 }
 

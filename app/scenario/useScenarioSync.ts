@@ -85,14 +85,18 @@ export function useScenarioSync(): void {
       return scenarioHash(setup, window.location.hash, probe.pins);
     };
 
-    const writeAddress = () => {
+    /**
+     * Writes the address. `settled` false (the page is going away) keeps the pending note: a
+     * reload reads the address it had when it was asked for, before this write.
+     */
+    const writeAddress = (settled = true) => {
       clearTimeout(timer);
       timer = undefined;
       const hash = latestHash();
       lastWrite = performance.now();
       written = hash;
       replaceAddress(hash);
-      writePending(null);
+      if (settled) writePending(null);
     };
 
     const onChange = () => {
@@ -102,7 +106,7 @@ export function useScenarioSync(): void {
         return;
       }
       writePending({ shown: window.location.hash, latest: latestHash() });
-      if (timer === undefined) timer = setTimeout(writeAddress, Math.max(0, wait));
+      if (timer === undefined) timer = setTimeout(() => writeAddress(), Math.max(0, wait));
     };
 
     /** Shows a notice; at start it joins one already there (from the autosave) on its line. */
@@ -169,9 +173,11 @@ export function useScenarioSync(): void {
       writePending(null);
       applyHash(false);
     };
-    // A write still waiting is made before the page is hidden or goes away.
+    // A write still waiting is made before the page is hidden or goes away (for the history
+    // entry and a restored session; a reload already asked for keeps the older address, which
+    // the pending note covers).
     const flush = () => {
-      if (timer !== undefined) writeAddress();
+      if (timer !== undefined) writeAddress(false);
     };
     const onVisibility = () => {
       if (document.visibilityState === 'hidden') flush();
