@@ -6,6 +6,8 @@ import { AUTOSAVE_VERSION, KEPT_KEY_PREFIX, STORAGE_KEY } from '../app/store/aut
 import { DEMO, failOnConsoleErrors, mapDone, pointAt } from './demoPage';
 
 failOnConsoleErrors();
+// Each case loads the app afresh and waits for a Map, on a machine that may be busy.
+test.describe.configure({ timeout: 240_000 });
 
 /**
  * Puts `text` in the autosave before the app's first start in this context (later loads of
@@ -51,6 +53,7 @@ async function energyAt(page: Page, x: number, y: number) {
 const demoWith = (zeeman: number) => scenarioHash({ ...DEMO_SETUP, zeeman }).replace(/^#/, '');
 
 test('a reload right after an edit keeps the edit, in the setup and the Map', async ({ page }) => {
+  test.setTimeout(480_000);
   await page.goto('/');
   await mapDone(page);
   // Typed key by key: every keystroke is a change, the last ones within the address's

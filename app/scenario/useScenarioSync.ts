@@ -15,36 +15,49 @@ import { readScenarioLink, scenarioHash } from './urlState';
 export const ADDRESS_WRITE_INTERVAL_MS = 100;
 
 /**
- * sessionStorage key (this tab only) of an address write that is still waiting: the address
- * shown and the one the setup stands for. A reload in the meantime starts from the latter, so
- * an edit is never rolled back by the older address.
+ * sessionStorage key (this tab only) of the tab's own addresses: the latest, which the setup
+ * stands for, and digests of the addresses the tab showed lately. A reload right after an edit
+ * may start from one of the tab's older addresses (the address is written a moment later, and
+ * the browser learns of a write a moment after the page makes it); the tab's latest then wins.
+ * Any other link wins.
  */
-export const PENDING_ADDRESS_KEY = 'fourfold.address.pending';
+export const TAB_ADDRESSES_KEY = 'fourfold.address.tab';
 
-interface PendingAddress {
-  readonly shown: string;
+/** Digests of the tab's addresses kept (the writes of the last few seconds at most). */
+const ADDRESSES_KEPT = 32;
+
+interface TabAddresses {
   readonly latest: string;
+  readonly shown: readonly string[];
 }
 
-function readPending(): PendingAddress | null {
+/** 32-bit FNV-1a digest of a text, in hex (Fowler-Noll-Vo, a public-domain hash). */
+function digest(text: string): string {
+  let h = 0x811c9dc5;
+  for (let k = 0; k < text.length; k++) {
+    h ^= text.charCodeAt(k);
+    h = Math.imul(h, 0x01000193);
+  }
+  return (h >>> 0).toString(16);
+}
+
+function readTabAddresses(): TabAddresses | null {
   try {
-    const text = sessionStorage.getItem(PENDING_ADDRESS_KEY);
-    const json: unknown = text === null ? null : JSON.parse(text);
-    const p = json as Partial<PendingAddress> | null;
-    return p && typeof p.shown === 'string' && typeof p.latest === 'string'
-      ? { shown: p.shown, latest: p.latest }
+    const text = sessionStorage.getItem(TAB_ADDRESSES_KEY);
+    const json = (text === null ? null : JSON.parse(text)) as Partial<TabAddresses> | null;
+    return json && typeof json.latest === 'string' && Array.isArray(json.shown)
+      ? { latest: json.latest, shown: json.shown.filter((d) => typeof d === 'string') }
       : null;
   } catch {
     return null;
   }
 }
 
-function writePending(pending: PendingAddress | null): void {
+function writeTabAddresses(addresses: TabAddresses): void {
   try {
-    if (pending === null) sessionStorage.removeItem(PENDING_ADDRESS_KEY);
-    else sessionStorage.setItem(PENDING_ADDRESS_KEY, JSON.stringify(pending));
+    sessionStorage.setItem(TAB_ADDRESSES_KEY, JSON.stringify(addresses));
   } catch {
-    // Session storage off: the address still catches up within ADDRESS_WRITE_INTERVAL_MS.
+    // Session storage off: a reload right after an edit may then start from the older address.
   }
 }
 
@@ -69,9 +82,10 @@ type Notice = NonNullable<ViewSlice['view']['notice']>;
  * scenario in the hash (`#s=`) replaces the autosaved setup (a valid link wins); a malformed
  * one is reported as an error notice and changes nothing. Afterwards every change is written
  * to the hash with `history.replaceState` (no history entries) at once, or, within
- * ADDRESS_WRITE_INTERVAL_MS of the last write, as soon as that time is up; meanwhile the tab
- * keeps the address it stands for in sessionStorage, so a reload or a crash right after an
- * edit keeps the edit. A hash edited by hand, or a pasted link in the same tab, is read again.
+ * ADDRESS_WRITE_INTERVAL_MS of the last write, as soon as that time is up; the tab keeps the
+ * address it stands for in sessionStorage at once (TAB_ADDRESSES_KEY), so a reload or a crash
+ * right after an edit keeps the edit. A hash edited by hand, or a pasted link in the same tab,
+ * is read again.
  */
 export function useScenarioSync(): void {
   useEffect(() => {
@@ -85,18 +99,23 @@ export function useScenarioSync(): void {
       return scenarioHash(setup, window.location.hash, probe.pins);
     };
 
-    /**
-     * Writes the address. `settled` false (the page is going away) keeps the pending note: a
-     * reload reads the address it had when it was asked for, before this write.
-     */
-    const writeAddress = (settled = true) => {
+    // The tab's own addresses: the one it was opened on and every one it wrote since.
+    let shown: string[] = [];
+    const remember = (latest: string, address: string | null) => {
+      if (address !== null && shown[shown.length - 1] !== digest(address)) {
+        shown = [...shown, digest(address)].slice(-ADDRESSES_KEPT);
+      }
+      writeTabAddresses({ latest, shown });
+    };
+
+    const writeAddress = () => {
       clearTimeout(timer);
       timer = undefined;
       const hash = latestHash();
       lastWrite = performance.now();
       written = hash;
       replaceAddress(hash);
-      if (settled) writePending(null);
+      remember(hash, hash);
     };
 
     const onChange = () => {
@@ -105,8 +124,8 @@ export function useScenarioSync(): void {
         writeAddress();
         return;
       }
-      writePending({ shown: window.location.hash, latest: latestHash() });
-      if (timer === undefined) timer = setTimeout(() => writeAddress(), Math.max(0, wait));
+      remember(latestHash(), null);
+      if (timer === undefined) timer = setTimeout(writeAddress, Math.max(0, wait));
     };
 
     /** Shows a notice; at start it joins one already there (from the autosave) on its line. */
@@ -148,11 +167,13 @@ export function useScenarioSync(): void {
     };
 
     const start = () => {
-      // A reload before the address caught up shows the older address: this tab's latest wins.
-      const pending = readPending();
-      writePending(null);
-      if (pending !== null && pending.shown === window.location.hash)
-        replaceAddress(pending.latest);
+      // One of this tab's own addresses (a reload right after an edit): its latest wins.
+      const own = readTabAddresses();
+      if (own !== null && own.shown.includes(digest(window.location.hash))) {
+        shown = [...own.shown];
+        replaceAddress(own.latest);
+      }
+      remember(window.location.hash, window.location.hash);
       if (applyHash(true)) writeAddress();
     };
 
@@ -170,14 +191,14 @@ export function useScenarioSync(): void {
       // A link pasted into the address bar: it wins over a write still waiting.
       clearTimeout(timer);
       timer = undefined;
-      writePending(null);
+      remember(window.location.hash, window.location.hash);
       applyHash(false);
     };
     // A write still waiting is made before the page is hidden or goes away (for the history
-    // entry and a restored session; a reload already asked for keeps the older address, which
-    // the pending note covers).
+    // entry and a restored session; a reload already asked for may keep the older address,
+    // which the tab's addresses cover).
     const flush = () => {
-      if (timer !== undefined) writeAddress(false);
+      if (timer !== undefined) writeAddress();
     };
     const onVisibility = () => {
       if (document.visibilityState === 'hidden') flush();
