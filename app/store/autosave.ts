@@ -19,8 +19,9 @@ let problem: string | null = null;
 let lastRead: string | null = null;
 
 /**
- * Copies an unusable autosave under a key of its own (KEPT_KEY_PREFIX and the time) and
- * records one line saying why and where; the next autosave then replaces the original.
+ * Moves an unusable autosave under a key of its own (KEPT_KEY_PREFIX and the time), so that it
+ * is neither lost nor read again, and records one line saying why and where. If the copy
+ * cannot be made the original stays where it is (the next autosave replaces it).
  */
 export function keepAutosaveAside(reason: string, text: string | null = lastRead): void {
   let where = 'it could not be kept (the browser storage refused it)';
@@ -28,6 +29,7 @@ export function keepAutosaveAside(reason: string, text: string | null = lastRead
     const key = `${KEPT_KEY_PREFIX}${new Date().toISOString()}`;
     try {
       localStorage.setItem(key, text);
+      localStorage.removeItem(STORAGE_KEY);
       where = `it is kept in the browser storage under "${key}"`;
     } catch {
       // The storage is full or off: say so in the report.
@@ -69,6 +71,9 @@ export function autosaveStorage(): PersistStorage<unknown> {
         return null;
       }
       lastRead = text;
+      // What the storage holds now is what was read (or, once kept aside, nothing), whatever
+      // was written last.
+      last = null;
       if (text === null) return null;
       let json: unknown;
       try {
