@@ -131,6 +131,8 @@ export function useScenarioSync(): void {
     /** Shows a notice; at start it joins one already there (from the autosave) on its line. */
     const notify = (notice: Notice, atStart: boolean) => {
       const prior = atStart ? store.getState().view.notice : null;
+      // (A second start, as React's development mode makes, says nothing new.)
+      if (prior?.text.endsWith(notice.text)) return;
       store.getState().setNotice(
         prior === null
           ? notice
