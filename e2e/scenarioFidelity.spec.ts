@@ -4,26 +4,10 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { expect, test, type Download, type Page } from '@playwright/test';
 import { modelToJson, parseMapInput } from '../solver/index';
+import { FOCK_ONLY_SCENARIO } from '../test/scenarios';
 import { failOnConsoleErrors } from './demoPage';
 
 failOnConsoleErrors();
-
-/** The model of README's first command, with a plane whose axes set only the Fock parts. */
-const FOCK_ONLY = {
-  filling: 0,
-  channels: {
-    x0: { hartree: -0.8, fock: -1 },
-    y0: { hartree: -0.8, fock: -1 },
-    z0: { fock: 1.5 },
-  },
-  zeeman: 0.5,
-  valleyZeeman: 0.1,
-  plane: {
-    x: { label: 'u_perp', from: -2, to: 2, targets: { 'x0.fock': 1, 'y0.fock': 1 } },
-    y: { label: 'u_z', from: -2, to: 2, targets: { 'z0.fock': 1 } },
-    resolution: [128, 128],
-  },
-};
 
 /**
  * An invented generic sample: H != F, a bare-number channel, a Fock target on a channel that is
@@ -137,7 +121,7 @@ function differences(browser: MapJson, cli: MapJson, tolerance: number): string[
 }
 
 for (const [name, scenario] of [
-  ['fock-only-axes.json', FOCK_ONLY],
+  ['fock-only-axes.json', FOCK_ONLY_SCENARIO],
   ['generic-sample.json', GENERIC],
 ] as const) {
   test(`Load scenario ${name}: the app maps and saves what npm run map maps`, async ({ page }) => {

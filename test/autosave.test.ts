@@ -1,37 +1,26 @@
+import { storedItems } from './memoryStorage';
 import { afterEach, beforeEach, describe, expect, test, vi } from 'vitest';
 import { DEMO_SETUP } from '../app/scenario/demo';
 import { setupToScenario } from '../app/scenario/scenario';
 import { AUTOSAVE_VERSION, KEPT_KEY_PREFIX, STORAGE_KEY } from '../app/store/autosave';
 import { useFourfold } from '../app/store/index';
 
-// The store autosaves to localStorage, which Node does not have; this stands in for it before
-// the store module is loaded (vi.hoisted runs ahead of the imports).
-const saved = vi.hoisted(() => {
-  const items = new Map<string, string>();
-  Object.assign(globalThis, {
-    localStorage: {
-      getItem: (key: string) => items.get(key) ?? null,
-      setItem: (key: string, value: string) => void items.set(key, value),
-      removeItem: (key: string) => void items.delete(key),
-    },
-  });
-  return items;
-});
-
 function kept(): string[] {
-  return [...saved.entries()].filter(([k]) => k.startsWith(KEPT_KEY_PREFIX)).map(([, v]) => v);
+  return [...storedItems.entries()]
+    .filter(([k]) => k.startsWith(KEPT_KEY_PREFIX))
+    .map(([, v]) => v);
 }
 
 /** Puts `text` in the autosave and reads it back as a start of the app does. */
 async function startWith(text: string): Promise<void> {
-  saved.set(STORAGE_KEY, text);
+  storedItems.set(STORAGE_KEY, text);
   await useFourfold.persist.rehydrate();
 }
 
 const errors = vi.spyOn(console, 'error');
 
 beforeEach(() => {
-  for (const key of [...saved.keys()]) saved.delete(key);
+  for (const key of [...storedItems.keys()]) storedItems.delete(key);
   useFourfold.getState().replaceSetup(DEMO_SETUP);
   useFourfold.getState().replacePins([]);
   useFourfold.getState().setNotice(null);
@@ -59,9 +48,9 @@ describe('an autosave that cannot be used is kept aside and reported in one line
     expect(kept()).toEqual([text]);
     expect(useFourfold.getState().setup).toEqual(DEMO_SETUP);
     // It was moved under its own key; the next change of the store autosaves afresh.
-    expect(saved.has(STORAGE_KEY)).toBe(false);
+    expect(storedItems.has(STORAGE_KEY)).toBe(false);
     useFourfold.getState().setHover({ i: 1, j: 2 });
-    expect(JSON.parse(saved.get(STORAGE_KEY)!).version).toBe(AUTOSAVE_VERSION);
+    expect(JSON.parse(storedItems.get(STORAGE_KEY)!).version).toBe(AUTOSAVE_VERSION);
   });
 
   test('a stored scenario that does not validate, naming the field', async () => {
@@ -113,7 +102,7 @@ describe('a usable autosave', () => {
     expect(state.view.notice).toBeNull();
     // Written back in the current format, pins inside the scenario.
     useFourfold.getState().setHover({ i: 1, j: 2 });
-    const stored = JSON.parse(saved.get(STORAGE_KEY)!);
+    const stored = JSON.parse(storedItems.get(STORAGE_KEY)!);
     expect(stored.version).toBe(AUTOSAVE_VERSION);
     expect(stored.state.setup.fourfold.pins).toEqual([
       [0.5, 1],

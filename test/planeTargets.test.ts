@@ -12,23 +12,7 @@ import {
   type RandomSource,
 } from '../solver/index';
 import { errorOf } from './fixtures';
-
-/** The model of README's first command with the Fock-only plane of a hand-written file. */
-const FOCK_ONLY = {
-  filling: 0,
-  channels: {
-    x0: { hartree: -0.8, fock: -1 },
-    y0: { hartree: -0.8, fock: -1 },
-    z0: { fock: 1.5 },
-  },
-  zeeman: 0.5,
-  valleyZeeman: 0.1,
-  plane: {
-    x: { label: 'u_perp', from: -2, to: 2, targets: { 'x0.fock': 1, 'y0.fock': 1 } },
-    y: { label: 'u_z', from: -2, to: 2, targets: { 'z0.fock': 1 } },
-    resolution: [128, 128],
-  },
-};
+import { FOCK_ONLY_SCENARIO } from './scenarios';
 
 function withPlane(channels: Record<string, unknown>, x: Record<string, number>) {
   return {
@@ -45,7 +29,7 @@ function withPlane(channels: Record<string, unknown>, x: Record<string, number>)
 
 describe('an axis that sets one part of a channel', () => {
   test('a channel listed in channels keeps its other part (Fock-only and Hartree-only targets)', () => {
-    const input = parseMapInput(FOCK_ONLY);
+    const input = parseMapInput(FOCK_ONLY_SCENARIO);
     const model = modelAtPoint(input, 0.7, -1.2);
     expect(model.channels.x0).toEqual({ hartree: -0.8, fock: 0.7 });
     expect(model.channels.y0).toEqual({ hartree: -0.8, fock: 0.7 });

@@ -7,6 +7,7 @@ import {
   type RandomSource,
 } from '../solver/index';
 import { errorOf } from './fixtures';
+import { FOCK_ONLY_SCENARIO } from './scenarios';
 import { toPhysicalUnits } from '../app/scenario/physical';
 import { scenarioToSetup, setupToMapInput, setupToScenario } from '../app/scenario/scenario';
 import { parseScenarioFile, readScenario, scenarioFileText } from '../app/scenario/scenarioFile';
@@ -168,21 +169,7 @@ describe('every scenario the command line maps loads into the app unchanged', ()
   });
 
   test("the README's Fock-only plane keeps x0's and z0's Hartree parts", () => {
-    const file = {
-      filling: 0,
-      channels: {
-        x0: { hartree: -0.8, fock: -1 },
-        y0: { hartree: -0.8, fock: -1 },
-        z0: { fock: 1.5 },
-      },
-      zeeman: 0.5,
-      valleyZeeman: 0.1,
-      plane: {
-        x: { label: 'u_perp', from: -2, to: 2, targets: { 'x0.fock': 1, 'y0.fock': 1 } },
-        y: { label: 'u_z', from: -2, to: 2, targets: { 'z0.fock': 1 } },
-        resolution: [128, 128],
-      },
-    };
+    const file = FOCK_ONLY_SCENARIO;
     const setup = scenarioToSetup(file);
     expect(setup.x.quantity).toBe('custom');
     expect(setup.y.quantity).toBe('custom');

@@ -1,4 +1,5 @@
-import { describe, expect, test, vi } from 'vitest';
+import { storedItems } from './memoryStorage';
+import { describe, expect, test } from 'vitest';
 import { DEMO_SETUP } from '../app/scenario/demo';
 import {
   COUPLING_RULE,
@@ -11,20 +12,6 @@ import { commitSetup } from '../app/setup/commitSetup';
 import { onePartChannels, sweptTargets } from '../app/setup/sweep';
 import type { Setup } from '../app/scenario/setup';
 import { STORAGE_KEY, useFourfold } from '../app/store/index';
-
-// The store autosaves to localStorage, which Node does not have; this stands in for it before
-// the store module is loaded (vi.hoisted runs ahead of the imports).
-const saved = vi.hoisted(() => {
-  const items = new Map<string, string>();
-  Object.assign(globalThis, {
-    localStorage: {
-      getItem: (key: string) => items.get(key) ?? null,
-      setItem: (key: string, value: string) => void items.set(key, value),
-      removeItem: (key: string) => void items.delete(key),
-    },
-  });
-  return items;
-});
 
 const SIDE_RULE: EntryRule = { min: 2, max: 1024, integer: true, tooLarge: 'too many' };
 
@@ -121,7 +108,7 @@ describe('commitSetup', () => {
     expect(useFourfold.getState().setup).toBe(before);
 
     // The autosave holds the last valid setup, as a scenario document.
-    const stored = JSON.parse(saved.get(STORAGE_KEY)!) as {
+    const stored = JSON.parse(storedItems.get(STORAGE_KEY)!) as {
       state: { setup: { zeeman: number } };
     };
     expect(stored.state.setup.zeeman).toBe(1.25);
