@@ -87,7 +87,7 @@ async function loadAndMap(page: Page, name: string, scenario: { plane: object })
     mimeType: 'application/json',
     buffer: Buffer.from(JSON.stringify(scenario)),
   });
-  await expect(page.getByTestId('notice')).toHaveText(`Loaded ${name}.`);
+  await expect(page.getByTestId('notice')).toHaveText(`Loaded "${name}".`);
   const [nx, ny] = (scenario.plane as { resolution: [number, number] }).resolution;
   const status = page.getByTestId('map-status');
   await expect(status).toContainText(`${nx} × ${ny}`, { timeout: 120_000 });
