@@ -56,6 +56,14 @@ export function isListed(setup: Pick<Setup, 'channels' | 'listedZero'>, ch: Chan
   return c.hartree !== 0 || c.fock !== 0 || (setup.listedZero ?? []).includes(ch);
 }
 
+/** An axis of the plane as a scenario document holds it (interfaces.md). */
+type PlaneAxis = {
+  readonly label: string;
+  readonly from: number;
+  readonly to: number;
+  readonly targets: Readonly<Record<string, number>>;
+};
+
 /** The plane axis a setup's axis writes (interfaces.md): label, range and targets. */
 export function planeAxis(axis: AxisSetup, setup: Pick<Setup, 'ratios'>): PlaneAxis {
   const targets: Record<string, number> = {};
@@ -158,13 +166,6 @@ function axisFromPlane(
     ratios,
   };
 }
-
-type PlaneAxis = {
-  readonly label: string;
-  readonly from: number;
-  readonly to: number;
-  readonly targets: Readonly<Record<string, number>>;
-};
 
 /**
  * Where two solver inputs differ, as `field: a, b` (null when they are the same). Fields in
