@@ -44,8 +44,10 @@ test('physical units: E_Z and l_B follow the formulas, the Map follows E_Z, the 
   page,
 }) => {
   await physicalUnits(page);
-  // Switching keeps the Map: B_perp is chosen so that E_Z = 0.6 (the demo's) to 3 digits.
-  await expect(page.getByTestId('physical-bperp')).toHaveValue('5.18');
+  // Switching keeps the Map: B_perp is chosen so that E_Z stays exactly 0.6 (the demo's):
+  // 0.6 meV / (2 x 0.0578838 meV/T) = 5.182796 T (CODATA 2018 mu_B).
+  await expect(page.getByTestId('physical-bperp')).toHaveValue(/^5\.18279/);
+  expect(await valueOf(page, 'derived-zeeman')).toBe(0.6);
   await mapDone(page);
 
   await page.getByTestId('physical-bperp').fill('9');

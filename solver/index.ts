@@ -79,9 +79,11 @@ export {
   modelAtPoint,
   parseMapInput,
   parsePlane,
+  planeTargets,
   type Axis,
   type MapInput,
   type Plane,
+  type PlaneTargets,
 } from './plane';
 export {
   COARSE_SEARCH,

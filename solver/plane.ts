@@ -20,7 +20,8 @@ import {
 /**
  * A two-coupling plane (a model file's `plane`): an axis value t sets every target to
  * coefficient * t (targets `CH.hartree`, `CH.fock`, `zeeman`, `valleyZeeman`). When both axes
- * name the same target their contributions add.
+ * name the same target their contributions add. Where the axes set only one part of a channel
+ * the other part follows `planeTargets`.
  */
 export interface Axis {
   readonly label: string;
@@ -131,7 +132,55 @@ export function parsePlane(json: unknown, field = 'plane'): Plane {
 /** Model plus plane from one document (the model file of `map`). */
 export function parseMapInput(json: unknown): MapInput {
   const model = parseModel(json);
-  return { model, plane: parsePlane((json as Record<string, unknown>).plane) };
+  const input = { model, plane: parsePlane((json as Record<string, unknown>).plane) };
+  planeTargets(input);
+  return input;
+}
+
+/** The targets each axis sets per unit of its value, once the rule of `planeTargets` is applied. */
+export interface PlaneTargets {
+  readonly x: Readonly<Record<string, number>>;
+  readonly y: Readonly<Record<string, number>>;
+}
+
+/**
+ * The targets the axes set, with the rule for a channel of which the axes set only one part
+ * (the same rule as the model file's channels):
+ * - the other part is the model's own value in `channels`;
+ * - a channel absent from `channels` follows "a missing hartree equals fock": its Hartree part
+ *   follows the axes' Fock targets (each axis that sets `CH.fock` also sets `CH.hartree` with
+ *   the same coefficient);
+ * - `CH.hartree` set for a channel absent from `channels` with no `CH.fock` target anywhere is
+ *   an error, as "hartree alone" is in a channel (ModelError naming the target).
+ * Two axes that name the same target add their contributions.
+ */
+export function planeTargets(input: MapInput): PlaneTargets {
+  const { model, plane } = input;
+  const named = new Set([...Object.keys(plane.x.targets), ...Object.keys(plane.y.targets)]);
+  const follows = (axis: Axis): Record<string, number> => {
+    const out: Record<string, number> = { ...axis.targets };
+    for (const [name, coefficient] of Object.entries(axis.targets)) {
+      const [channel, part] = name.split('.');
+      if (part !== 'fock' || model.channels[channel as Channel] !== undefined) continue;
+      if (!named.has(`${channel}.hartree`)) out[`${channel}.hartree`] = coefficient;
+    }
+    return out;
+  };
+  for (const [which, axis] of [
+    ['x', plane.x],
+    ['y', plane.y],
+  ] as const) {
+    for (const name of Object.keys(axis.targets)) {
+      const [channel, part] = name.split('.');
+      if (part !== 'hartree' || model.channels[channel as Channel] !== undefined) continue;
+      if (!named.has(`${channel}.fock`)) {
+        throw new ModelError(
+          `plane.${which}.targets.${name}: a Hartree part alone; ${channel} is not in channels and no axis sets ${channel}.fock (add channels.${channel} or a ${channel}.fock target)`,
+        );
+      }
+    }
+  }
+  return { x: follows(plane.x), y: follows(plane.y) };
 }
 
 /** Grid coordinate i of an axis with n points: the centre of cell i. */
@@ -167,10 +216,8 @@ export class PlaneCouplings {
       const [channel, part] = name.split('.');
       return { array: part as 'hartree' | 'fock', index: channelIndex(channel!), factor: 1 };
     };
-    const names = new Set([
-      ...Object.keys(input.plane.x.targets),
-      ...Object.keys(input.plane.y.targets),
-    ]);
+    const targets = planeTargets(input);
+    const names = new Set([...Object.keys(targets.x), ...Object.keys(targets.y)]);
     // A target is set by the axes, replacing the model's own value (a oneBody term on the same
     // matrix stays: it is separate from E_Z and Delta_V).
     for (const name of names) {
@@ -178,13 +225,13 @@ export class PlaneCouplings {
       baseArrays[slot.array][slot.index] =
         slot.array === 'eta' ? (input.model.oneBody[slot.index === 3 ? '0z' : 'z0'] ?? 0) : 0;
     }
-    const direction = (axis: Axis): CouplingArrays => {
+    const direction = (axisTargets: Readonly<Record<string, number>>): CouplingArrays => {
       const arrays: CouplingArrays = {
         hartree: new Float64Array(16),
         fock: new Float64Array(16),
         eta: new Float64Array(16),
       };
-      for (const [name, coefficient] of Object.entries(axis.targets)) {
+      for (const [name, coefficient] of Object.entries(axisTargets)) {
         const slot = targetSlot(name);
         arrays[slot.array][slot.index] =
           arrays[slot.array][slot.index]! + coefficient * slot.factor;
@@ -192,8 +239,8 @@ export class PlaneCouplings {
       return arrays;
     };
     this.base = couplingsFromArrays(nf, baseArrays, exchange);
-    this.dx = couplingsFromArrays(nf, direction(input.plane.x), 0);
-    this.dy = couplingsFromArrays(nf, direction(input.plane.y), 0);
+    this.dx = couplingsFromArrays(nf, direction(targets.x), 0);
+    this.dy = couplingsFromArrays(nf, direction(targets.y), 0);
     this.point = couplingsFromArrays(nf, baseArrays, exchange);
   }
 
@@ -235,19 +282,21 @@ export class PlaneCouplings {
 }
 
 /**
- * The model a plane point stands for (README, Command line: A Map): every target set to
- * coefficient * t, summed over the axes that name it; everything else from the input's model.
+ * The model a plane point stands for (the model file's plane, as `npm run map` reads it): every target set to
+ * coefficient * t, summed over the axes that name it (with the rule of `planeTargets` for a
+ * channel of which the axes set one part); everything else from the input's model.
  */
 export function modelAtPoint(input: MapInput, x: number, y: number): Model {
   const channels: Partial<Record<Channel, ChannelCoupling>> = { ...input.model.channels };
   let zeeman = input.model.zeeman;
   let valleyZeeman = input.model.valleyZeeman;
+  const targets = planeTargets(input);
   const set = new Map<string, number>();
-  for (const [axis, t] of [
-    [input.plane.x, x],
-    [input.plane.y, y],
+  for (const [axisTargets, t] of [
+    [targets.x, x],
+    [targets.y, y],
   ] as const) {
-    for (const [name, coefficient] of Object.entries(axis.targets)) {
+    for (const [name, coefficient] of Object.entries(axisTargets)) {
       set.set(name, (set.get(name) ?? 0) + coefficient * t);
     }
   }

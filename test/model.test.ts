@@ -319,7 +319,9 @@ function randomModelJson(random: RandomSource): Record<string, unknown> {
 
 /**
  * The model that a plane point stands for (README, Command line: A Map): every target set to
- * coefficient * t, summed over the axes that name it, everything else from the model.
+ * coefficient * t, summed over the axes that name it, everything else from the model; where
+ * the axes set only the Fock part of a channel the model does not list, its Hartree part
+ * follows (a missing hartree equals fock).
  */
 function modelAtPoint(
   json: Record<string, unknown>,
@@ -343,9 +345,22 @@ function modelAtPoint(
     else {
       const [channel, part] = name.split('.') as [Channel, 'hartree' | 'fock'];
       channels[channel]![part] = value;
+      const unlisted = base.channels[channel] === undefined;
+      if (unlisted && part === 'fock' && !set.has(`${channel}.hartree`)) {
+        channels[channel]!.hartree = value;
+      }
     }
   }
   return out;
+}
+
+/** Whether a plane sets the Hartree part of a channel the model does not list, and no Fock part. */
+function hartreeAlone(json: Record<string, unknown>, names: string[]): boolean {
+  const base = parseModel(json);
+  return names.some((name) => {
+    const [channel, part] = name.split('.') as [Channel, string];
+    return part === 'hartree' && !base.channels[channel] && !names.includes(`${channel}.fock`);
+  });
 }
 
 function expectSameCouplings(actual: Couplings, expected: Couplings, tolerance: number): void {
@@ -364,7 +379,8 @@ function expectSameCouplings(actual: Couplings, expected: Couplings, tolerance: 
 describe('PlaneCouplings', () => {
   test('at(x, y) equals couplingsOf the model with every target set to coefficient * value (200 seeded points)', () => {
     const random = seededRandom(0x91a4e);
-    for (let m = 0; m < 40; m++) {
+    let checked = 0;
+    for (let m = 0; m < 64; m++) {
       const json = randomModelJson(random);
       // Both axes share a target half of the time: their contributions add (plane.ts).
       const shared = pick(TARGET_NAMES, random);
@@ -373,6 +389,12 @@ describe('PlaneCouplings', () => {
         y: { from: 3, to: -3, targets: randomTargets(random, [shared]) },
         resolution: [8, 8],
       };
+      const names = [...Object.keys(plane.x.targets), ...Object.keys(plane.y.targets)];
+      if (hartreeAlone(json, names)) {
+        // As "hartree" alone in a channel, refused with one line naming the target.
+        expect(() => parseMapInput({ ...json, plane })).toThrow(/Hartree part alone/);
+        continue;
+      }
       const planeCouplings = new PlaneCouplings(parseMapInput({ ...json, plane }));
       for (let p = 0; p < 5; p++) {
         const x = 6 * random() - 3;
@@ -387,7 +409,9 @@ describe('PlaneCouplings', () => {
         );
         expectSameCouplings(planeCouplings.at(x, y), expected, 1e-13);
       }
+      checked++;
     }
+    expect(checked).toBeGreaterThanOrEqual(40);
   });
 
   test('on the standard plane, at(-1, 2) is the worked point of public/notes.html#closed-forms (uPerp = -1, uZ = 2, E_Z = 0.4)', () => {
@@ -405,7 +429,7 @@ describe('PlaneCouplings', () => {
   test('a target replaces the model value of that slot, but a oneBody term on the same matrix stays', () => {
     const json = {
       filling: 0,
-      channels: { x0: { hartree: 5, fock: 7 } },
+      channels: { x0: { hartree: 5, fock: 7 }, z0: { hartree: 3, fock: 4 } },
       zeeman: 9,
       oneBody: { '0z': 0.25 },
     };
@@ -417,6 +441,7 @@ describe('PlaneCouplings', () => {
     expect(at.fock[channelIndex('x0')]).toBe(0.5);
     expect(at.hartree[channelIndex('x0')]).toBe(5);
     expect(at.hartree[channelIndex('z0')]).toBeCloseTo(0.1, 15);
+    expect(at.fock[channelIndex('z0')]).toBe(4);
     // E_Z = 2 * 0.5 = 1 replaces 9; eta_0z = 0.25 - E_Z / 2.
     expect(at.eta[channelIndex('0z')]).toBeCloseTo(0.25 - 0.5, 15);
   });

@@ -6,6 +6,7 @@ import {
   magneticLength,
   parseMapInput,
   parseModel,
+  seededRandom,
   solve,
 } from '../solver/index';
 import { DEMO_SETUP } from '../app/scenario/demo';
@@ -79,14 +80,30 @@ describe('physical units in the Setup (public/notes.html#units)', () => {
     expect(scales.mixing).toBeCloseTo(scales.coulombMeV / (scales.landauLevelMeV / Math.SQRT2), 12);
   });
 
-  test('switching units keeps the Map: the energies are read as meV and E_Z stays (to 3 digits of B_perp)', () => {
+  test('switching units keeps the Map: the energies are read as meV and E_Z stays exactly', () => {
     const physical = toPhysicalUnits(DEMO_SETUP);
-    expect(physical.physical?.bPerpTesla).toBe(5.18);
-    expect(Math.abs(physical.zeeman / DEMO_SETUP.zeeman - 1)).toBeLessThan(1e-3);
+    // B_perp = E_Z / (g mu_B) = 0.6 meV / (2 x 0.0578838 meV/T) = 5.182796 T (CODATA 2018 mu_B).
+    expect(physical.physical?.bPerpTesla).toBeCloseTo(5.182796, 5);
+    expect(physical.zeeman).toBe(DEMO_SETUP.zeeman);
     expect(physical.channels).toEqual(DEMO_SETUP.channels);
     const back = toDimensionlessUnits(physical);
     expect(back.physical).toBeUndefined();
-    expect(back.zeeman).toBe(physical.zeeman);
+    expect(back.zeeman).toBe(DEMO_SETUP.zeeman);
+    // Any E_Z within the field's range comes back bit for bit.
+    const random = seededRandom(7);
+    for (let k = 0; k < 500; k++) {
+      const zeeman = 0.002 + 5 * random() ** 3;
+      expect(toPhysicalUnits({ ...DEMO_SETUP, zeeman }).zeeman).toBe(zeeman);
+    }
+  });
+
+  test('E_X in the gap survives a switch of units both ways', () => {
+    const physical = toPhysicalUnits({ ...DEMO_SETUP, exchange: 0.4 });
+    expect(physical.physical?.exchangeInGap).toBe(true);
+    expect(physical.exchange).toBeUndefined();
+    const back = toDimensionlessUnits(physical);
+    expect(back.exchange).toBe(physicalScales(physical.physical!).exchangeMeV);
+    expect(toDimensionlessUnits(toPhysicalUnits(DEMO_SETUP)).exchange).toBeUndefined();
   });
 
   test('round trip through the scenario file, the URL and autosave, and the CLI reads the file', () => {

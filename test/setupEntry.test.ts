@@ -1,4 +1,5 @@
-import { describe, expect, test, vi } from 'vitest';
+import { storedItems } from './memoryStorage';
+import { describe, expect, test } from 'vitest';
 import { DEMO_SETUP } from '../app/scenario/demo';
 import {
   COUPLING_RULE,
@@ -8,22 +9,9 @@ import {
   type EntryRule,
 } from '../app/setup/numberEntry';
 import { commitSetup } from '../app/setup/commitSetup';
-import { sweptTargets } from '../app/setup/sweep';
+import { onePartChannels, sweptTargets } from '../app/setup/sweep';
+import type { Setup } from '../app/scenario/setup';
 import { STORAGE_KEY, useFourfold } from '../app/store/index';
-
-// The store autosaves to localStorage, which Node does not have; this stands in for it before
-// the store module is loaded (vi.hoisted runs ahead of the imports).
-const saved = vi.hoisted(() => {
-  const items = new Map<string, string>();
-  Object.assign(globalThis, {
-    localStorage: {
-      getItem: (key: string) => items.get(key) ?? null,
-      setItem: (key: string, value: string) => void items.set(key, value),
-      removeItem: (key: string) => void items.delete(key),
-    },
-  });
-  return items;
-});
 
 const SIDE_RULE: EntryRule = { min: 2, max: 1024, integer: true, tooLarge: 'too many' };
 
@@ -79,18 +67,26 @@ describe('swept targets', () => {
   });
 
   test('a target both axes set is reported as swept along both', () => {
-    const swept = sweptTargets({
+    const setup: Setup = {
+      ...DEMO_SETUP,
       x: { quantity: 'zeeman', from: 0, to: 1, hartreeRatio: 1 },
       y: {
         quantity: 'custom',
         from: 0,
         to: 1,
         hartreeRatio: 1,
-        targets: { zeeman: 0.5, 'zz.fock': 1 },
+        targets: { zeeman: 0.5, 'zz.fock': 1, 'xx.fock': 2 },
       },
-    });
+      channels: { ...DEMO_SETUP.channels, xx: { hartree: 0.3, fock: 0.1 } },
+    };
+    const swept = sweptTargets(setup);
     expect(swept.get('zeeman')).toBe('x and y');
     expect(swept.get('zz.fock')).toBe('y');
+    // zz is not listed: its Hartree part follows the axis (missing hartree = fock); xx is
+    // listed and keeps its own.
+    expect(swept.get('zz.hartree')).toBe('y');
+    expect(swept.has('xx.hartree')).toBe(false);
+    expect(onePartChannels(setup)).toEqual(new Set(['zz', 'xx']));
   });
 });
 
@@ -112,7 +108,7 @@ describe('commitSetup', () => {
     expect(useFourfold.getState().setup).toBe(before);
 
     // The autosave holds the last valid setup, as a scenario document.
-    const stored = JSON.parse(saved.get(STORAGE_KEY)!) as {
+    const stored = JSON.parse(storedItems.get(STORAGE_KEY)!) as {
       state: { setup: { zeeman: number } };
     };
     expect(stored.state.setup.zeeman).toBe(1.25);

@@ -2,9 +2,12 @@ import type { ChangeEvent } from 'react';
 import { ModelError, QUOTED_PATH_LENGTH, errorLine, quoteInput } from '../../solver/index';
 import { useFourfold } from '../store/index';
 import { DEMO_SETUP } from './demo';
-import { SCENARIO_FILE_MAX_BYTES, downloadScenarioFile, parseScenarioFile } from './scenarioFile';
-import { pinsOfScenarioText } from './scenarioPins';
-import { fitSetupToApp } from './setupCheck';
+import {
+  SCENARIO_FILE_MAX_BYTES,
+  downloadScenarioFile,
+  readScenario,
+  scenarioJson,
+} from './scenarioFile';
 import { scenarioHash } from './urlState';
 import './scenarioBar.css';
 
@@ -27,13 +30,12 @@ async function loadScenarioFile(file: File): Promise<void> {
     return;
   }
   try {
-    const fitted = fitSetupToApp(parseScenarioFile(text, name));
-    const pins = pinsOfScenarioText(text, name);
-    replaceSetup(fitted.setup);
-    if (pins !== null) replacePins(pins);
+    const loaded = readScenario(scenarioJson(text, name), name);
+    replaceSetup(loaded.setup);
+    if (loaded.pins !== null) replacePins(loaded.pins);
     setNotice({
       kind: 'info',
-      text: fitted.note === null ? `Loaded ${name}.` : `Loaded ${name}: ${fitted.note}.`,
+      text: loaded.note === null ? `Loaded ${name}.` : `Loaded ${name}: ${loaded.note}.`,
     });
   } catch (error) {
     if (!(error instanceof ModelError)) throw error;

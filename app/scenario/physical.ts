@@ -118,6 +118,12 @@ export function rangeFockRatio(range: RangeSetup, bPerpTesla: number | null): nu
   return rangeCouplings(range.profile, 2 * Math.PI, aOverL).fock;
 }
 
+/**
+ * Relative difference below which a setup's E_Z counts as the one its field gives: a few units
+ * of rounding of E_Z = g mu_B B_perp / cos(tilt), B_perp = E_Z / (g mu_B) in double precision.
+ */
+const ZEEMAN_ROUNDING = 8 * Number.EPSILON;
+
 /** The common couplings a range on their first channel sets (both channels of uPerp). */
 const COMMON_FIRST: Readonly<Record<'uPerp' | 'uZ', Channel>> = { uPerp: 'x0', uZ: 'z0' };
 
@@ -127,7 +133,13 @@ const COMMON_FIRST: Readonly<Record<'uPerp' | 'uZ', Channel>> = { uPerp: 'x0', u
  */
 export function derivedSetup(setup: Setup): Setup {
   let out = setup;
-  if (setup.physical) out = { ...out, zeeman: physicalScales(setup.physical).zeemanMeV };
+  if (setup.physical) {
+    // An E_Z that equals the field's to rounding (the one kept on switching units, or read
+    // back from a file) stays as it is, so that it does not move in the last digits.
+    const zeeman = physicalScales(setup.physical).zeemanMeV;
+    const same = Math.abs(zeeman - setup.zeeman) <= ZEEMAN_ROUNDING * Math.abs(zeeman);
+    if (!same) out = { ...out, zeeman };
+  }
   const ranges = setup.ranges;
   if (ranges && Object.keys(ranges).length > 0) {
     const channels = { ...out.channels };
@@ -164,28 +176,35 @@ export function withPhysical(setup: Setup, physical: PhysicalSetup): Setup {
 
 /**
  * Switches to physical units keeping the Map: the dimensionless energies are read as meV, and
- * B_perp is chosen (3 significant digits) so that E_Z at zero tilt is the current E_Z; ranges
- * keep their H and F (a in l_B becomes nm at that field).
+ * B_perp is chosen so that E_Z at zero tilt is exactly the current E_Z (the field shows it
+ * rounded; the stored value is not); ranges keep their H and F (a in l_B becomes nm at that
+ * field). A dimensionless E_X in the gap stays in the gap, now from the field.
  */
 export function toPhysicalUnits(setup: Setup): Setup {
   if (setup.physical) return setup;
   const perTesla = zeemanEnergyMeV(1, 0, DEFAULT_PHYSICAL.gFactor);
-  const b =
-    setup.zeeman > 0
-      ? Number((setup.zeeman / perTesla).toPrecision(3))
-      : DEFAULT_PHYSICAL.bPerpTesla;
+  const b = setup.zeeman > 0 ? setup.zeeman / perTesla : DEFAULT_PHYSICAL.bPerpTesla;
   const { min, max } = PHYSICAL_RULES.bPerpTesla;
-  const physical = { ...DEFAULT_PHYSICAL, bPerpTesla: Math.min(max, Math.max(min, b)) };
+  const physical = {
+    ...DEFAULT_PHYSICAL,
+    bPerpTesla: Math.min(max, Math.max(min, b)),
+    exchangeInGap: setup.exchange !== undefined,
+  };
   const lNm = magneticLength(physical.bPerpTesla) * 1e9;
   const ranges = mapRanges(setup.ranges, (r) => ({
     ...r,
     strength: r.strength / physical.bPerpTesla,
     range: r.range * lNm,
   }));
-  return derivedSetup({ ...setup, physical, ...(ranges ? { ranges } : {}) });
+  const rest: Setup = { ...setup };
+  delete (rest as { exchange?: number }).exchange;
+  return derivedSetup({ ...rest, physical, ...(ranges ? { ranges } : {}) });
 }
 
-/** Back to dimensionless units: the meV values become the dimensionless numbers, unchanged. */
+/**
+ * Back to dimensionless units: the meV values become the dimensionless numbers, unchanged (E_X
+ * in the gap too).
+ */
 export function toDimensionlessUnits(setup: Setup): Setup {
   const physical = setup.physical;
   if (!physical) return setup;
@@ -198,7 +217,12 @@ export function toDimensionlessUnits(setup: Setup): Setup {
   const rest: Setup = { ...setup };
   delete (rest as { physical?: PhysicalSetup }).physical;
   delete (rest as { ranges?: Setup['ranges'] }).ranges;
-  return derivedSetup({ ...rest, ...(ranges ? { ranges } : {}) });
+  const exchange = physical.exchangeInGap ? physicalScales(physical).exchangeMeV : undefined;
+  return derivedSetup({
+    ...rest,
+    ...(ranges ? { ranges } : {}),
+    ...(exchange !== undefined ? { exchange } : {}),
+  });
 }
 
 function mapRanges(

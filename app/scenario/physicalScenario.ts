@@ -18,7 +18,8 @@ import type { PhysicalSetup, RangeSetup, Setup } from './setup';
 /**
  * The scenario document's extra fields for physical units and interaction ranges. The model
  * itself stays the CLI's model file in meV (what `npm run map` solves); the sample's units
- * and ranges ride along in the accepted `fourfold` field, and E_X in the model's `exchange`.
+ * and ranges ride along in the accepted `fourfold` field (E_X, when the gap includes it, is the
+ * model's `exchange`, written by `setupToScenario`).
  *
  *   "exchange": 12.3,                       (only when the gap includes E_X)
  *   "fourfold": {
@@ -30,12 +31,7 @@ import type { PhysicalSetup, RangeSetup, Setup } from './setup';
 export function physicalToScenario(setup: Setup): Record<string, unknown> {
   const extra: Record<string, unknown> = {};
   const fourfold: Record<string, unknown> = {};
-  if (setup.physical) {
-    fourfold.physical = { ...setup.physical };
-    if (setup.physical.exchangeInGap) {
-      extra.exchange = physicalScales(setup.physical).exchangeMeV;
-    }
-  }
+  if (setup.physical) fourfold.physical = { ...setup.physical };
   if (setup.ranges && Object.keys(setup.ranges).length > 0) {
     const ranges: Record<string, RangeSetup> = {};
     for (const ch of CHANNELS) {
@@ -122,6 +118,11 @@ export function physicalFromScenario(
     if (physical.exchangeInGap && (exchange === undefined || !agrees(exchange, expected))) {
       throw new ModelError(
         `exchange: expected E_X = ${expected} meV from fourfold.physical (exchangeInGap), got ${exchange ?? 'none'}; ${EDIT_ONE}`,
+      );
+    }
+    if (!physical.exchangeInGap && exchange !== undefined) {
+      throw new ModelError(
+        `exchange: ${exchange} while fourfold.physical.exchangeInGap is false; ${EDIT_ONE}`,
       );
     }
   }

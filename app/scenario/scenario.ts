@@ -1,12 +1,12 @@
 import {
   CHANNELS,
   ModelError,
-  channelIndex,
   isPlainObject,
   parseMapInput,
   type Channel,
   type MapInput,
 } from '../../solver/index';
+import { physicalScales } from './physical';
 import { physicalFromScenario, physicalToScenario } from './physicalScenario';
 import { zeroChannels, type AxisQuantity, type AxisSetup, type Setup } from './setup';
 
@@ -50,24 +50,68 @@ function round(v: number): number {
   return Number(v.toPrecision(12));
 }
 
-/** The scenario document of a setup (model with every nonzero channel, plus the plane). */
+/** Whether the scenario lists a channel in `channels`: nonzero, or listed as zero. */
+export function isListed(setup: Pick<Setup, 'channels' | 'listedZero'>, ch: Channel): boolean {
+  const c = setup.channels[ch];
+  return c.hartree !== 0 || c.fock !== 0 || (setup.listedZero ?? []).includes(ch);
+}
+
+/** An axis of the plane as a scenario document holds it (the model file's `plane`). */
+type PlaneAxis = {
+  readonly label: string;
+  readonly from: number;
+  readonly to: number;
+  readonly targets: Readonly<Record<string, number>>;
+};
+
+/** The plane axis a setup's axis writes (the model file's `plane`): label, range and targets. */
+export function planeAxis(axis: AxisSetup, setup: Pick<Setup, 'ratios'>): PlaneAxis {
+  const targets: Record<string, number> = {};
+  for (const [k, v] of Object.entries(axisTargets(axis, setup))) {
+    // A custom axis keeps the file's coefficients exactly; ours are rounded off float noise.
+    targets[k] = axis.quantity === 'custom' ? v : round(v);
+  }
+  return { label: axisLabel(axis), from: axis.from, to: axis.to, targets };
+}
+
+/**
+ * The E_X the scenario writes: from the field in physical units (when the gap includes it),
+ * else the setup's own.
+ */
+function exchangeOf(setup: Setup): number | undefined {
+  if (setup.physical) {
+    return setup.physical.exchangeInGap ? physicalScales(setup.physical).exchangeMeV : undefined;
+  }
+  return setup.exchange;
+}
+
+/** The scenario document of a setup (model with every listed channel, plus the plane). */
 export function setupToScenario(setup: Setup): ScenarioJson {
   const channels: Record<string, { hartree: number; fock: number }> = {};
   for (const ch of CHANNELS) {
     const c = setup.channels[ch];
-    if (c.hartree !== 0 || c.fock !== 0) channels[ch] = { hartree: c.hartree, fock: c.fock };
+    if (isListed(setup, ch)) channels[ch] = { hartree: c.hartree, fock: c.fock };
   }
-  const axis = (a: AxisSetup) => {
-    const targets: Record<string, number> = {};
-    for (const [k, v] of Object.entries(axisTargets(a, setup))) targets[k] = round(v);
-    return { label: axisLabel(a), from: a.from, to: a.to, targets };
-  };
   const document: ScenarioJson = {
+    ...(setup.name !== undefined ? { name: setup.name } : {}),
+    ...(setup.description !== undefined ? { description: setup.description } : {}),
     filling: setup.filling,
     channels,
     zeeman: setup.zeeman,
     valleyZeeman: setup.valleyZeeman,
-    plane: { x: axis(setup.x), y: axis(setup.y), resolution: [...setup.resolution] },
+  };
+  const oneBody = setup.oneBody ?? {};
+  if (Object.keys(oneBody).length > 0) {
+    document.oneBody = Object.fromEntries(
+      CHANNELS.filter((ch) => oneBody[ch] !== undefined).map((ch) => [ch, oneBody[ch]]),
+    );
+  }
+  const exchange = exchangeOf(setup);
+  if (exchange !== undefined) document.exchange = exchange;
+  document.plane = {
+    x: planeAxis(setup.x, setup),
+    y: planeAxis(setup.y, setup),
+    resolution: [...setup.resolution],
   };
   return { ...document, ...physicalToScenario(setup) };
 }
@@ -77,43 +121,45 @@ export function setupToMapInput(setup: Setup): MapInput {
   return parseMapInput(setupToScenario(setup));
 }
 
-function sameTargets(a: Record<string, number>, b: Readonly<Record<string, number>>): boolean {
-  const ka = Object.keys(a).filter((k) => a[k] !== 0);
-  const kb = Object.keys(b).filter((k) => b[k] !== 0);
-  return ka.length === kb.length && ka.every((k) => Math.abs(a[k]! - (b[k] ?? NaN)) < 1e-12);
+function sameAxis(a: PlaneAxis, b: PlaneAxis): boolean {
+  const ka = Object.keys(a.targets);
+  return (
+    a.label === b.label &&
+    a.from === b.from &&
+    a.to === b.to &&
+    ka.length === Object.keys(b.targets).length &&
+    ka.every((k) => a.targets[k] === b.targets[k])
+  );
 }
 
 /**
- * Recognises a model-file axis as one of our quantities (with its Hartree ratio), or keeps
- * it as a custom axis with its own label and targets.
+ * Recognises a plane axis as one of our quantities when that quantity writes back exactly the
+ * same axis (label, range, targets and coefficients), with its Hartree ratio; any other axis
+ * is kept as a custom axis with its own label and targets.
  */
 function axisFromPlane(
-  axis: { label: string; from: number; to: number; targets: Readonly<Record<string, number>> },
+  axis: PlaneAxis,
   ratios: { uPerp: number; uZ: number },
+  other: AxisQuantity | null = null,
 ): { axis: AxisSetup; ratios: { uPerp: number; uZ: number } } {
   const t = axis.targets;
   const base = { from: axis.from, to: axis.to, hartreeRatio: 1 };
-  const only = (keys: string[]) =>
-    Object.keys(t).every((k) => keys.includes(k)) && keys.every((k) => k in t);
-  if (only(['zeeman']) && t.zeeman === 1) return { axis: { ...base, quantity: 'zeeman' }, ratios };
-  if (only(['valleyZeeman']) && t.valleyZeeman === 1)
-    return { axis: { ...base, quantity: 'valleyZeeman' }, ratios };
-  const r = t['x0.hartree'] ?? 0;
-  if (sameTargets(axisTargets({ ...base, quantity: 'uPerp' }, { ratios: { uPerp: r, uZ: 0 } }), t))
-    return { axis: { ...base, quantity: 'uPerp' }, ratios: { ...ratios, uPerp: r } };
-  const rz = t['z0.hartree'] ?? 0;
-  if (sameTargets(axisTargets({ ...base, quantity: 'uZ' }, { ratios: { uPerp: 0, uZ: rz } }), t))
-    return { axis: { ...base, quantity: 'uZ' }, ratios: { ...ratios, uZ: rz } };
-  const keys = Object.keys(t);
-  const ch = keys[0]?.split('.')[0];
-  if (
-    ch !== undefined &&
-    channelIndex(ch) > 0 &&
-    t[`${ch}.fock`] === 1 &&
-    keys.every((k) => k === `${ch}.fock` || k === `${ch}.hartree`)
-  ) {
-    const hartreeRatio = t[`${ch}.hartree`] ?? 0;
-    return { axis: { ...base, quantity: ch as Channel, hartreeRatio }, ratios };
+  const fockKey = Object.keys(t).find((k) => k.endsWith('.fock'));
+  const channel = fockKey?.split('.')[0] as Channel | undefined;
+  const candidates: { axis: AxisSetup; ratios: { uPerp: number; uZ: number } }[] = [
+    { axis: { ...base, quantity: 'zeeman' }, ratios },
+    { axis: { ...base, quantity: 'valleyZeeman' }, ratios },
+    { axis: { ...base, quantity: 'uPerp' }, ratios: { ...ratios, uPerp: t['x0.hartree'] ?? 0 } },
+    { axis: { ...base, quantity: 'uZ' }, ratios: { ...ratios, uZ: t['z0.hartree'] ?? 0 } },
+  ];
+  if (channel !== undefined) {
+    const hartreeRatio = t[`${channel}.hartree`] ?? 0;
+    candidates.push({ axis: { ...base, quantity: channel, hartreeRatio }, ratios });
+  }
+  for (const candidate of candidates) {
+    // u_perp and u_z keep one Hartree ratio each: the other axis cannot be the same one.
+    if (candidate.axis.quantity === other) continue;
+    if (sameAxis(planeAxis(candidate.axis, { ratios: candidate.ratios }), axis)) return candidate;
   }
   return {
     axis: { ...base, quantity: 'custom', label: axis.label, targets: { ...t } },
@@ -122,28 +168,83 @@ function axisFromPlane(
 }
 
 /**
+ * Where two solver inputs differ, as `field: a, b` (null when they are the same). Fields in
+ * `skip` (values the physical units derive and `physicalFromScenario` has checked) are left out.
+ */
+function firstDifference(a: MapInput, b: MapInput, skip: ReadonlySet<string>): string | null {
+  const differ = (field: string, x: unknown, y: unknown): string | null =>
+    skip.has(field) || x === y ? null : `${field}: ${String(x)} in the file, ${String(y)} here`;
+  const checks: (string | null)[] = [
+    differ('filling', a.model.filling, b.model.filling),
+    differ('zeeman', a.model.zeeman, b.model.zeeman),
+    differ('valleyZeeman', a.model.valleyZeeman, b.model.valleyZeeman),
+    differ('exchange', a.model.exchange, b.model.exchange),
+  ];
+  for (const ch of CHANNELS) {
+    const ca = a.model.channels[ch];
+    const cb = b.model.channels[ch];
+    checks.push(
+      differ(`channels.${ch}`, ca === undefined, cb === undefined),
+      differ(`channels.${ch}.hartree`, ca?.hartree, cb?.hartree),
+      differ(`channels.${ch}.fock`, ca?.fock, cb?.fock),
+      differ(`oneBody.${ch}`, a.model.oneBody[ch], b.model.oneBody[ch]),
+    );
+  }
+  for (const which of ['x', 'y'] as const) {
+    const pa = a.plane[which];
+    const pb = b.plane[which];
+    checks.push(
+      differ(`plane.${which}.label`, pa.label, pb.label),
+      differ(`plane.${which}.from`, pa.from, pb.from),
+      differ(`plane.${which}.to`, pa.to, pb.to),
+    );
+    for (const k of new Set([...Object.keys(pa.targets), ...Object.keys(pb.targets)])) {
+      checks.push(differ(`plane.${which}.targets.${k}`, pa.targets[k], pb.targets[k]));
+    }
+  }
+  checks.push(
+    differ('plane.resolution[0]', a.plane.resolution[0], b.plane.resolution[0]),
+    differ('plane.resolution[1]', a.plane.resolution[1], b.plane.resolution[1]),
+  );
+  return checks.find((c) => c !== null) ?? null;
+}
+
+function optionalText(json: Record<string, unknown>, field: 'name' | 'description') {
+  const value = json[field];
+  if (value === undefined) return {};
+  if (typeof value !== 'string') throw new ModelError(`${field}: expected a string`);
+  return { [field]: value };
+}
+
+/**
  * A setup from a scenario document (a model file with a plane). Validates it fully first and
- * throws ModelError with a one-line message naming the field; returns nothing partial.
+ * throws ModelError with a one-line message naming the field; returns nothing partial. The
+ * setup writes back the same model and plane (`setupToScenario`); a document it could not hold
+ * as it is would be refused, naming the field, rather than changed.
  */
 export function scenarioToSetup(json: unknown): Setup {
   if (!isPlainObject(json)) throw new ModelError('scenario: expected a JSON object');
   if (json.plane === undefined) throw new ModelError('plane: missing (a scenario needs a plane)');
   const input = parseMapInput(json);
   const { model, plane } = input;
-  if (Object.keys(model.oneBody).length > 0)
-    throw new ModelError('oneBody: extra one-body terms are not supported in the app yet');
   const channels = zeroChannels();
+  const listedZero: Channel[] = [];
   for (const ch of CHANNELS) {
     const c = model.channels[ch];
-    if (c) channels[ch] = { hartree: c.hartree, fock: c.fock };
+    if (!c) continue;
+    channels[ch] = { hartree: c.hartree, fock: c.fock };
+    if (c.hartree === 0 && c.fock === 0) listedZero.push(ch);
   }
   const ratio = (c: { hartree: number; fock: number }) => (c.fock !== 0 ? c.hartree / c.fock : 1);
   let ratios = { uPerp: ratio(channels.x0), uZ: ratio(channels.z0) };
   const x = axisFromPlane(plane.x, ratios);
   ratios = x.ratios;
-  const y = axisFromPlane(plane.y, ratios);
+  const y = axisFromPlane(plane.y, ratios, x.axis.quantity);
   ratios = y.ratios;
+  const physical = isPlainObject(json.fourfold) && json.fourfold.physical !== undefined;
   const setup: Setup = {
+    ...optionalText(json, 'name'),
+    ...optionalText(json, 'description'),
     filling: model.filling,
     channels,
     zeeman: model.zeeman,
@@ -152,6 +253,20 @@ export function scenarioToSetup(json: unknown): Setup {
     x: x.axis,
     y: y.axis,
     resolution: [plane.resolution[0], plane.resolution[1]],
+    ...(listedZero.length > 0 ? { listedZero } : {}),
+    ...(Object.keys(model.oneBody).length > 0 ? { oneBody: { ...model.oneBody } } : {}),
+    ...(model.exchange !== undefined && !physical ? { exchange: model.exchange } : {}),
   };
-  return physicalFromScenario(json, setup, model.exchange);
+  const out = physicalFromScenario(json, setup, model.exchange);
+  // What the physical units derive (checked against the file there) is not compared again.
+  const skip = new Set<string>();
+  if (out.physical) skip.add('zeeman').add('exchange');
+  for (const ch of Object.keys(out.ranges ?? {})) {
+    skip.add(`channels.${ch}.hartree`).add(`channels.${ch}.fock`);
+  }
+  const difference = firstDifference(input, setupToMapInput(out), skip);
+  if (difference !== null) {
+    throw new ModelError(`${difference}; the app cannot hold this scenario as it is`);
+  }
+  return out;
 }

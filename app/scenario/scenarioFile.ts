@@ -3,7 +3,8 @@ import { scenarioToSetup, setupToScenario } from './scenario';
 import type { Setup } from './setup';
 import { downloadText } from '../download';
 import type { Pin } from '../store/probeSlice';
-import { withPins } from './scenarioPins';
+import { pinsOfScenario, withPins } from './scenarioPins';
+import { fitSetupToApp } from './setupCheck';
 
 export const SCENARIO_FILE_NAME = 'fourfold-scenario.json';
 
@@ -22,24 +23,53 @@ export function scenarioFileText(setup: Setup, pins: readonly Pin[] = []): strin
   return `${JSON.stringify(document, null, 2)}\n`;
 }
 
-/**
- * The setup of a scenario document's text (a file's, or a link's once decoded). Throws
- * ModelError with one line that starts with `source` (the file name, or "link") and names the
- * problem: bad JSON, or the field that fails validation.
- */
-export function parseScenarioFile(text: string, source: string): Setup {
-  let json: unknown;
+/** The JSON of a scenario's text; ModelError "source: not valid JSON (...)" when it is not. */
+export function scenarioJson(text: string, source: string): unknown {
   try {
-    json = JSON.parse(text);
+    return JSON.parse(text);
   } catch (error) {
     throw new ModelError(`${source}: not valid JSON (${errorLine(error)})`);
   }
+}
+
+/** The setup of a scenario document; ModelError with one line that starts with `source`. */
+function setupOf(json: unknown, source: string): Setup {
   try {
     return scenarioToSetup(json);
   } catch (error) {
     if (error instanceof ModelError) throw new ModelError(`${source}: ${error.message}`);
     throw error;
   }
+}
+
+/**
+ * The setup of a scenario document's text (a file's, or a link's once decoded). Throws
+ * ModelError with one line that starts with `source` (the file name, or "link") and names the
+ * problem: bad JSON, or the field that fails validation.
+ */
+export function parseScenarioFile(text: string, source: string): Setup {
+  return setupOf(scenarioJson(text, source), source);
+}
+
+/** A scenario as the app takes it in: the setup fitted to the browser, the pins, and a note. */
+export interface LoadedScenario {
+  readonly setup: Setup;
+  /** The Probe pins it carries (null when none). */
+  readonly pins: Pin[] | null;
+  /** What was changed to fit the browser (the grid), or null. */
+  readonly note: string | null;
+}
+
+/**
+ * The one way a scenario document comes in, from a file, the link or the autosave: validated
+ * in full (setup and pins; ModelError with one line starting with `source` when it is not
+ * valid, nothing partial), then fitted to the browser (`fitSetupToApp`).
+ */
+export function readScenario(json: unknown, source: string): LoadedScenario {
+  const setup = setupOf(json, source);
+  const pins = pinsOfScenario(json, source);
+  const fitted = fitSetupToApp(setup);
+  return { setup: fitted.setup, pins, note: fitted.note };
 }
 
 /** Starts the browser download of the scenario file. */

@@ -28,6 +28,11 @@ export function pinsOfScenarioText(text: string, source: string): Pin[] | null {
   } catch {
     throw new ModelError(`${source}: not valid JSON`);
   }
+  return pinsOfScenario(json, source);
+}
+
+/** The pins of a scenario document, as `pinsOfScenarioText`. */
+export function pinsOfScenario(json: unknown, source: string): Pin[] | null {
   if (!isPlainObject(json) || !isPlainObject(json.fourfold) || json.fourfold.pins === undefined) {
     return null;
   }

@@ -75,6 +75,23 @@ export interface Setup {
   readonly physical?: PhysicalSetup;
   /** Channels whose H and F come from an interaction range (their `channels` entry is derived). */
   readonly ranges?: Readonly<Partial<Record<Channel, RangeSetup>>>;
+  /**
+   * Channels listed in the model's `channels` although both parts are zero. A channel is listed
+   * when it is nonzero or named here; that matters only where an axis sets one part of it:
+   * listed, the other part stays at its value; not listed, it follows the axis (the rule of
+   * `planeTargets` in the solver).
+   */
+  readonly listedZero?: readonly Channel[];
+  /** Extra one-body terms sum c_ab G_ab (the model file's `oneBody`), as loaded. */
+  readonly oneBody?: Readonly<Partial<Record<Channel, number>>>;
+  /**
+   * E_X added to the quasiparticle gap (the model file's `exchange`) in dimensionless units; in
+   * physical units `physical.exchangeInGap` decides and E_X follows from the field.
+   */
+  readonly exchange?: number;
+  /** The model file's `name` and `description`, kept as loaded. */
+  readonly name?: string;
+  readonly description?: string;
 }
 
 export function zeroChannels(): Record<Channel, ChannelSetup> {

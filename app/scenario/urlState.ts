@@ -1,8 +1,8 @@
 import { ModelError } from '../../solver/index';
 import { setupToScenario } from './scenario';
-import { parseScenarioFile } from './scenarioFile';
+import { readScenario, scenarioJson, type LoadedScenario } from './scenarioFile';
 import type { Pin } from '../store/probeSlice';
-import { pinsOfScenarioText, withPins } from './scenarioPins';
+import { withPins } from './scenarioPins';
 import type { Setup } from './setup';
 
 /** The hash parameter that holds the scenario: `#s=<base64url of the compact JSON>`. */
@@ -56,11 +56,14 @@ export function readScenarioHash(hash: string): Setup | null {
   return readScenarioLink(hash)?.setup ?? null;
 }
 
-/** The setup and the Probe pins (null when the link has none) of a location hash. */
-export function readScenarioLink(hash: string): { setup: Setup; pins: Pin[] | null } | null {
+/**
+ * The scenario of a location hash as the app takes it in (`readScenario`: the setup fitted to
+ * the browser, the Probe pins, a note), or null when the hash holds none.
+ */
+export function readScenarioLink(hash: string): LoadedScenario | null {
   const code = hashParams(hash).get(SCENARIO_HASH_KEY);
   if (code === null) return null;
   if (code === '') throw new ModelError(`${LINK}: empty; the link holds no scenario`);
   const text = decodeBase64Url(code, LINK);
-  return { setup: parseScenarioFile(text, LINK), pins: pinsOfScenarioText(text, LINK) };
+  return readScenario(scenarioJson(text, LINK), LINK);
 }

@@ -4,6 +4,7 @@ import { ChannelTable } from './ChannelTable';
 import { CommonCouplings } from './CommonCouplings';
 import { FieldSliders } from './FieldSlider';
 import { FillingField } from './FillingField';
+import { LoadedTerms } from './LoadedTerms';
 import { PlaneFields } from './PlaneFields';
 import { ProblemReport } from './problemReport';
 import { RangeFields } from './RangeFields';
@@ -42,6 +43,7 @@ export function SetupPanel() {
         <CommonCouplings />
         <RangeFields />
         <ChannelTable />
+        <LoadedTerms />
         <PlaneFields />
       </form>
     </ProblemReport.Provider>

@@ -1,6 +1,7 @@
 import type { Channel } from '../../solver/index';
-import { axisTargets } from '../scenario/scenario';
+import { axisTargets, isListed } from '../scenario/scenario';
 import type { Setup } from '../scenario/setup';
+import { onePartChannels } from './sweep';
 
 /**
  * The value every target of the plane takes at the point (x, y): coefficient * t, summed over
@@ -32,10 +33,14 @@ export function sampleAt(
 ): Pick<Setup, 'channels' | 'valleyZeeman'> {
   const channels = { ...setup.channels };
   let valleyZeeman = setup.valleyZeeman;
+  const onePart = onePartChannels(setup);
   for (const [target, value] of targetValuesAt(setup, x, y)) {
     if (target === 'valleyZeeman') valleyZeeman = value;
     else if (target !== 'zeeman') {
       const [ch, part] = target.split('.') as [Channel, 'fock' | 'hartree'];
+      // Giving a channel that is not listed a value would list it, and so change what its
+      // other part does across the Map (`Setup.listedZero`): it keeps its zero.
+      if (onePart.has(ch) && !isListed(setup, ch)) continue;
       channels[ch] = { ...channels[ch], [part]: value };
     }
   }

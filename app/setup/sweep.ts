@@ -1,5 +1,6 @@
 import { useMemo } from 'react';
-import { axisTargets } from '../scenario/scenario';
+import { planeTargets, type Channel } from '../../solver/index';
+import { axisTargets, setupToMapInput } from '../scenario/scenario';
 import type { AxisSetup, Setup } from '../scenario/setup';
 import { useFourfold } from '../store/index';
 
@@ -11,21 +12,44 @@ export function axisTargetNames(axis: AxisSetup): string[] {
 }
 
 /**
- * Which axis sets each swept target. A swept target's value in the Setup is not used: the axis
- * replaces it across the plane (the model file's plane, as `npm run map` reads it).
+ * Which axis sets each swept target, with the solver's rule for a channel of which an axis
+ * sets one part (`planeTargets`: the Hartree part of a channel that is not listed follows its
+ * Fock target). A swept target's value in the Setup is not used: the axis replaces it across
+ * the plane (the model file's plane, as `npm run map` reads it).
  */
-export function sweptTargets(
-  setup: Pick<Setup, 'x' | 'y'>,
-): ReadonlyMap<string, AxisName | 'x and y'> {
+export function sweptTargets(setup: Setup): ReadonlyMap<string, AxisName | 'x and y'> {
+  const targets = planeTargets(setupToMapInput(setup));
   const out = new Map<string, AxisName | 'x and y'>();
-  for (const name of axisTargetNames(setup.x)) out.set(name, 'x');
-  for (const name of axisTargetNames(setup.y)) out.set(name, out.has(name) ? 'x and y' : 'y');
+  for (const name of Object.keys(targets.x)) out.set(name, 'x');
+  for (const name of Object.keys(targets.y)) out.set(name, out.has(name) ? 'x and y' : 'y');
+  return out;
+}
+
+/**
+ * Channels of which the axes name only one part: whether the channel is listed decides what
+ * the other part does there (see `Setup.listedZero`).
+ */
+export function onePartChannels(setup: Pick<Setup, 'x' | 'y'>): Set<Channel> {
+  const named = new Set([...axisTargetNames(setup.x), ...axisTargetNames(setup.y)]);
+  const out = new Set<Channel>();
+  for (const name of named) {
+    const [channel, part] = name.split('.');
+    if (part === undefined) continue;
+    const other = part === 'fock' ? 'hartree' : 'fock';
+    if (!named.has(`${channel}.${other}`)) out.add(channel as Channel);
+  }
   return out;
 }
 
 /** The swept targets of the current plane. */
 export function useSweptTargets(): ReadonlyMap<string, AxisName | 'x and y'> {
+  // Only the axes and which channels are listed matter: a field slider does not recompute it.
   const x = useFourfold((s) => s.setup.x);
   const y = useFourfold((s) => s.setup.y);
-  return useMemo(() => sweptTargets({ x, y }), [x, y]);
+  const channels = useFourfold((s) => s.setup.channels);
+  const listedZero = useFourfold((s) => s.setup.listedZero);
+  return useMemo(
+    () => sweptTargets({ ...useFourfold.getState().setup, x, y, channels, listedZero }),
+    [x, y, channels, listedZero],
+  );
 }

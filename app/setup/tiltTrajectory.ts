@@ -75,9 +75,9 @@ function sampleInPlane(setup: Setup, xs: number, ys: number): boolean {
  *   cos(current). In coordinates scaled by E_Z (u / E_Z) this is the ray u cos(theta) / E_Z(0)
  *   towards the origin; on the map's absolute axes it is the same ray times E_Z(current), and
  *   it passes through the sample's own point at the current tilt. That holds exactly only when
- *   everything the axes do not set scales along, i.e. Delta_V and the couplings off the axes are
- *   zero; otherwise `exact` is false and the path is a guide (the map keeps them fixed while the
- *   rescaled sample's shrink by cos(theta) / cos(current)).
+ *   everything the axes do not set scales along, i.e. Delta_V, the couplings off the axes and
+ *   any extra one-body terms are zero; otherwise `exact` is false and the path is a guide (the
+ *   map keeps them fixed while the rescaled sample's shrink by cos(theta) / cos(current)).
  *
  * Either path is exact only if the sample lies in the plane at all (`sampleInPlane`).
  */
@@ -116,7 +116,9 @@ export function tiltTrajectory(setup: Setup, samples = 48): TiltTrajectory | nul
     const off = !onAxes.has(`${ch}.fock`) || !onAxes.has(`${ch}.hartree`);
     return off && (c.hartree !== 0 || c.fock !== 0);
   });
-  const substrate = !onAxes.has('valleyZeeman') && setup.valleyZeeman !== 0;
+  const substrate =
+    (!onAxes.has('valleyZeeman') && setup.valleyZeeman !== 0) ||
+    Object.values(setup.oneBody ?? {}).some((c) => c !== 0);
   return {
     points: tilts.map(at),
     tilts,

@@ -67,24 +67,3 @@ export const createProbeSlice: StateCreator<FourfoldState, [], [], ProbeSlice> =
         : {},
     ),
 });
-
-/** Pins read back from storage: anything malformed is dropped. */
-export function pinsFromJson(json: unknown): Pin[] {
-  if (!Array.isArray(json)) return [];
-  const pins: Pin[] = [];
-  for (const p of json as unknown[]) {
-    if (p === null || typeof p !== 'object') continue;
-    const { id, x, y } = p as Record<string, unknown>;
-    if (
-      typeof id === 'number' &&
-      Number.isInteger(id) &&
-      typeof x === 'number' &&
-      Number.isFinite(x) &&
-      typeof y === 'number' &&
-      Number.isFinite(y)
-    ) {
-      pins.push({ id, x, y });
-    }
-  }
-  return pins.slice(-MAX_PINS);
-}
