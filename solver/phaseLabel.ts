@@ -11,7 +11,7 @@ export const ORDER_TOLERANCE = 1e-6;
 export const TOKEN_MEANINGS: Readonly<Record<string, string>> = {
   F: 'ferromagnet: spin moment (along the field when there is one)',
   Fxy: 'spin moment in the plane perpendicular to the field',
-  AF: 'antiferromagnet: Neel order along the field (any direction without a field)',
+  AF: 'antiferromagnet: Neel order along the field',
   CAF: 'canted antiferromagnet: Neel order perpendicular to the field',
   CDW: 'charge density wave: sublattice (valley) imbalance',
   KD: 'Kekule distortion: bond order, intervalley coherence',
