@@ -5,6 +5,7 @@ import { DEFAULT_DESCENT, descend } from './localMinimise';
 import { DescentWorkspace } from './tangentSpace';
 import { DEFAULT_MINIMISE, type MinimiseOptions } from './minimise';
 import { searchGroundState } from './groundSearch';
+import { describeDegeneracy, type Degeneracy } from './degeneracy';
 import type { Model } from './model';
 import { canonicaliseOrbit } from './orbitGauge';
 import { groupMagnitudes } from './orderParameters';
@@ -51,13 +52,20 @@ export interface SolveResult {
   readonly commutator: number;
   /** Distinct local minima met in the search, lowest first (the ground state is the first). */
   readonly minima: { energy: number; phase: string }[];
+  /**
+   * The family of states the model leaves degenerate with this one (to 1e-9 of the scale), and
+   * how this member was chosen; undefined when there is none beyond rotations about the field
+   * and about tau_z.
+   */
+  readonly degenerate: Degeneracy | undefined;
 }
 
 /** Solves one model: global minimum, then every derived quantity. */
 export function solve(model: Model, options: MinimiseOptions = DEFAULT_MINIMISE): SolveResult {
   const c = couplingsOf(model);
   const search = searchGroundState(c, options);
-  return describeState(model, c, search.frame, search.minima);
+  const result = describeState(model, c, search.frame, search.minima);
+  return { ...result, degenerate: describeDegeneracy(c, result.frame, search.selection) };
 }
 
 /**
@@ -126,6 +134,7 @@ export function describeState(
     gradient: polish.gradient,
     commutator,
     minima: competitors,
+    degenerate: undefined,
   };
 }
 

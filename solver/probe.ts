@@ -4,6 +4,7 @@ import { brokenSymmetries, type GaplessMode } from './goldstoneModes';
 import { describeState, type SolveResult } from './groundState';
 import { DEFAULT_MINIMISE, type MinimiseOptions } from './minimise';
 import { searchGroundState } from './groundSearch';
+import { describeDegeneracy } from './degeneracy';
 import type { Model } from './model';
 import { groupMagnitudes, sublatticeSpins } from './orderParameters';
 import { ORDER_TOLERANCE, phaseLabel } from './phaseLabel';
@@ -322,7 +323,11 @@ export function probeModel(model: Model, options: MinimiseOptions = DEFAULT_MINI
     ...search.minima.filter((m) => m.converged),
     ...localMinima(c).filter((m) => m.energy >= search.energy - 1e-9 * c.scale),
   ];
-  const result = describeState(model, c, search.frame, search.minima);
+  const described = describeState(model, c, search.frame, search.minima);
+  const result = {
+    ...described,
+    degenerate: describeDegeneracy(c, described.frame, search.selection),
+  };
   return probeOfResult(result, [
     ...minima.map((m) => ({ frame: m.frame, energy: m.energy, unstable: 0 })),
     ...saddlePoints(c),

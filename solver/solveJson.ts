@@ -1,4 +1,5 @@
 import { CHANNELS } from './channels';
+import type { Degeneracy } from './degeneracy';
 import type { SolveResult } from './groundState';
 import { modelToJson } from './model';
 import { ORDER_GROUPS, orderAngles, sublatticeSpins } from './orderParameters';
@@ -20,6 +21,8 @@ export interface SolveJson {
   aufbau: boolean;
   spinors: { re: number[]; im: number[] }[];
   minima: { energy: number; phase: string }[];
+  /** The degenerate family of the ground state, or null (see `SolveResult.degenerate`). */
+  degenerate: Degeneracy | null;
   residual: { gradient: number; commutator: number };
   model: Record<string, unknown>;
   version: string;
@@ -70,6 +73,7 @@ export function solveResultToJson(r: SolveResult): SolveJson {
     aufbau: r.aufbau,
     spinors,
     minima: r.minima,
+    degenerate: r.degenerate ?? null,
     residual: { gradient: r.gradient, commutator: r.commutator },
     model: modelToJson(r.model),
     version: SOFTWARE_VERSION,

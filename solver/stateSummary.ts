@@ -10,6 +10,8 @@ export class PixelScratch {
   readonly hamiltonian = new Float64Array(32);
   readonly values = new Float64Array(4);
   readonly vectors = new Float64Array(32);
+  readonly block = new Float64Array(32);
+  readonly eigenvectors = new Float64Array(32);
 }
 
 /**
@@ -27,30 +29,78 @@ export function summarise(
   let energy = c.c0 + c.eta[0]! * nf;
   for (let k = 1; k < 16; k++)
     energy += s.order[k]! * (c.eta[k]! + 0.5 * c.kappa[k]! * s.order[k]!);
-  hartreeFockOfOrder(c, s.order, s.hamiltonian);
-  hermitianEigen4(s.hamiltonian, s.values, s.vectors);
-  // Classify eigenvectors as occupied (v^dagger P v near 1) or empty.
-  let highestOccupied = -Infinity;
-  let lowestEmpty = Infinity;
-  for (let k = 0; k < 4; k++) {
-    let weight = 0;
-    for (let r = 0; r < 4; r++) {
-      for (let col = 0; col < 4; col++) {
-        const vr = s.vectors[8 * k + 2 * r]!;
-        const vi = s.vectors[8 * k + 2 * r + 1]!;
-        const wr = s.vectors[8 * k + 2 * col]!;
-        const wi = s.vectors[8 * k + 2 * col + 1]!;
-        const pr = s.projector[2 * (4 * r + col)]!;
-        const pi = s.projector[2 * (4 * r + col) + 1]!;
-        // conj(v_r) P_rc w_c, real part
-        const ar = vr * pr + vi * pi;
-        const ai = vr * pi - vi * pr;
-        weight += ar * wr - ai * wi;
-      }
-    }
-    if (weight > 0.5) highestOccupied = Math.max(highestOccupied, s.values[k]!);
-    else lowestEmpty = Math.min(lowestEmpty, s.values[k]!);
-  }
-  const gap = lowestEmpty - highestOccupied + c.exchange;
+  hartreeFockOfOrder(c, s.order, s.hamiltonian, false);
+  const gap = fermiGap(frame, nf, s) + c.exchange;
   return { energy, gap, label: phaseLabel(s.order, c) };
+}
+
+/**
+ * Lowest empty minus highest occupied Hartree-Fock level of a frame (H_HF in `s.hamiltonian`):
+ * the eigenvalues of H_HF inside the occupied and inside the empty subspace, which at a
+ * self-consistent state are its levels. Two levels degenerate at the Fermi level give 0 (not a
+ * failed occupied/empty assignment).
+ */
+export function fermiGap(frame: Float64Array, nf: number, s: PixelScratch): number {
+  const m = s.vectors;
+  // M = U^dagger H U (all four frame vectors).
+  const hu = s.projector;
+  for (let b = 0; b < 4; b++) {
+    for (let r = 0; r < 4; r++) {
+      let re = 0;
+      let im = 0;
+      for (let col = 0; col < 4; col++) {
+        const hr = s.hamiltonian[2 * (4 * r + col)]!;
+        const hi = s.hamiltonian[2 * (4 * r + col) + 1]!;
+        const ur = frame[8 * b + 2 * col]!;
+        const ui = frame[8 * b + 2 * col + 1]!;
+        re += hr * ur - hi * ui;
+        im += hr * ui + hi * ur;
+      }
+      hu[8 * b + 2 * r] = re;
+      hu[8 * b + 2 * r + 1] = im;
+    }
+  }
+  let size = 0;
+  for (let a = 0; a < 4; a++) {
+    for (let b = 0; b < 4; b++) {
+      let re = 0;
+      let im = 0;
+      for (let r = 0; r < 4; r++) {
+        const ar = frame[8 * a + 2 * r]!;
+        const ai = frame[8 * a + 2 * r + 1]!;
+        const br = hu[8 * b + 2 * r]!;
+        const bi = hu[8 * b + 2 * r + 1]!;
+        re += ar * br + ai * bi;
+        im += ar * bi - ai * br;
+      }
+      m[2 * (4 * a + b)] = re;
+      m[2 * (4 * a + b) + 1] = im;
+      size = Math.max(size, Math.abs(re), Math.abs(im));
+    }
+  }
+  const pad = 10 * size + 1;
+  // Occupied block padded far below: its levels are the top nf eigenvalues.
+  const block = s.block;
+  block.fill(0);
+  for (let a = 0; a < 4; a++) {
+    for (let b = 0; b < 4; b++) {
+      const inside = a < nf && b < nf;
+      block[2 * (4 * a + b)] = inside ? m[2 * (4 * a + b)]! : 0;
+      block[2 * (4 * a + b) + 1] = inside ? m[2 * (4 * a + b) + 1]! : 0;
+    }
+    if (a >= nf) block[10 * a] = -pad;
+  }
+  hermitianEigen4(block, s.values, s.eigenvectors);
+  const highestOccupied = s.values[3]!;
+  block.fill(0);
+  for (let a = 0; a < 4; a++) {
+    for (let b = 0; b < 4; b++) {
+      const inside = a >= nf && b >= nf;
+      block[2 * (4 * a + b)] = inside ? m[2 * (4 * a + b)]! : 0;
+      block[2 * (4 * a + b) + 1] = inside ? m[2 * (4 * a + b) + 1]! : 0;
+    }
+    if (a < nf) block[10 * a] = pad;
+  }
+  hermitianEigen4(block, s.values, s.eigenvectors);
+  return s.values[0]! - highestOccupied;
 }
