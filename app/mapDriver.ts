@@ -109,6 +109,10 @@ export function startMapDriver(mode: MapMode = 'staged'): () => void {
           awaitingCoarse = false;
           flush();
         },
+        boundaries: (grid, boundaries) => {
+          if (job !== scheduler?.current || !coarseShown) return;
+          bump({ grid, boundaries }, true);
+        },
         done: (grid, boundaries) => {
           if (job !== scheduler?.current) return;
           const ms = performance.now() - changedAt;

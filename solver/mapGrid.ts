@@ -47,6 +47,8 @@ export class MapGrid {
   readonly nodeFrames: Float64Array;
   readonly nodeLabels: string[];
   private nodesPlaced = 0;
+  /** Pixels that failed the certificate and got a full search (see `solveCells`). */
+  searched = 0;
 
   constructor(public input: MapInput) {
     const [nx, ny] = input.plane.resolution;
@@ -84,6 +86,7 @@ export class MapGrid {
     this.labels.fill('');
     this.nodeLabels.fill('');
     this.nodesPlaced = 0;
+    this.searched = 0;
   }
 
   get nodeCount(): number {
@@ -176,14 +179,22 @@ export class MapGrid {
     };
   }
 
-  placePixels(block: PixelBlock): void {
+  /**
+   * Stores the pixels of a block; returns whether any of them changed its label from what the
+   * grid showed there before (a preview or an earlier result).
+   */
+  placePixels(block: PixelBlock): boolean {
+    let changed = false;
     for (let r = 0; r < block.height; r++) {
       for (let c = 0; c < block.width; c++) {
         const n = r * block.width + c;
         const p = (block.j0 + r) * this.nx + block.i0 + c;
+        if (this.labels[p] !== block.labels[n]) changed = true;
         this.setPixel(p, block.labels[n]!, block.energy[n]!, block.gap[n]!, block, n);
       }
     }
+    this.searched += block.searched[0]!;
+    return changed;
   }
 
   /** Stores the results of `solvePixelList` for the pixels it was given. */
@@ -191,6 +202,7 @@ export class MapGrid {
     pixels.forEach((p, n) =>
       this.setPixel(p, block.labels[n]!, block.energy[n]!, block.gap[n]!, block, n),
     );
+    this.searched += block.searched[0]!;
   }
 
   /**

@@ -69,7 +69,7 @@ function expectSameBoundaries(actual: readonly Boundary[], expected: readonly Bo
 const SCENARIO = JSON.stringify({ ...INTERFACES_EXAMPLE, plane: standardPlane(48, 40) });
 
 describe('browser Map scheduler (workers/mapScheduler.ts) over a worker pool', () => {
-  test('adaptive tiling gives the one-shot map: labels, boundaries, and every state on demand', async () => {
+  test('adaptive tiling gives the one-shot map: labels, boundaries, and every pixel solved', async () => {
     const reference = await computePhaseMap(parseMapInput(JSON.parse(SCENARIO)));
     const pool = new WorkerPool(() => inThread(), 2);
     const { outcome } = run(new MapScheduler(pool, BISECTION_TOLERANCE), SCENARIO);
@@ -79,16 +79,14 @@ describe('browser Map scheduler (workers/mapScheduler.ts) over a worker pool', (
     expect(result.problems).toEqual([]);
     expect(grid.labels).toEqual(reference.labels);
     expect(new Set(grid.labels)).toEqual(new Set(['F', 'CAF', 'KD', 'CDW']));
-    // Only cells holding a boundary were solved pixel by pixel (and region pixels at edge ends).
+    // Every pixel is solved and certified, cells holding a boundary first.
     const solved = grid.status.filter((s) => s === PIXEL_SOLVED).length;
-    expect(solved).toBeGreaterThan(0.1 * grid.nx * grid.ny);
-    expect(solved).toBeLessThan(0.6 * grid.nx * grid.ny);
+    expect(solved).toBe(grid.nx * grid.ny);
     // Boundaries: same polylines, points within the bisection tolerance (their edge ends may
     // differ in the last bits).
     expectSameBoundaries(result.boundaries, reference.boundaries);
-    // Every pixel's state on demand equals the one-shot state.
+    // Every pixel's state equals the one-shot state.
     for (let p = 0; p < grid.nx * grid.ny; p++) {
-      grid.solvePixelNow(p);
       expect(grid.labels[p]).toBe(reference.labels[p]);
       expect(Math.abs(grid.energy[p]! - reference.energy[p]!)).toBeLessThan(1e-12);
     }

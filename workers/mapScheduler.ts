@@ -13,7 +13,7 @@ import type { AsyncMapStages } from './mapStages';
 import { CancelledError, type WorkerPool } from './workerPool';
 
 /** Stages a job goes through, in order. */
-export type JobPhase = 'coarse' | 'refining' | 'boundaries' | 'done' | 'failed';
+export type JobPhase = 'coarse' | 'refining' | 'boundaries' | 'verifying' | 'done' | 'failed';
 
 export interface MapJobEvents {
   /**
@@ -23,6 +23,8 @@ export interface MapJobEvents {
   update(grid: MapGrid, phase: JobPhase): void;
   /** The first full coarse frame is in the grid (every pixel shows a nearby node's label). */
   coarse(grid: MapGrid): void;
+  /** The boundaries between the pixels solved so far (before the regions are checked). */
+  boundaries?(grid: MapGrid, boundaries: Boundary[]): void;
   /** Every pixel solved and every boundary located. */
   done(grid: MapGrid, boundaries: Boundary[]): void;
   /** Something could not be computed; the grid keeps what was. One short sentence. */
@@ -32,8 +34,9 @@ export interface MapJobEvents {
 /** 'staged': coarse grid, adaptive cells, boundaries. 'cold': the baseline, a full search per pixel. */
 export type MapMode = 'staged' | 'cold';
 
-/** Boundary cells along a row per pixel task, and region pixels per task. */
+/** Boundary cells along a row per pixel task, region cells per task, and region pixels per task. */
 const MAX_RUN = 4;
+const MAX_REGION_RUN = 8;
 const PIXELS_PER_TASK = 256;
 /** Coarse nodes per coarse task, edges per crossing task, rows per cold task. */
 const NODES_PER_TASK = 16;
@@ -48,10 +51,13 @@ export const LIVE_BISECTION_TOLERANCE = 1e-6;
 
 /**
  * Tiles the plane over a worker pool, progressively: (1) every second coarse node, a full
- * search each, shown at once as the first coarse frame; (2) the other coarse nodes; (3) tiles of
- * coarse cells, those holding a boundary first (each pixel gets its own converged state:
- * `solveCells`); (4) the boundaries, bisected along every pixel edge that changes label.
- * Starting a job drops everything queued for older jobs; their late results are ignored.
+ * search each, shown at once as the first coarse frame; (2) the other coarse nodes; (3) the
+ * coarse cells holding a boundary (each pixel gets its own converged, certified state:
+ * `solveCells`); (4) the boundaries, bisected along every pixel edge that changes label; (5) the
+ * cells inside regions, every pixel solved and certified the same way, so that every pixel on
+ * screen is the single-point ground state; where that finds a state the coarse nodes did not
+ * see (an island, another branch), the boundaries are located again. Starting a job drops
+ * everything queued for older jobs; their late results are ignored.
  */
 export class MapScheduler {
   private job = 0;
@@ -236,33 +242,65 @@ export class MapScheduler {
     if (this.stale(job)) return;
 
     // Boundaries along edges whose two ends are both solved and differ.
-    const edges = grid.boundaryEdges().filter((edge) => {
-      const p = edge >> 1;
-      const q = (edge & 1) === 1 ? p + grid.nx : p + 1;
-      return grid.status[p] === PIXEL_SOLVED && grid.status[q] === PIXEL_SOLVED;
-    });
+    const locate = async (): Promise<Crossing[]> => {
+      const edges = grid.boundaryEdges().filter((edge) => {
+        const p = edge >> 1;
+        const q = (edge & 1) === 1 ? p + grid.nx : p + 1;
+        return grid.status[p] === PIXEL_SOLVED && grid.status[q] === PIXEL_SOLVED;
+      });
+      const found: Crossing[] = [];
+      await Promise.all(
+        splitRange(edges.length, Math.ceil(edges.length / EDGES_PER_TASK)).map(
+          async ([start, count]) => {
+            const ids = edges.slice(start, start + count);
+            const { endFrames, endLabels } = grid.edgeEnds(ids);
+            try {
+              const located = await this.pool.run(job, 4, (api) =>
+                api.crossings(json, ids, endFrames, endLabels, this.bisectionTolerance),
+              );
+              if (!this.stale(job)) found.push(...located);
+            } catch (error) {
+              if (error instanceof CancelledError) throw error;
+              failures.push(errorLine(error));
+            }
+          },
+        ),
+      );
+      // Crossings in edge order, so the polylines do not depend on which task finished first.
+      return found.sort((a, b) => a.edge - b.edge);
+    };
     events.update(grid, 'boundaries');
-    const crossings: Crossing[] = [];
+    let crossings = await locate();
+    if (this.stale(job)) return;
+    events.boundaries?.(grid, grid.phaseMap(crossings).boundaries);
+
+    // Every other pixel, cell by cell: the boundaries above are shown meanwhile.
+    events.update(grid, 'verifying');
+    const regionRuns: { -readonly [K in keyof CellRange]: number }[] = [];
+    for (let b = 0; b < height - 1; b++) {
+      for (let a = 0; a < width - 1; a++) {
+        if (!cellIsUniform(coarse, a, b)) continue;
+        const last = regionRuns[regionRuns.length - 1];
+        if (last && last.b0 === b && last.a1 === a && a - last.a0 < MAX_REGION_RUN) last.a1 = a + 1;
+        else regionRuns.push({ a0: a, b0: b, a1: a + 1, b1: b + 1 });
+      }
+    }
+    let changed = false;
     await Promise.all(
-      splitRange(edges.length, Math.ceil(edges.length / EDGES_PER_TASK)).map(
-        async ([start, count]) => {
-          const ids = edges.slice(start, start + count);
-          const { endFrames, endLabels } = grid.edgeEnds(ids);
-          try {
-            const found = await this.pool.run(job, 4, (api) =>
-              api.crossings(json, ids, endFrames, endLabels, this.bisectionTolerance),
-            );
-            if (!this.stale(job)) crossings.push(...found);
-          } catch (error) {
-            if (error instanceof CancelledError) throw error;
-            failures.push(errorLine(error));
-          }
-        },
+      regionRuns.map((t) =>
+        attempt(async () => {
+          const window = grid.coarseWindow(t);
+          const block = await this.pool.run(job, 5, (api) =>
+            api.cells(json, window, { a0: 0, b0: 0, a1: t.a1 - t.a0, b1: t.b1 - t.b0 }),
+          );
+          if (this.stale(job)) return;
+          if (grid.placePixels(block)) changed = true;
+          events.update(grid, 'verifying');
+        }),
       ),
     );
     if (this.stale(job)) return;
-    // Crossings in edge order, so the polylines do not depend on which task finished first.
-    crossings.sort((a, b) => a.edge - b.edge);
+    if (changed) crossings = await locate();
     if (failures.length > 0) {
       events.problem(
         `${failures.length} part${failures.length > 1 ? 's' : ''} of the map could not be computed (${failures[0]}); they show the coarse preview.`,

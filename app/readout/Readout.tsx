@@ -41,7 +41,7 @@ export function Readout() {
   const exchange = grid.input.model.exchange ?? 0;
   // Inside regions pixels are solved when asked for, once the boundary cells are done (a
   // single descent from the nearest coarse node; the grid keeps the result).
-  if (phase === 'boundaries' || phase === 'done') grid.solvePixelNow(p);
+  if (phase === 'boundaries' || phase === 'verifying' || phase === 'done') grid.solvePixelNow(p);
   const { x: ax, y: ay } = grid.input.plane;
   const label = grid.labels[p] ?? '';
   const solved = grid.status[p] === PIXEL_SOLVED;

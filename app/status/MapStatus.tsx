@@ -5,6 +5,7 @@ const PHASE_TEXT = {
   coarse: 'Coarse frame…',
   refining: 'Refining…',
   boundaries: 'Locating boundaries…',
+  verifying: 'Checking every pixel…',
   done: 'Done',
   failed: 'Stopped',
 } as const;

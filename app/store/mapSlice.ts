@@ -3,15 +3,17 @@ import type { Boundary, MapGrid } from '../../solver/index';
 import type { FourfoldState } from './index';
 
 /** Where the current Map is in its progressive computation. */
-export type MapPhase = 'idle' | 'coarse' | 'refining' | 'boundaries' | 'done' | 'failed';
+export type MapPhase =
+  'idle' | 'coarse' | 'refining' | 'boundaries' | 'verifying' | 'done' | 'failed';
 
 const PHASE_RANK: Record<MapPhase, number> = {
   idle: 0,
   coarse: 1,
   refining: 2,
   boundaries: 3,
-  done: 4,
-  failed: 4,
+  verifying: 4,
+  done: 5,
+  failed: 5,
 };
 
 /**
