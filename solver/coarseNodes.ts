@@ -2,6 +2,8 @@ import { DEFAULT_DESCENT, descend } from './localMinimise';
 import { DescentWorkspace } from './tangentSpace';
 import { DEFAULT_MINIMISE, type MinimiseOptions } from './minimise';
 import { searchGroundState } from './groundSearch';
+import { canonicaliseOrbit } from './orbitGauge';
+import { modelSymmetry } from './symmetry';
 import { PixelScratch, summarise } from './stateSummary';
 import { axisValue, PlaneCouplings, type MapInput } from './plane';
 
@@ -109,6 +111,11 @@ export function solveCoarseNodes(
     // Polished to the last bit: pixels start from these frames and finish in fewer steps.
     const warmStarts = warm ? [warm.subarray(32 * n, 32 * n + 32)] : undefined;
     const frame = searchGroundState(c, search, { warmStarts }).frame;
+    descend(c, frame, DEFAULT_DESCENT, ws);
+    // The canonical point of the orbit of rotations about the field and about tau_z: nodes of
+    // one region then hold the same state where it does not change (a bond-ordered state's
+    // phase would otherwise differ from node to node), which lets their cells skip descents.
+    canonicaliseOrbit(frame, nf, modelSymmetry(c));
     descend(c, frame, DEFAULT_DESCENT, ws);
     block.frames.set(frame, 32 * n);
     const summary = summarise(c, frame, nf, scratch);

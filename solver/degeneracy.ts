@@ -174,22 +174,32 @@ export function describeDegeneracy(
 
 const workspace = new DescentWorkspace();
 
+const tangentScratch = new Float64Array(8);
+
 /**
  * Number of soft directions of the energy Hessian at a converged frame, not counting the orbit
  * directions of exact rotations about the field (G_0z) and about tau_z (G_z0), which leave every
- * label and group magnitude unchanged.
+ * label and group magnitude unchanged. With `fresh`, `ws` already holds the frame's order
+ * parameters and Hessian (a descent that just converged there leaves them).
  */
-export function softDirections(c: Couplings, frame: Float64Array): number {
-  const ws = workspace;
+export function softDirections(
+  c: Couplings,
+  frame: Float64Array,
+  ws: DescentWorkspace = workspace,
+  fresh = false,
+): number {
   const nf = c.nf;
   const d = tangentDimension(nf);
-  frameEnergy(c, frame, ws, ws.order);
-  tangentModel(c, frame, ws);
+  if (!fresh) {
+    frameEnergy(c, frame, ws, ws.order);
+    tangentModel(c, frame, ws);
+  }
   const k = ws.eigScratch;
   k.set(ws.hessian.subarray(0, d * d));
+  const t = tangentScratch;
   for (const g of [3, 12]) {
     if (!isSymmetry(c, g)) continue;
-    const t = orbitTangent(frame, nf, g);
+    orbitTangent(frame, nf, g, t);
     let norm = 0;
     for (let p = 0; p < d; p++) norm += t[p]! * t[p]!;
     if (norm <= 1e-12) continue;
@@ -202,8 +212,7 @@ export function softDirections(c: Couplings, frame: Float64Array): number {
   const mu = SOFT_CURVATURE * c.scale;
   if (choleskySolve(k, d, -mu, ws.rhs.fill(0), ws.step, ws.chol, 0)) return 0;
   const values = ws.eigValues;
-  const copy = Float64Array.from(k.subarray(0, d * d));
-  symmetricEigen(copy, d, values, ws.eigVectors);
+  symmetricEigen(k, d, values, ws.eigVectors);
   let soft = 0;
   for (let p = 0; p < d; p++) if (values[p]! < mu) soft++;
   return soft;

@@ -32,21 +32,34 @@ function pauliProduct(i: number, j: number): { index: number; anticommute: boole
 }
 
 /**
+ * Pairs (o_k, o_m) that exp(i theta G_g) turns into each other, per generator g: G_k
+ * anticommutes with G_g and G_m ~ G_g G_k (each pair listed once per k). Built once.
+ */
+const ROTATED_PAIRS: readonly Int32Array[] = Array.from({ length: 16 }, (_, g) => {
+  const out: number[] = [];
+  if (g === 0) return Int32Array.from(out);
+  for (let k = 1; k < 16; k++) {
+    const a = pauliProduct(g >> 2, k >> 2);
+    const b = pauliProduct(g & 3, k & 3);
+    if (a.anticommute === b.anticommute) continue;
+    out.push(k, 4 * a.index + b.index);
+  }
+  return Int32Array.from(out);
+});
+
+/**
  * Whether exp(i theta G_g) is a symmetry of the energy. In the diagonal form
  * E = c0 + eta.o + 1/2 sum kappa_k o_k^2 (couplings.ts), the rotation turns each pair
  * (o_k, o_m) with G_k anticommuting with G_g and G_m ~ G_g G_k, and leaves the other o_k alone;
  * so it is a symmetry when kappa_k = kappa_m and eta_k = eta_m = 0 for every such pair (derived
- * here from public/notes.html#energy).
+ * here from the energy of public/notes.html#energy).
  */
 export function isSymmetry(c: Couplings, g: number): boolean {
-  const ga = g >> 2;
-  const gb = g & 3;
   const tol = 1e-12 * c.scale;
-  for (let k = 1; k < 16; k++) {
-    const a = pauliProduct(ga, k >> 2);
-    const b = pauliProduct(gb, k & 3);
-    if (a.anticommute === b.anticommute) continue;
-    const m = 4 * a.index + b.index;
+  const pairs = ROTATED_PAIRS[g]!;
+  for (let n = 0; n < pairs.length; n += 2) {
+    const k = pairs[n]!;
+    const m = pairs[n + 1]!;
     if (Math.abs(c.kappa[k]! - c.kappa[m]!) > tol) return false;
     if (Math.abs(c.eta[k]!) > tol || Math.abs(c.eta[m]!) > tol) return false;
   }
@@ -58,9 +71,13 @@ export function isSymmetry(c: Couplings, g: number): boolean {
  * Z_ai = u_a^dagger (i G_g) u_i for empty a and occupied i, real coordinates (Re, Im) at
  * 2 (a Nf + i). `frame` holds all four orthonormal vectors (occupied first).
  */
-export function orbitTangent(frame: Float64Array, nf: number, g: number): Float64Array {
+export function orbitTangent(
+  frame: Float64Array,
+  nf: number,
+  g: number,
+  t: Float64Array = new Float64Array(2 * nf * (4 - nf)),
+): Float64Array {
   const ne = 4 - nf;
-  const t = new Float64Array(2 * nf * ne);
   for (let a = 0; a < ne; a++) {
     for (let i = 0; i < nf; i++) {
       let re = 0;

@@ -5,6 +5,7 @@ import {
   frameEnergy,
   retract,
   tangentDimension,
+  tangentGradient,
   tangentModel,
 } from './tangentSpace';
 
@@ -63,6 +64,8 @@ const SHORT_STEP = 0.05;
  * move the state at random, so a descent stops there.
  */
 const GRADIENT_NOISE = 1e-15;
+/** Steps shorter than this (tangent norm) carry the minimum test of their start point over. */
+const TRUSTED_STEP = 1e-2;
 /** Order parameters within this (max norm) of a known minimum, in its quadratic regime. */
 const SAME_BASIN = 1e-2;
 
@@ -91,9 +94,26 @@ export function descend(
   let polished = 0;
   // After a rejected step the frame is unchanged, and so are its gradient and Hessian.
   let fresh = false;
+  // The last accepted step was a short one from a point whose Hessian passed the minimum test:
+  // if the gradient is now below the tolerance the new point passes it too (the Hessian moved
+  // by the order of the step), so the gradient alone decides.
+  let trusted = false;
   for (let iteration = 0; iteration < options.maxIterations; iteration++) {
+    if (!fresh && trusted && polished >= options.polishSteps) {
+      const small = tangentGradient(c, frame, ws);
+      if (small <= tolerance) {
+        return {
+          energy,
+          gradient: small,
+          iterations: iteration,
+          converged: true,
+          abandoned: false,
+        };
+      }
+    }
     if (!fresh) tangentModel(c, frame, ws);
     fresh = true;
+    trusted = false;
     gmax = 0;
     for (let p = 0; p < d; p++) gmax = Math.max(gmax, Math.abs(g[p]!));
     if (gmax <= tolerance) {
@@ -175,6 +195,12 @@ export function descend(
     let norm = 0;
     for (let p = 0; p < d; p++) norm += z[p]! * z[p]!;
     norm = Math.sqrt(norm);
+    // The minimum test of the convergence check (Goldstone zeros pass the tiny shift), here
+    // where the step is short enough for its answer to carry over to the next point.
+    const passes =
+      norm < TRUSTED_STEP &&
+      (lambda <= 1e-11 * scale ||
+        choleskySolve(k, d, 1e-11 * scale, g, ws.eigValues, ws.eigScratch, 0));
     if (norm > MAX_STEP) for (let p = 0; p < d; p++) z[p] = (z[p]! * MAX_STEP) / norm;
     let gz = 0;
     let zkz = 0;
@@ -197,6 +223,7 @@ export function descend(
       energy = trialEnergy;
       // Below rounding the measured decrease is noise: trust the quadratic model there.
       const ratio = predicted > roundoff ? decrease / predicted : 1;
+      trusted = passes && ratio > 0.5 && ratio < 1.5;
       if (ratio > 0.75) lambda = lambda < 1e-10 * scale ? 0 : lambda / 4;
       else if (ratio < 0.25) lambda = Math.max(2 * lambda, 1e-4 * scale);
       lastRatio = norm <= MAX_STEP ? ratio : 0;

@@ -5,7 +5,7 @@ import { searchGroundState } from './groundSearch';
 import { orderOfProjector, projectorOf } from './state';
 import type { CoarseNodes } from './coarseNodes';
 import { DEFAULT_DESCENT, descend, type DescentOptions } from './localMinimise';
-import { DescentWorkspace } from './tangentSpace';
+import { DescentWorkspace, frameEnergy, tangentGradient } from './tangentSpace';
 import { DEFAULT_MINIMISE, minimiseEnergy } from './minimise';
 import { presentGroupCount } from './orderParameters';
 import { ORDER_TOLERANCE } from './phaseLabel';
@@ -111,6 +111,17 @@ export function solveCells(input: MapInput, coarse: CoarseNodes, cells: CellRang
     for (let a = a0; a < a1; a++) {
       const [iFirst, iLast] = cellSpan(coarse.cols, a, nx);
       solver.prepareCell(a, b, iFirst, iLast, jFirst, jLast);
+      if (solver.rigidCell(a, b)) {
+        const node = solver.nodeFrame(b * coarse.cols.length + a);
+        for (let j = jFirst; j < jLast; j++) {
+          for (let i = iFirst; i < iLast; i++) {
+            solver.fromRigid(i, j, node);
+            solver.certify(i, j, block);
+            solver.store(block, (j - j0) * width + (i - i0));
+          }
+        }
+        continue;
+      }
       const branches = solver.branchCorners(a, b);
       if (branches.length > 1) {
         solver.solveBranches(block, a, b, branches, iFirst, iLast, jFirst, jLast);
@@ -137,6 +148,17 @@ export function solveCells(input: MapInput, coarse: CoarseNodes, cells: CellRang
   return block;
 }
 
+/**
+ * Gradient tolerance of a pixel's descent (relative to the coupling scale): its energy is then
+ * exact to rounding (the error is of order gradient^2 / curvature) and its order parameters to
+ * far below the label tolerance, except within about 1e-6 of the scale of a continuous
+ * transition. The same as the global search's.
+ */
+const PIXEL_TOLERANCE = 1e-10;
+
+/** Corner order parameters that agree to this hold one state (see `rigidCell`). */
+const RIGID_ORDER = 1e-12;
+
 /** Per-pixel results of every branch of a cell (slot = branch * pixels + pixel). */
 interface BranchStore {
   frames: Float64Array;
@@ -152,10 +174,15 @@ class PixelSolver {
   private readonly frozen: FrozenStates;
   private readonly ws = new DescentWorkspace();
   private readonly best = new Float64Array(32);
-  private readonly options: DescentOptions = { ...DEFAULT_DESCENT, polishSteps: 0 };
+  private readonly options: DescentOptions = {
+    ...DEFAULT_DESCENT,
+    polishSteps: 0,
+    gradientTolerance: PIXEL_TOLERANCE,
+  };
   private readonly continuation: DescentOptions = {
     ...DEFAULT_DESCENT,
     polishSteps: 0,
+    gradientTolerance: PIXEL_TOLERANCE,
     escapeSaddles: false,
   };
   private readonly scratch = new PixelScratch();
@@ -163,6 +190,10 @@ class PixelSolver {
   private couplings: Couplings | undefined;
   private energy = 0;
   private converged = false;
+  /** Whether `ws` holds the Hessian of `best` at this pixel (its descent just converged). */
+  private fresh = false;
+  /** Whether `best` comes from a rigid cell (no soft direction anywhere in it). */
+  private rigid = false;
   private branchBuffers: BranchStore | undefined;
 
   constructor(
@@ -223,9 +254,11 @@ class PixelSolver {
   }
 
   /**
-   * Corners of cell (a, b) that start a branch of their own: the first corner of each label,
-   * and a corner whose state the first corner of its label does not continue into (one descent
-   * from that corner's state at this corner's couplings ends above this corner's energy).
+   * Corners of cell (a, b) that start a branch of their own. In a cell holding a boundary, the
+   * first corner of each label. In a cell of one label, the first corner and any corner whose
+   * state the first one does not continue into (one descent from the first corner's state at
+   * this corner's couplings ends above this corner's energy): two bond-ordered states along x0
+   * and along y0 share a label, not an energy.
    */
   branchCorners(a: number, b: number): number[] {
     const { coarse } = this;
@@ -233,6 +266,16 @@ class PixelSolver {
     const [nx, ny] = this.input.plane.resolution;
     const out: number[] = [];
     const node = (corner: number): number => (b + (corner >> 1)) * width + a + (corner & 1);
+    const labels = new Set([0, 1, 2, 3].map((k) => coarse.labels[node(k)]));
+    if (labels.size > 1) {
+      // One branch per label (more are started where one dies: see `solveBranches`).
+      for (let corner = 0; corner < 4; corner++) {
+        if (!out.some((k) => coarse.labels[node(k)] === coarse.labels[node(corner)])) {
+          out.push(corner);
+        }
+      }
+      return out;
+    }
     for (let corner = 0; corner < 4; corner++) {
       const here = node(corner);
       const label = coarse.labels[here]!;
@@ -255,7 +298,50 @@ class PixelSolver {
     return out;
   }
 
+  /**
+   * Whether the four corners of cell (a, b) hold one and the same state that is a minimum
+   * with no soft direction at each. At a fixed state the gradient and the Hessian are linear in
+   * the couplings (the Hartree-Fock matrix is), hence affine over the cell: zero gradients at
+   * the corners give zero gradients inside, and positive definite Hessians at the corners give
+   * positive definite ones inside (a convex combination). The state is then a local minimum at
+   * every pixel without a descent; the certificate still compares it with the fixed states.
+   */
+  rigidCell(a: number, b: number): boolean {
+    const width = this.coarse.cols.length;
+    const [nx, ny] = this.input.plane.resolution;
+    const first = b * width + a;
+    const reference = this.nodeOrders.subarray(16 * first, 16 * first + 16);
+    for (let corner = 1; corner < 4; corner++) {
+      const node = (b + (corner >> 1)) * width + a + (corner & 1);
+      for (let k = 1; k < 16; k++) {
+        if (Math.abs(this.nodeOrders[16 * node + k]! - reference[k]!) > RIGID_ORDER) return false;
+      }
+    }
+    for (let corner = 0; corner < 4; corner++) {
+      const c = this.planeCouplings.at(
+        axisValue(this.input.plane.x, nx, this.coarse.cols[a + (corner & 1)]!),
+        axisValue(this.input.plane.y, ny, this.coarse.rows[b + (corner >> 1)]!),
+      );
+      const frame = this.nodeFrame(first);
+      frameEnergy(c, frame, this.ws, this.ws.order);
+      if (tangentGradient(c, frame, this.ws) > PIXEL_TOLERANCE * c.scale) return false;
+      if (softDirections(c, frame, this.ws) > 0) return false;
+    }
+    return true;
+  }
+
+  /** Pixel (i, j) of a rigid cell: the corners' state, a minimum here (see `rigidCell`). */
+  fromRigid(i: number, j: number, frame: Float64Array): void {
+    const c = this.at(i, j);
+    this.best.set(frame);
+    this.energy = frameEnergy(c, this.best, this.ws, this.ws.order);
+    this.converged = true;
+    this.fresh = false;
+    this.rigid = true;
+  }
+
   fromNeighbour(i: number, j: number, from: Float64Array): void {
+    this.rigid = false;
     const c = this.at(i, j);
     this.best.set(from);
     this.options.abandonAbove = Infinity;
@@ -263,6 +349,7 @@ class PixelSolver {
     const result = descend(c, this.best, this.options, this.ws);
     this.energy = result.energy;
     this.converged = result.converged;
+    this.fresh = result.converged;
   }
 
   /**
@@ -279,7 +366,10 @@ class PixelSolver {
     if (lower === undefined && this.converged) {
       // A degenerate state (a soft family, or a tie between branches): the member the
       // vanishing fields select, as the single-point search reports it.
-      if (ties.length > 0 || softDirections(c, this.best) > 0) {
+      if (
+        ties.length > 0 ||
+        (!this.rigid && softDirections(c, this.best, this.ws, this.fresh) > 0)
+      ) {
         this.best.set(settleDegenerate(c, [this.best, ...ties], this.energy, this.ws));
         this.at(i, j);
       }
@@ -319,13 +409,19 @@ class PixelSolver {
     const w = iLast - iFirst;
     const h = jLast - jFirst;
     const size = w * h;
-    const branches = branchCorners.length;
-    const store = this.branchStore(branches * size);
+    // A branch that stops being a minimum somewhere on its way across the cell is continued
+    // again from the other corners that hold its label: from there it may reach pixels it could
+    // not reach from its first corner.
+    const starts = [...branchCorners];
+    const labelOf = (corner: number): string =>
+      coarse.labels[(b + (corner >> 1)) * width + a + (corner & 1)]!;
+    const store = this.branchStore(4 * size);
     options.abandonAbove = Infinity;
     options.abandonNear = undefined;
-    for (let k = 0; k < branches; k++) {
-      const corner = branchCorners[k]!;
+    for (let k = 0; k < starts.length; k++) {
+      const corner = starts[k]!;
       const node = (b + (corner >> 1)) * width + a + (corner & 1);
+      let died = false;
       // Scan away from the branch's corner: rows nearest it first, each row from its side.
       const right = (corner & 1) === 1;
       const top = corner >> 1 === 1;
@@ -352,9 +448,16 @@ class PixelSolver {
           store.energy[slot] = result.energy;
           store.converged[slot] = result.converged ? 1 : 0;
           store.groups[slot] = presentGroupCount(ws.order, ORDER_TOLERANCE);
+          if (!result.converged) died = true;
+        }
+      }
+      if (died) {
+        for (let other = 0; other < 4; other++) {
+          if (!starts.includes(other) && labelOf(other) === labelOf(corner)) starts.push(other);
         }
       }
     }
+    const branches = starts.length;
     const blockWidth = block.width;
     for (let j = jFirst; j < jLast; j++) {
       for (let i = iFirst; i < iLast; i++) {
@@ -375,6 +478,8 @@ class PixelSolver {
         this.best.set(store.frames.subarray(32 * pick, 32 * pick + 32));
         this.energy = store.energy[pick]!;
         this.converged = store.converged[pick] === 1;
+        this.fresh = false;
+        this.rigid = false;
         const ties: Float64Array[] = [];
         for (let k = 0; k < branches; k++) {
           const slot = k * size + local;

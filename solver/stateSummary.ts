@@ -78,29 +78,30 @@ export function fermiGap(frame: Float64Array, nf: number, s: PixelScratch): numb
       size = Math.max(size, Math.abs(re), Math.abs(im));
     }
   }
-  const pad = 10 * size + 1;
-  // Occupied block padded far below: its levels are the top nf eigenvalues.
+  const re = (a: number, b: number): number => m[2 * (4 * a + b)]!;
+  const im = (a: number, b: number): number => m[2 * (4 * a + b) + 1]!;
+  if (nf === 2) {
+    // Two 2 x 2 Hermitian blocks: lambda = mean -+ sqrt(half-difference^2 + |offdiagonal|^2).
+    const highestOccupied =
+      (re(0, 0) + re(1, 1)) / 2 + Math.hypot((re(0, 0) - re(1, 1)) / 2, re(0, 1), im(0, 1));
+    const lowestEmpty =
+      (re(2, 2) + re(3, 3)) / 2 - Math.hypot((re(2, 2) - re(3, 3)) / 2, re(2, 3), im(2, 3));
+    return lowestEmpty - highestOccupied;
+  }
+  // One 1 x 1 block and one 3 x 3 block; the latter padded far away in a 4 x 4 eigenproblem.
+  const single = nf === 1 ? 0 : 3;
+  const first = nf === 1 ? 1 : 0;
+  const pad = (10 * size + 1) * (nf === 1 ? -1 : 1);
   const block = s.block;
   block.fill(0);
-  for (let a = 0; a < 4; a++) {
-    for (let b = 0; b < 4; b++) {
-      const inside = a < nf && b < nf;
-      block[2 * (4 * a + b)] = inside ? m[2 * (4 * a + b)]! : 0;
-      block[2 * (4 * a + b) + 1] = inside ? m[2 * (4 * a + b) + 1]! : 0;
+  for (let a = first; a < first + 3; a++) {
+    for (let b = first; b < first + 3; b++) {
+      block[2 * (4 * a + b)] = re(a, b);
+      block[2 * (4 * a + b) + 1] = im(a, b);
     }
-    if (a >= nf) block[10 * a] = -pad;
   }
+  block[10 * single] = pad;
   hermitianEigen4(block, s.values, s.eigenvectors);
-  const highestOccupied = s.values[3]!;
-  block.fill(0);
-  for (let a = 0; a < 4; a++) {
-    for (let b = 0; b < 4; b++) {
-      const inside = a >= nf && b >= nf;
-      block[2 * (4 * a + b)] = inside ? m[2 * (4 * a + b)]! : 0;
-      block[2 * (4 * a + b) + 1] = inside ? m[2 * (4 * a + b) + 1]! : 0;
-    }
-    if (a < nf) block[10 * a] = pad;
-  }
-  hermitianEigen4(block, s.values, s.eigenvectors);
-  return s.values[0]! - highestOccupied;
+  // nf = 1: the padding sorts first and the empty levels follow; nf = 3: it sorts last.
+  return nf === 1 ? s.values[1]! - re(0, 0) : re(3, 3) - s.values[2]!;
 }
