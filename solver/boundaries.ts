@@ -18,16 +18,17 @@ function pairKey(c: Crossing): string {
  * points, where a cell holds one crossing of a pair.
  */
 export function joinBoundaries(crossings: readonly Crossing[], nx: number, ny: number): Boundary[] {
-  const byEdge = new Map<number, number>();
-  crossings.forEach((c, index) => byEdge.set(c.edge, index));
+  // An edge may hold several crossings (a phase narrower than a pixel between its ends).
+  const byEdge = new Map<number, number[]>();
+  crossings.forEach((c, index) => byEdge.set(c.edge, [...(byEdge.get(c.edge) ?? []), index]));
   const links: number[][] = crossings.map(() => []);
   for (let j = 0; j + 1 < ny; j++) {
     for (let i = 0; i + 1 < nx; i++) {
       const p = j * nx + i;
       // Around the cell: bottom, right, top, left.
-      const around = [2 * p, 2 * (p + 1) + 1, 2 * (p + nx), 2 * p + 1]
-        .map((edge) => byEdge.get(edge))
-        .filter((k): k is number => k !== undefined);
+      const around = [2 * p, 2 * (p + 1) + 1, 2 * (p + nx), 2 * p + 1].flatMap(
+        (edge) => byEdge.get(edge) ?? [],
+      );
       if (around.length < 2) continue;
       const groups = new Map<string, number[]>();
       for (const k of around) {

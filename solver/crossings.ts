@@ -4,6 +4,7 @@ import { DescentWorkspace } from './tangentSpace';
 import { DEFAULT_MINIMISE, minimiseEnergy } from './minimise';
 import { presentGroupCount } from './orderParameters';
 import { ORDER_TOLERANCE, phaseLabel } from './phaseLabel';
+import { DEGENERACY_TOLERANCE, softDirections } from './degeneracy';
 import { axisValue, PlaneCouplings, type MapInput } from './plane';
 import { orderOfProjector, projectorOf } from './state';
 
@@ -59,22 +60,24 @@ export function locateCrossings(
     const y1 = vertical ? axisValue(input.plane.y, ny, j + 1) : y0;
     const near = endLabels[2 * e]!;
     const far = endLabels[2 * e + 1]!;
-    const located = bisectTransition(
+    const located = locateTransitions(
       (t) => planeCouplings.at(x0 + t * (x1 - x0), y0 + t * (y1 - y0)),
       nf,
       { frame: endFrames.slice(64 * e, 64 * e + 32), label: near },
       { frame: endFrames.slice(64 * e + 32, 64 * e + 64), label: far },
       relativeTolerance * (vertical ? ny : nx),
     );
-    const t = located.t;
-    out.push({
-      edge,
-      x: x0 + t * (x1 - x0),
-      y: y0 + t * (y1 - y0),
-      near,
-      far,
-      order: located.order,
-    });
+    for (const transition of located) {
+      const t = transition.t;
+      out.push({
+        edge,
+        x: x0 + t * (x1 - x0),
+        y: y0 + t * (y1 - y0),
+        near: transition.near,
+        far: transition.far,
+        order: transition.order,
+      });
+    }
   }
   return out;
 }
@@ -93,6 +96,11 @@ export interface LocatedTransition {
   /** Frames at the final bracket's ends (near side, far side). */
   readonly frameNear: Float64Array;
   readonly frameFar: Float64Array;
+  /**
+   * A third phase met inside the bracket (not a degenerate member of the ends' families): the
+   * search stopped there; `locateTransitions` splits the bracket at it.
+   */
+  readonly third?: { readonly t: number; readonly frame: Float64Array; readonly label: string };
 }
 
 /**
@@ -131,7 +139,9 @@ export function bisectTransition(
   // are distinct local minima there: a first-order transition is its root.
   let gapLo: number | undefined;
   let gapHi: number | undefined;
+  let third: { t: number; frame: Float64Array; label: string } | undefined;
   const probe = (t: number): void => {
+    if (third !== undefined) return;
     const c = at(t);
     branchNear.set(frameNear);
     branchFar.set(frameFar);
@@ -168,11 +178,20 @@ export function bisectTransition(
     orderOfProjector(projectorOf(frame, nf, p), orderNear);
     let label = phaseLabel(orderNear, c);
     if (label !== near && label !== far) {
-      // Within rounding of a line where the two end states are degenerate (for H = F,
-      // uZ = uPerp joins KD and CDW by a valley rotation) a descent may stop part-way along
-      // the flat direction: the state belongs to the end it is closer to. (A genuine third
-      // phase narrower than the bracket is not resolved.)
-      label = closerEnd(orderNear, frameNear, frameFar, nf) ? near : far;
+      const degenerate =
+        a.converged &&
+        b.converged &&
+        Math.abs(a.energy - b.energy) <= DEGENERACY_TOLERANCE * c.scale;
+      if (degenerate || softDirections(c, frame) > 0) {
+        // Within rounding of a line where the two end states are degenerate (for H = F,
+        // uZ = uPerp joins KD and CDW by a valley rotation) a descent may stop part-way along
+        // the flat direction: the state belongs to the end it is closer to.
+        label = closerEnd(orderNear, frameNear, frameFar, nf) ? near : far;
+      } else {
+        // A third phase inside the bracket: the caller splits the bracket there.
+        third = { t, frame: Float64Array.from(frame), label };
+        return;
+      }
     }
     if (label === near) {
       lo = t;
@@ -184,7 +203,7 @@ export function bisectTransition(
       gapHi = difference !== undefined && difference > 0 ? difference : undefined;
     }
   };
-  for (let guard = 0; hi - lo > tolerance && guard < 200; guard++) {
+  for (let guard = 0; hi - lo > tolerance && guard < 200 && third === undefined; guard++) {
     if (gapLo !== undefined && gapHi !== undefined) {
       // Regula falsi on the branch energy difference, then two probes just either side of
       // the estimate to close the bracket; fall back to bisection if it did not halve.
@@ -215,11 +234,14 @@ export function bisectTransition(
   // FIRST_ORDER_JUMP. A step that is not clearly first order is measured again on a bracket up
   // to a thousand times narrower: a square-root onset shrinks about thirty-fold there, a
   // genuine jump stays.
+  if (third !== undefined) {
+    return { t: third.t, order: 'first', frameNear, frameFar, third };
+  }
   let jump = jumpAcross();
   const fine = tolerance * TYPING_NARROWING;
   for (
     let guard = 0;
-    jump > FIRST_ORDER_JUMP && jump < CLEAR_JUMP && hi - lo > fine && guard < 40;
+    jump > FIRST_ORDER_JUMP && jump < CLEAR_JUMP && hi - lo > fine && guard < 40 && !third;
     guard++
   ) {
     probe((lo + hi) / 2);
@@ -231,6 +253,48 @@ export function bisectTransition(
     frameNear,
     frameFar,
   };
+}
+
+/** A transition of `locateTransitions`: where, of which kind, and between which labels. */
+export interface EdgeTransition {
+  readonly t: number;
+  readonly order: 'first' | 'continuous';
+  readonly near: string;
+  readonly far: string;
+}
+
+/** Deepest nesting of brackets split at a third phase. */
+const MAX_SPLITS = 6;
+
+/**
+ * Every transition between `nearEnd` (t = 0) and `farEnd` (t = 1), in order of t: where a probe
+ * of the bisection meets a third phase (not a member of a degenerate family of the ends), the
+ * bracket is split there and each part is located on its own, so a narrow phase between two
+ * grid points gives its two transitions, each typed with its own pair of labels.
+ */
+export function locateTransitions(
+  at: (t: number) => Couplings,
+  nf: number,
+  nearEnd: BracketEnd,
+  farEnd: BracketEnd,
+  tolerance: number,
+): EdgeTransition[] {
+  const out: EdgeTransition[] = [];
+  const visit = (t0: number, t1: number, a: BracketEnd, b: BracketEnd, depth: number): void => {
+    const width = t1 - t0;
+    const located = bisectTransition((u) => at(t0 + u * width), nf, a, b, tolerance / width);
+    const third = located.third;
+    if (third === undefined || depth >= MAX_SPLITS) {
+      out.push({ t: t0 + located.t * width, order: located.order, near: a.label, far: b.label });
+      return;
+    }
+    const middle = { frame: third.frame, label: third.label };
+    const tm = t0 + third.t * width;
+    visit(t0, tm, a, middle, depth + 1);
+    visit(tm, t1, middle, b, depth + 1);
+  };
+  visit(0, 1, nearEnd, farEnd, 0);
+  return out;
 }
 
 /** Whether `order` lies closer (max norm) to the state of frame `a` than to that of `b`. */

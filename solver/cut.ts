@@ -1,5 +1,5 @@
 import { couplingsFromArrays, energyOfOrder, type Couplings } from './couplings';
-import { BISECTION_TOLERANCE, bisectTransition } from './crossings';
+import { BISECTION_TOLERANCE, locateTransitions } from './crossings';
 import { DEFAULT_DESCENT, descend } from './localMinimise';
 import { DEFAULT_MINIMISE, minimiseEnergy } from './minimise';
 import { ModelError } from './model';
@@ -327,16 +327,25 @@ export function computeCut(input: MapInput, path: CutPath, n: number): CutResult
     if (near === far) continue;
     const t0 = tAt(i);
     const t1 = tAt(i + 1);
-    const located = bisectTransition(
+    const located = locateTransitions(
       (u) => track.at(t0 + u * (t1 - t0)),
       nf,
       { frame: frames[i]!, label: near },
       { frame: frames[i + 1]!, label: far },
       BISECTION_TOLERANCE * (n - 1),
     );
-    const t = t0 + located.t * (t1 - t0);
-    const [x, y] = track.point(t);
-    result.transitions.push({ t, s: track.s(t), x, y, between: [near, far], order: located.order });
+    for (const transition of located) {
+      const t = t0 + transition.t * (t1 - t0);
+      const [x, y] = track.point(t);
+      result.transitions.push({
+        t,
+        s: track.s(t),
+        x,
+        y,
+        between: [transition.near, transition.far],
+        order: transition.order,
+      });
+    }
   }
   return result;
 }

@@ -2,9 +2,13 @@ import { DEGENERACY_TOLERANCE } from './degeneracy';
 import type { PlaneCouplings } from './plane';
 import { seedLibrary } from './seeds';
 
+/** Extra states per cell besides the seed library (its corners and relaxed seed states). */
+export const MAX_CELL_STATES = 24;
+
 /**
  * Fixed states whose energies bound the ground state from above anywhere in a plane: the exact
- * states of the seed library and the states of a cell's corner nodes. At a fixed projector the
+ * states of the seed library and a cell's own states (its corner nodes, and seed states relaxed
+ * at points of the cell). At a fixed projector the
  * energy is linear in the couplings, hence affine in the plane's axis values, so each state's
  * energy at a pixel costs two multiply-adds (three numbers per state, computed once). A pixel
  * whose continued state lies above any of them is certainly not at the global minimum: that is
@@ -21,21 +25,49 @@ export class FrozenStates {
   private activeCount = 0;
 
   constructor(private readonly plane: PlaneCouplings) {
-    const library = seedLibrary(plane.nf).filter((s) => s.exact !== undefined);
-    this.seedCount = library.length;
-    this.seedFrames = library.map((s) => s.exact!);
-    this.coefficients = new Float64Array(3 * (this.seedCount + 4));
+    // Every structured seed twice: its exact state, and the nudged one the search descends from
+    // (which ranks states that sit at a saddle, and gain most by relaxing, higher).
+    const library = seedLibrary(plane.nf);
+    this.seedCount = 2 * library.length;
+    this.seedFrames = [...library.map((s) => s.exact ?? s.frame), ...library.map((s) => s.frame)];
+    this.coefficients = new Float64Array(3 * (this.seedCount + MAX_CELL_STATES));
     const scratch = new Float64Array(3);
     library.forEach((seed, s) => {
       this.coefficients.set(plane.affineEnergy(seed.exactOrder, scratch), 3 * s);
+      this.coefficients.set(plane.affineEnergy(seed.order, scratch), 3 * (library.length + s));
     });
-    this.active = new Int32Array(this.seedCount + 4);
+    this.active = new Int32Array(this.seedCount + MAX_CELL_STATES);
+  }
+
+  /**
+   * Index of the seed state lowest at (x, y), among the exact states (`nudged` false) or among
+   * the nudged ones.
+   */
+  lowestSeed(x: number, y: number, nudged: boolean): number {
+    const k = this.coefficients;
+    const half = this.seedCount / 2;
+    let best = 0;
+    let bestEnergy = Infinity;
+    for (let s = nudged ? half : 0; s < (nudged ? this.seedCount : half); s++) {
+      const e = k[3 * s]! + k[3 * s + 1]! * x + k[3 * s + 2]! * y;
+      if (e < bestEnergy) {
+        bestEnergy = e;
+        best = s;
+      }
+    }
+    return best;
+  }
+
+  /** The frame of seed state `s`. */
+  seedFrame(s: number): Float64Array {
+    return this.seedFrames[s]!;
   }
 
   /**
    * Prepares the checks for one cell: the rectangle [x0, x1] x [y0, y1] of axis values that its
-   * pixels cover, and the order parameters (index 0..15) and frames of its corner states. Keeps
-   * only the states that can fall below every corner state somewhere in the rectangle.
+   * pixels cover, and the order parameters (index 0..15) and frames of its own states (its
+   * corners first, at most MAX_CELL_STATES). Keeps only the states that can fall below every
+   * corner state somewhere in the rectangle.
    */
   forCell(
     x0: number,
@@ -64,8 +96,8 @@ export class FrozenStates {
       const d = e0 + ex * x1 + ey * y1;
       return wantMax ? Math.max(a, b, c, d) : Math.min(a, b, c, d);
     };
-    // After the check, every pixel lies at or below each corner state (to the tolerance), so no
-    // pixel of the cell is above the lowest of their maxima over the rectangle.
+    // After the check, every pixel lies at or below each of the cell's states (to the
+    // tolerance), so no pixel of the cell is above the lowest of their maxima over the rectangle.
     let ceiling = Infinity;
     for (let s = n; s < total; s++) ceiling = Math.min(ceiling, extreme(s, true));
     this.activeCount = 0;

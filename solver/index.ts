@@ -112,9 +112,11 @@ export {
   FIRST_ORDER_JUMP,
   boundaryEdges,
   bisectTransition,
+  locateTransitions,
   locateCrossings,
   type BracketEnd,
   type Crossing,
+  type EdgeTransition,
   type LocatedTransition,
 } from './crossings';
 export {

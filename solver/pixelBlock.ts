@@ -1,6 +1,6 @@
 import { energyOfOrder, type Couplings } from './couplings';
 import { DEGENERACY_TOLERANCE, settleDegenerate, softDirections } from './degeneracy';
-import { FrozenStates } from './frozenStates';
+import { FrozenStates, MAX_CELL_STATES } from './frozenStates';
 import { searchGroundState } from './groundSearch';
 import { orderOfProjector, projectorOf } from './state';
 import type { CoarseNodes } from './coarseNodes';
@@ -227,7 +227,13 @@ class PixelSolver {
     return this.couplings;
   }
 
-  /** Sets up the certificate for cell (a, b) covering pixels [iFirst, iLast) x [jFirst, jLast). */
+  /**
+   * Sets up the certificate for cell (a, b) covering pixels [iFirst, iLast) x [jFirst, jLast):
+   * its corner states, and the seed states that are lowest at the cell's corners, side
+   * midpoints and centre (exact and nudged, the two rankings of the global search), each
+   * relaxed there. A phase too small for any coarse node
+   * to see, but whose seed leads the ranking somewhere in the cell, then shows up in the check.
+   */
   prepareCell(a: number, b: number, iFirst: number, iLast: number, jFirst: number, jLast: number) {
     const { plane } = this.input;
     const [nx, ny] = plane.resolution;
@@ -243,6 +249,31 @@ class PixelSolver {
     const xb = axisValue(plane.x, nx, iLast - 1);
     const ya = axisValue(plane.y, ny, jFirst);
     const yb = axisValue(plane.y, ny, jLast - 1);
+    const seeds: number[] = [];
+    const points: [number, number][] = [];
+    for (const y of [ya, (ya + yb) / 2, yb])
+      for (const x of [xa, (xa + xb) / 2, xb]) points.push([x, y]);
+    for (const [x, y, nudged] of points.flatMap(([x, y]) => [
+      [x, y, false] as const,
+      [x, y, true] as const,
+    ])) {
+      const s = this.frozen.lowestSeed(x, y, nudged);
+      if (seeds.includes(s) || orders.length >= MAX_CELL_STATES) continue;
+      seeds.push(s);
+      const c = this.planeCouplings.at(x, y);
+      const frame = Float64Array.from(this.frozen.seedFrame(s));
+      const result = descend(c, frame, this.options, this.ws);
+      if (!result.converged) continue;
+      const order = Float64Array.from(this.ws.order);
+      const known = orders.some((o) => {
+        for (let k = 1; k < 16; k++) if (Math.abs(o[k]! - order[k]!) > 1e-6) return false;
+        return true;
+      });
+      if (!known) {
+        orders.push(order);
+        frames.push(frame);
+      }
+    }
     this.frozen.forCell(
       Math.min(xa, xb),
       Math.max(xa, xb),

@@ -46,13 +46,20 @@ export function boundaryCrossings(source: RegionSource): {
   const out = new Map<number, number>();
   const labels = source.labels;
   const ambiguous: [number, number][][] = [];
+  // An edge crossed by a phase narrower than a pixel holds two points (one per transition): its
+  // ends' regions meet at their midpoint, and the narrow phase shows as its two boundary lines.
+  const sums = new Map<number, [number, number]>();
   for (const b of source.boundaries) {
     for (const [px, py] of b.points) {
       const edges = edgesOf(px, py);
-      if (edges.length === 1) out.set(edges[0]![0], edges[0]![1]);
-      else if (edges.length > 1) ambiguous.push(edges);
+      if (edges.length === 1) {
+        const [edge, t] = edges[0]!;
+        const [sum, count] = sums.get(edge) ?? [0, 0];
+        sums.set(edge, [sum + t, count + 1]);
+      } else if (edges.length > 1) ambiguous.push(edges);
     }
   }
+  for (const [edge, [sum, count]] of sums) out.set(edge, sum / count);
   for (const edges of ambiguous) {
     for (const [edge, t] of edges) if (!out.has(edge)) out.set(edge, t);
   }
