@@ -1,7 +1,7 @@
 import { couplingsFromArrays, energyOfOrder, type Couplings } from './couplings';
 import { BISECTION_TOLERANCE, locateTransitions } from './crossings';
 import { DEFAULT_DESCENT, descend } from './localMinimise';
-import { DEFAULT_MINIMISE, minimiseEnergy } from './minimise';
+import { searchGroundState } from './groundSearch';
 import { ModelError } from './model';
 import { ORDER_GROUPS, groupMagnitudes, orderAngles, presentGroupCount } from './orderParameters';
 import { ORDER_TOLERANCE } from './phaseLabel';
@@ -234,10 +234,8 @@ export function computeCut(input: MapInput, path: CutPath, n: number): CutResult
   const tAt = (i: number): number => i / (n - 1);
   const stride = Math.max(1, Math.ceil((n - 1) / SEARCHED_SAMPLES));
   const searched = new Map<number, Float64Array>();
-  for (let i = 0; i < n; i += stride)
-    searched.set(i, minimiseEnergy(track.at(tAt(i)), DEFAULT_MINIMISE).frame);
-  if (!searched.has(n - 1))
-    searched.set(n - 1, minimiseEnergy(track.at(1), DEFAULT_MINIMISE).frame);
+  for (let i = 0; i < n; i += stride) searched.set(i, searchGroundState(track.at(tAt(i))).frame);
+  if (!searched.has(n - 1)) searched.set(n - 1, searchGroundState(track.at(1)).frame);
 
   const ws = new DescentWorkspace();
   const options = { ...DEFAULT_DESCENT };

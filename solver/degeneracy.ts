@@ -23,7 +23,7 @@ export const DEGENERACY_TOLERANCE = 1e-9;
  * search tolerance. A ground state with soft directions other than the rotations about the
  * field and about tau_z (which only turn it, label unchanged) sits in a degenerate family.
  */
-export const SOFT_CURVATURE = 1e-9;
+export const SOFT_CURVATURE = 1e-7;
 
 /**
  * Strength (relative to the coupling scale) of the vanishing fields that pick one member of a

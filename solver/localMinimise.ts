@@ -19,7 +19,10 @@ export interface DescentOptions {
   /** Stop when every gradient component is below this times the coupling scale. */
   gradientTolerance: number;
   readonly maxIterations: number;
-  /** Newton steps taken after the tolerance is met (each squares the residual). */
+  /**
+   * Most polishing steps taken after the tolerance is met (each corrects every direction whose
+   * gradient is above rounding noise fully; they stop once one is shorter than 1e-10).
+   */
   readonly polishSteps: number;
   /**
    * Leave saddle points along negative curvature (true), or stop there and report
@@ -39,7 +42,7 @@ export interface DescentOptions {
 export const DEFAULT_DESCENT: DescentOptions = {
   gradientTolerance: 1e-12,
   maxIterations: 200,
-  polishSteps: 1,
+  polishSteps: 3,
   escapeSaddles: true,
   abandonAbove: Infinity,
 };
@@ -64,6 +67,45 @@ const SHORT_STEP = 0.05;
  * move the state at random, so a descent stops there.
  */
 const GRADIENT_NOISE = 1e-15;
+/**
+ * Smallest Levenberg-Marquardt shift of a step (relative to the coupling scale): rounding noise
+ * of the gradient (about 1e-15 of the scale) then moves a state by at most about 1e-7 along a
+ * flat direction, below the label tolerance; stiffer directions converge as with Newton.
+ */
+const MIN_SHIFT = 1e-8;
+/**
+ * A gradient component (along a Hessian eigenvector) below this, relative to the coupling
+ * scale, is rounding noise: a polishing step leaves such directions alone.
+ */
+const POLISH_NOISE = 1e-14;
+/**
+ * The Newton step of a polishing pass into ws.step, direction by direction of the Hessian's
+ * eigenvectors: each gradient component above rounding noise is corrected fully, however soft
+ * its direction (a soft mode near a continuous transition, or a weak field's canting, converges
+ * only slowly under the gradient tolerance alone), and components at noise level are left
+ * alone, so that a flat direction (a Goldstone mode, a degenerate family) does not take a step
+ * of noise / curvature.
+ */
+function polishStep(ws: DescentWorkspace, d: number, scale: number): number {
+  const { gradient: g, step: z, eigValues: values, eigVectors: vectors, eigScratch: a } = ws;
+  a.set(ws.hessian.subarray(0, d * d));
+  symmetricEigen(a, d, values, vectors);
+  z.fill(0, 0, d);
+  for (let m = 0; m < d; m++) {
+    let component = 0;
+    for (let p = 0; p < d; p++) component += vectors[p * d + m]! * g[p]!;
+    if (Math.abs(component) <= POLISH_NOISE * scale || !(values[m]! > 0)) continue;
+    const length = -component / values[m]!;
+    for (let p = 0; p < d; p++) z[p] = z[p]! + length * vectors[p * d + m]!;
+  }
+  let norm = 0;
+  for (let p = 0; p < d; p++) norm += z[p]! * z[p]!;
+  return Math.sqrt(norm);
+}
+
+/** A polishing step shorter than this (tangent norm) ends the descent: nothing is left to do. */
+const POLISHED = 1e-10;
+
 /** Steps shorter than this (tangent norm) carry the minimum test of their start point over. */
 const TRUSTED_STEP = 1e-2;
 /** Order parameters within this (max norm) of a known minimum, in its quadratic regime. */
@@ -87,7 +129,10 @@ export function descend(
   const roundoff = 1e-11 * scale;
   const { gradient: g, hessian: k, step: z, rhs } = ws;
   let energy = frameEnergy(c, frame, ws, ws.order);
-  let lambda = 0;
+  // Never below MIN_SHIFT: along a flat direction (a Goldstone mode, a degenerate family) the
+  // gradient is rounding noise, and a step of noise / curvature would move the state at random.
+  const minShift = MIN_SHIFT * scale;
+  let lambda = minShift;
   let escapes = 0;
   let gmax = Infinity;
   let lastRatio = 0;
@@ -98,6 +143,7 @@ export function descend(
   // if the gradient is now below the tolerance the new point passes it too (the Hessian moved
   // by the order of the step), so the gradient alone decides.
   let trusted = false;
+  let polishing = false;
   for (let iteration = 0; iteration < options.maxIterations; iteration++) {
     if (!fresh && trusted && polished >= options.polishSteps) {
       const small = tangentGradient(c, frame, ws);
@@ -131,9 +177,7 @@ export function descend(
           };
         }
         polished++;
-        // The same tiny shift that passed the test above: Goldstone zero modes stay harmless,
-        // soft modes far above it are corrected fully.
-        lambda = 1e-11 * scale;
+        polishing = true;
       } else {
         if (!options.escapeSaddles || escapes >= 8 || !escapeSaddle(c, frame, ws, d, energy)) {
           return {
@@ -188,9 +232,16 @@ export function descend(
       }
     }
     let tries = 0;
-    while (!choleskySolve(k, d, lambda, rhs, z, ws.chol, 1e-13 * scale)) {
-      lambda = Math.max(4 * lambda, 1e-6 * scale);
-      if (++tries > 40) break;
+    if (polishing) {
+      polishing = false;
+      if (polishStep(ws, d, scale) < POLISHED) {
+        return { energy, gradient: gmax, iterations: iteration, converged: true, abandoned: false };
+      }
+    } else {
+      while (!choleskySolve(k, d, lambda, rhs, z, ws.chol, 1e-13 * scale)) {
+        lambda = Math.max(4 * lambda, 1e-6 * scale);
+        if (++tries > 40) break;
+      }
     }
     let norm = 0;
     for (let p = 0; p < d; p++) norm += z[p]! * z[p]!;
@@ -224,7 +275,7 @@ export function descend(
       // Below rounding the measured decrease is noise: trust the quadratic model there.
       const ratio = predicted > roundoff ? decrease / predicted : 1;
       trusted = passes && ratio > 0.5 && ratio < 1.5;
-      if (ratio > 0.75) lambda = lambda < 1e-10 * scale ? 0 : lambda / 4;
+      if (ratio > 0.75) lambda = Math.max(minShift, lambda / 4);
       else if (ratio < 0.25) lambda = Math.max(2 * lambda, 1e-4 * scale);
       lastRatio = norm <= MAX_STEP ? ratio : 0;
     } else {

@@ -61,8 +61,20 @@ export function finiteNumber(value: unknown, field: string): number {
   if (typeof value !== 'number' || !Number.isFinite(value)) {
     throw new ModelError(`${field}: expected a finite number, got ${describe(value)}`);
   }
+  if (Math.abs(value) > MAX_MAGNITUDE) {
+    throw new ModelError(
+      `${field}: ${value} is beyond the supported range (magnitude at most ${MAX_MAGNITUDE})`,
+    );
+  }
   return value;
 }
+
+/**
+ * Largest magnitude of any number of a model or plane (and of any coupling a plane reaches):
+ * energies, gradients and Hessians are sums of a few products of such numbers, which then stay
+ * far from overflow in double precision (largest about 1.8e308).
+ */
+export const MAX_MAGNITUDE = 1e200;
 
 function channelName(name: string, field: string): Channel {
   if (channelIndex(name) < 0) {

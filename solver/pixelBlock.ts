@@ -139,6 +139,9 @@ export function solveCells(input: MapInput, coarse: CoarseNodes, cells: CellRang
                 ? block.frames.subarray(32 * (n - width), 32 * (n - width) + 32)
                 : solver.nodeFrame(b * coarse.cols.length + a);
           solver.fromNeighbour(i, j, neighbour);
+          // The other solved neighbour (below, when the state came from the left): two branches
+          // of one label can meet between pixels, and this one may continue the lower.
+          if (i > iFirst && j > jFirst) solver.tryNeighbour(i, j, block, n - width);
           solver.certify(i, j, block);
           solver.store(block, n);
         }
@@ -174,6 +177,8 @@ class PixelSolver {
   private readonly frozen: FrozenStates;
   private readonly ws = new DescentWorkspace();
   private readonly best = new Float64Array(32);
+  private readonly trial = new Float64Array(32);
+  private readonly neighbourOrder = new Float64Array(16);
   private readonly options: DescentOptions = {
     ...DEFAULT_DESCENT,
     polishSteps: 0,
@@ -189,6 +194,8 @@ class PixelSolver {
   private readonly nodeOrders: Float64Array;
   private couplings: Couplings | undefined;
   private energy = 0;
+  /** How much the last continued state relaxed from its neighbour's (the energy it lost). */
+  private relaxation = 0;
   private converged = false;
   /** Whether `ws` holds the Hessian of `best` at this pixel (its descent just converged). */
   private fresh = false;
@@ -377,10 +384,36 @@ class PixelSolver {
     this.best.set(from);
     this.options.abandonAbove = Infinity;
     this.options.abandonNear = undefined;
+    const start = frameEnergy(c, this.best, this.ws, this.ws.order);
     const result = descend(c, this.best, this.options, this.ws);
     this.energy = result.energy;
     this.converged = result.converged;
     this.fresh = result.converged;
+    this.relaxation = Math.max(0, start - result.energy);
+  }
+
+  /**
+   * Pixel (i, j), whose state is in `best`, against the state of an already solved pixel of the
+   * same cell (slot `n` of the block): when that state, unchanged, lies lower here, a descent
+   * from it may reach a lower branch; the lower result is kept.
+   */
+  tryNeighbour(i: number, j: number, block: PixelBlock, n: number): void {
+    const c = this.at(i, j);
+    const order = this.neighbourOrder;
+    order.set(block.order.subarray(15 * n, 15 * n + 15), 1);
+    // The neighbour's state relaxes here by about as much as the left one did: allow for that
+    // (twice over) before deciding that it cannot end lower.
+    const reach = energyOfOrder(c, order) - 2 * this.relaxation;
+    if (reach >= this.energy - DEGENERACY_TOLERANCE * c.scale) return;
+    const frame = this.trial;
+    frame.set(block.frames.subarray(32 * n, 32 * n + 32));
+    const result = descend(c, frame, this.options, this.ws);
+    if (result.converged && result.energy < this.energy - DEGENERACY_TOLERANCE * c.scale) {
+      this.best.set(frame);
+      this.energy = result.energy;
+      this.converged = true;
+      this.fresh = true;
+    }
   }
 
   /**

@@ -8,6 +8,7 @@ import {
 } from './couplings';
 import { describeInput, fieldKey } from './inputText';
 import {
+  MAX_MAGNITUDE,
   ModelError,
   finiteNumber,
   isPlainObject,
@@ -42,6 +43,9 @@ export interface MapInput {
   readonly plane: Plane;
 }
 
+/** Smallest axis span accepted (a normal double-precision number, with room to spare). */
+export const MIN_SPAN = 1e-250;
+
 /** Largest grid side accepted (a 2048 x 2048 map holds 4 million states). */
 export const MAX_RESOLUTION = 2048;
 
@@ -74,13 +78,28 @@ function parseAxis(json: unknown, field: string): Axis {
   const from = finiteNumber(json.from, `${field}.from`);
   const to = finiteNumber(json.to, `${field}.to`);
   if (from === to) throw new ModelError(`${field}.to: must differ from ${field}.from`);
+  // Grid points must be distinct numbers: a span that rounding swallows would put them all at
+  // one point (or, below the smallest normal number, give no usable step at all).
+  const span = Math.abs(to - from);
+  if (span < 1e-12 * Math.max(Math.abs(from), Math.abs(to)) || span < MIN_SPAN) {
+    throw new ModelError(
+      `${field}: the range ${from} to ${to} is too narrow to resolve (its span must be at least 1e-12 of its ends and at least ${MIN_SPAN})`,
+    );
+  }
   if (!isPlainObject(json.targets) || Object.keys(json.targets).length === 0) {
     throw new ModelError(`${field}.targets: expected a non-empty object of target coefficients`);
   }
   const targets: Record<string, number> = {};
   for (const [name, coefficient] of Object.entries(json.targets)) {
     parseTarget(name, `${field}.targets`);
-    targets[name] = finiteNumber(coefficient, `${field}.targets.${name}`);
+    const value = finiteNumber(coefficient, `${field}.targets.${name}`);
+    const reach = Math.abs(value) * Math.max(Math.abs(from), Math.abs(to));
+    if (reach > MAX_MAGNITUDE) {
+      throw new ModelError(
+        `${field}.targets.${name}: coefficient ${value} times the axis end reaches ${reach.toPrecision(3)}, beyond the supported range (magnitude at most ${MAX_MAGNITUDE})`,
+      );
+    }
+    targets[name] = value;
   }
   return Object.freeze({ label, from, to, targets: Object.freeze(targets) });
 }
