@@ -1,8 +1,4 @@
 import { closeSync, openSync, readFileSync, writeSync } from 'node:fs';
-import { cutFigureSvg } from './app/figure/cutFigure';
-import { mapFigureSvg } from './app/figure/mapFigure';
-import { latticeSvg } from './app/probe/latticeSvg';
-import { probeDocument } from './app/probe/probeDocument';
 import {
   MAX_CUT_POINTS,
   QUOTED_PATH_LENGTH,
@@ -24,7 +20,10 @@ import {
   solveResultToJson,
   textChunks,
 } from './solver/index';
-import { ThreadPool } from './workers/node/threadPool';
+
+// The figure and Probe writers (d3 among them) and the worker threads are loaded only by the
+// commands that use them (dynamic imports: separate chunks of the bundle), so that `solve`
+// starts without them.
 
 const USAGE = `usage:
   fourfold solve --model FILE [--out OUT.json]
@@ -244,7 +243,11 @@ function runSolve(json: unknown): string {
  * The Probe of one model (or of each model of an array), or of the plane point `--at`; with
  * `--out`, the lattice picture of the (single) Probe as SVG. The JSON goes to stdout.
  */
-function runProbe(json: unknown, args: Args): string {
+async function runProbe(json: unknown, args: Args): Promise<string> {
+  const [{ latticeSvg }, { probeDocument }] = await Promise.all([
+    import('./app/probe/latticeSvg'),
+    import('./app/probe/probeDocument'),
+  ]);
   if (args.at !== undefined) {
     const [x, y] = args.at;
     if (!isPlainObject(json) || json.plane === undefined) {
@@ -306,8 +309,9 @@ function writeOutput(out: string, content: string | Iterable<string>): void {
 }
 
 /** A Cut along the straight line from `from` to `to` in the model's plane (one thread). */
-function runCut(json: unknown, args: Args): void {
+async function runCut(json: unknown, args: Args): Promise<void> {
   const { path, format } = outputFormat(args.out);
+  const { cutFigureSvg } = await import('./app/figure/cutFigure');
   const input = parseMapInput(json);
   const cut = computeCut(input, { kind: 'line', from: args.from!, to: args.to! }, args.n ?? 200);
   const text =
@@ -322,6 +326,10 @@ function runCut(json: unknown, args: Args): void {
 async function runMap(json: unknown, args: Args): Promise<void> {
   const { path, format } = outputFormat(args.out);
   const input = parseMapInput(json);
+  const [{ ThreadPool }, { mapFigureSvg }] = await Promise.all([
+    import('./workers/node/threadPool'),
+    import('./app/figure/mapFigure'),
+  ]);
   const pool = new ThreadPool(new URL('./mapThread.mjs', import.meta.url), args.threads);
   try {
     const map = await computePhaseMap(input, pool.stages, pool.size);
@@ -347,8 +355,8 @@ export async function main(argv: readonly string[]): Promise<number> {
       const text = runSolve(json) + '\n';
       if (args.out === undefined) process.stdout.write(text);
       else writeOutput(args.out, text);
-    } else if (args.command === 'cut') runCut(json, args);
-    else if (args.command === 'probe') process.stdout.write(runProbe(json, args));
+    } else if (args.command === 'cut') await runCut(json, args);
+    else if (args.command === 'probe') process.stdout.write(await runProbe(json, args));
     else await runMap(json, args);
     return 0;
   } catch (error) {

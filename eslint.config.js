@@ -49,7 +49,7 @@ export default defineConfig(
   },
   {
     // Node code that also hands functions to the page through Playwright.
-    files: ['test/bench/browser.mjs'],
+    files: ['test/bench/*.mjs'],
     languageOptions: {
       globals: Object.fromEntries(
         [
