@@ -37,7 +37,11 @@ function builtAt() {
   }
 }
 
-const sourcesAt = Math.max(...SOURCES.map((s) => join(repoRoot, s)).filter(existsSync).map(newest));
+const sourcesAt = Math.max(
+  ...SOURCES.map((s) => join(repoRoot, s))
+    .filter(existsSync)
+    .map(newest),
+);
 if (sourcesAt > builtAt() || !existsSync(join(outDir, 'index.html'))) {
   console.log('fresh-build: sources changed since the last build; building the app (vite build)');
   const vite = join(repoRoot, 'node_modules', 'vite', 'bin', 'vite.js');

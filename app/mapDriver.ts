@@ -67,27 +67,43 @@ export function startMapDriver(mode: MapMode = 'staged'): () => void {
         );
       return;
     }
-    store.getState().setSetupProblem(null);
+    // Only a change reaches the store (every store update runs every subscriber).
+    if (store.getState().view.setupProblem !== null) store.getState().setSetupProblem(null);
     awaitingCoarse = true;
     let coarseShown = false;
     // Results arrive in bursts of many small tasks: the store (and so React and the canvas)
-    // hears of them at most every REDRAW_MS, leaving the cores to the workers.
+    // hears of them in one update per animation frame at most, and while the map refines at
+    // most every REDRAW_MS, leaving the cores to the workers. Updating in an animation-frame
+    // callback puts the new frame on screen in that same frame.
     let queued: MapPatch | null = null;
+    let frame = 0;
+    let timer: ReturnType<typeof setTimeout> | undefined;
     const publish = () => {
+      frame = 0;
+      clearTimeout(timer);
+      timer = undefined;
       if (queued === null) return;
       const patch = queued;
       queued = null;
-      // A timer of a superseded job publishes nothing.
+      // An update of a superseded job publishes nothing.
       if (job !== scheduler?.current) return;
       // Only new grid content is a new version (what the canvas and readout redraw on).
       const version = store.getState().map.version + ('grid' in patch ? 1 : 0);
       store.getState().setMap({ ...patch, version });
     };
-    const bump = (patch: MapPatch, now = false) => {
-      const first = queued === null;
+    const nextFrame = () => {
+      if (frame === 0) frame = requestAnimationFrame(publish);
+    };
+    /** Queues `patch`; `soon`: at the next frame, otherwise within REDRAW_MS. */
+    const bump = (patch: MapPatch, soon = false) => {
       queued = { ...queued, ...patch };
-      if (now) publish();
-      else if (first) setTimeout(publish, REDRAW_MS);
+      if (soon) {
+        clearTimeout(timer);
+        timer = undefined;
+        nextFrame();
+      } else if (frame === 0 && timer === undefined) {
+        timer = setTimeout(nextFrame, REDRAW_MS);
+      }
     };
     const job = scheduler.start(
       input,

@@ -7,9 +7,10 @@ import {
 } from '../app/figure/palette';
 import { axisTitle } from '../app/map/axisTitle';
 import { drawRegions, type RegionGrid } from '../app/map/drawRegions';
-import { formatShare, legendEntries } from '../app/map/legendEntries';
+import { formatShare, labelCounts, legendEntries } from '../app/map/legendEntries';
 import { PLOT_MARGIN, PLOT_MAX, PLOT_MIN, plotSide } from '../app/map/plotFrame';
 import { pixelAtFraction } from '../app/map/plotPixels';
+import { legendOf } from '../solver/index';
 
 type Rgb = readonly [number, number, number];
 type Matrix = readonly [Rgb, Rgb, Rgb];
@@ -50,6 +51,21 @@ describe('drawRegions', () => {
         const i = Math.floor((px * 3) / 7);
         const j = 1 - Math.floor((py * 2) / 5);
         expect(hexAt(image, px, py)).toBe(TOKEN_COLOURS[CORNER_GRID.labels[j * 3 + i]!]);
+      }
+    }
+  });
+
+  test('a grid finer than the canvas shows the grid pixel of the formula at every canvas pixel', () => {
+    const tokens = ['F', 'AF', 'CAF', 'CDW', 'KD', 'SB'];
+    // 11 x 9 grid pixels on a 4 x 3 canvas, in runs of equal labels and single pixels.
+    const labels = Array.from({ length: 99 }, (_, p) => tokens[Math.floor(p / 4) % 5]!);
+    const image = blankImage(4, 3);
+    drawRegions(image, { nx: 11, ny: 9, labels });
+    for (let py = 0; py < 3; py++) {
+      for (let px = 0; px < 4; px++) {
+        const i = Math.floor((px * 11) / 4);
+        const j = 8 - Math.floor((py * 9) / 3);
+        expect(hexAt(image, px, py)).toBe(TOKEN_COLOURS[labels[j * 11 + i]!]);
       }
     }
   });
@@ -134,6 +150,19 @@ describe('legend entries', () => {
     expect(entries[1]!.colours).toEqual([TOKEN_COLOURS.CDW, TOKEN_COLOURS.SBxy]);
     expect(entries[1]!.meaning).toMatch(/^charge density wave.*; spin bond order perpendicular/);
     expect(entries[2]!.meaning).toBe('no broken symmetry');
+  });
+
+  test('label counts agree with the solver legend, runs or not, ties by name', () => {
+    const labels = ['KD', 'F', 'F', 'KD', '', 'CAF', 'CAF', 'CAF', 'F', 'KD', 'KD', 'F', ''];
+    const expected = legendOf(labels).map(({ label, pixels }) => ({ label, pixels }));
+    expect(labelCounts(labels)).toEqual(expected);
+    expect(labelCounts(labels)).toEqual([
+      { label: 'F', pixels: 4 },
+      { label: 'KD', pixels: 4 },
+      { label: 'CAF', pixels: 3 },
+      { label: '', pixels: 2 },
+    ]);
+    expect(labelCounts([])).toEqual([]);
   });
 
   test('shares read as short percentages', () => {

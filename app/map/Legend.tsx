@@ -8,15 +8,20 @@ import { Swatch } from './Swatch';
  * mean, share of the plot), then the two boundary line styles.
  */
 export function Legend() {
-  const grid = useFourfold((s) => s.map.grid);
-  // The grid is filled in place: `version` says when its labels changed. Counting 65k labels
-  // on every update would compete with the workers: recount at most a few times a second, and
-  // at once when a map is finished.
+  // The grid is filled in place, and every job fills another one: `version` says when the labels
+  // on screen changed. Counting 65k labels on every update would compete with the workers:
+  // recount at most a few times a second (a slider drag swaps grids dozens of times a second),
+  // and at once when a map is finished.
   const version = useThrottled(
     useFourfold((s) => s.map.version),
     useFourfold((s) => s.map.phase) === 'done' ? 0 : 300,
   );
-  const entries = useMemo(() => (grid === null ? [] : legendEntries(grid.labels)), [grid, version]);
+  const hasGrid = useFourfold((s) => s.map.grid !== null);
+  const entries = useMemo(() => {
+    const grid = useFourfold.getState().map.grid;
+    return grid === null ? [] : legendEntries(grid.labels);
+    // The grid is read when `version` (or its presence) changes, not on every swap.
+  }, [version, hasGrid]);
   const pending = 1 - entries.reduce((sum, entry) => sum + entry.share, 0);
   return (
     <section className="legend" data-testid="legend" aria-label="Map legend">

@@ -16,8 +16,10 @@ export interface OverlayProps {
   readonly side: number;
 }
 
+type AxisRange = Pick<Plane['x'], 'from' | 'to'>;
+
 /** Axis scales of the plot: x.from at the left edge, y.from at the bottom edge. */
-function planeScales(plane: Plane, side: number): { x: Scale; y: Scale } {
+function planeScales(plane: { x: AxisRange; y: AxisRange }, side: number): { x: Scale; y: Scale } {
   return {
     x: scaleLinear().domain([plane.x.from, plane.x.to]).range([0, side]),
     y: scaleLinear().domain([plane.y.from, plane.y.to]).range([side, 0]),
@@ -31,7 +33,18 @@ function planeScales(plane: Plane, side: number): { x: Scale; y: Scale } {
  */
 export function Overlay({ side }: OverlayProps) {
   const plane = useFourfold((s) => s.map.grid?.input.plane ?? null);
-  const scales = useMemo(() => (plane ? planeScales(plane, side) : null), [plane, side]);
+  // Every job brings a new plane object (a slider drag: dozens a second) for the same axes: the
+  // scales, and so the axes, the boundaries' path function and every layer, change only when
+  // the axes' ranges do.
+  const { from: x0, to: x1 } = plane?.x ?? {};
+  const { from: y0, to: y1 } = plane?.y ?? {};
+  const scales = useMemo(
+    () =>
+      x0 === undefined || x1 === undefined || y0 === undefined || y1 === undefined
+        ? null
+        : planeScales({ x: { from: x0, to: x1 }, y: { from: y0, to: y1 } }, side),
+    [x0, x1, y0, y1, side],
+  );
   // Every axis of a physical setup is an energy in meV (couplings at the sample's field, E_Z,
   // Delta_V).
   const unit = useFourfold((s) => (s.setup.physical ? 'meV' : null));

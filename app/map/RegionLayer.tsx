@@ -1,7 +1,15 @@
-import { useEffect, useRef, type MouseEventHandler, type PointerEventHandler } from 'react';
+import {
+  useEffect,
+  useLayoutEffect,
+  useRef,
+  useState,
+  type MouseEventHandler,
+  type PointerEventHandler,
+} from 'react';
 import type { MapGrid } from '../../solver/index';
 import { useFourfold } from '../store/index';
 import { drawRegions } from './drawRegions';
+import { frameLimiter } from './frameLimiter';
 import { PLOT_MARGIN } from './plotFrame';
 import { useDevicePixelRatio } from './useDevicePixelRatio';
 
@@ -20,7 +28,8 @@ const STRIPE_CSS_PX = 4;
 
 /**
  * The Map's filled regions on a canvas of side x devicePixelRatio device pixels, placed exactly
- * on the plot box. Redrawn at most once per animation frame after the grid changes.
+ * on the plot box. Redrawn at most once per animation frame after the grid changes (`putImageData`
+ * of a buffer kept between draws).
  */
 export function RegionLayer({
   side,
@@ -37,40 +46,33 @@ export function RegionLayer({
   const stripeWidth = Math.max(2, Math.round(STRIPE_CSS_PX * ratio));
 
   const canvasRef = useRef<HTMLCanvasElement>(null);
-  const imageRef = useRef<ImageData | null>(null);
-  const frameRef = useRef(0);
   const latestRef = useRef<{ grid: MapGrid | null; stripeWidth: number }>({
     grid: null,
     stripeWidth,
   });
-
-  useEffect(() => {
-    latestRef.current = { grid, stripeWidth };
-    // One draw per frame however often the grid changes meanwhile; it reads the latest state.
-    if (frameRef.current !== 0) return;
-    frameRef.current = requestAnimationFrame(() => {
-      frameRef.current = 0;
+  // One draw per animation frame at most, reading the latest grid; the Map driver updates the
+  // store in an animation-frame callback, so the draw lands in the frame being prepared.
+  const [limiter] = useState(() => {
+    let image: ImageData | null = null;
+    return frameLimiter(() => {
       const canvas = canvasRef.current;
       const context = canvas?.getContext('2d', { alpha: false });
       const latest = latestRef.current;
       if (!canvas || !context || latest.grid === null) return;
-      let image = imageRef.current;
       if (image === null || image.width !== canvas.width || image.height !== canvas.height) {
         image = context.createImageData(canvas.width, canvas.height);
-        imageRef.current = image;
       }
       drawRegions(image, latest.grid, { stripeWidth: latest.stripeWidth });
       context.putImageData(image, 0, 0);
     });
-  }, [grid, version, deviceSide, stripeWidth]);
+  });
 
-  useEffect(
-    () => () => {
-      cancelAnimationFrame(frameRef.current);
-      frameRef.current = 0;
-    },
-    [],
-  );
+  useLayoutEffect(() => {
+    latestRef.current = { grid, stripeWidth };
+    limiter.request();
+  }, [limiter, grid, version, deviceSide, stripeWidth]);
+
+  useEffect(() => () => limiter.cancel(), [limiter]);
 
   const plane = grid?.input.plane;
   return (

@@ -53,7 +53,9 @@ function packedColour(hex: string): number {
  * Fills `image` with the Map's regions: canvas pixel (px, py) shows grid pixel
  * i = floor(px nx / width), j = ny - 1 - floor(py ny / height). Plain labels are flat colours,
  * composite labels ('CDW+SBxy') diagonal stripes of their tokens' colours, pixels not computed
- * yet the palette's empty colour. One table lookup per grid pixel, none per canvas pixel.
+ * yet the palette's empty colour. One table lookup per grid pixel where the label changes along
+ * the grid, none per canvas pixel; a canvas row that shows the same grid row as the one above,
+ * without stripes, is a copy of it.
  */
 export function drawRegions(
   image: RegionImage,
@@ -71,37 +73,63 @@ export function drawRegions(
   const count: number[] = [];
   const colours: number[] = [];
   const styleOf = new Int32Array(nx * ny);
+  // Grid rows holding a composite label: their canvas rows differ along the stripes.
+  const striped = new Uint8Array(ny);
+  let previous: string | undefined;
+  let style = -1;
   for (let p = 0; p < nx * ny; p++) {
     const label = labels[p] ?? '';
-    let style = styleOfLabel.get(label);
-    if (style === undefined) {
-      const hexes = label === '' ? [palette.empty] : palette.coloursOf(label);
-      style = first.length;
-      styleOfLabel.set(label, style);
-      first.push(colours.length);
-      count.push(hexes.length);
-      for (const hex of hexes) colours.push(packedColour(hex));
+    if (label !== previous) {
+      previous = label;
+      const known = styleOfLabel.get(label);
+      if (known === undefined) {
+        const hexes = label === '' ? [palette.empty] : palette.coloursOf(label);
+        style = first.length;
+        styleOfLabel.set(label, style);
+        first.push(colours.length);
+        count.push(hexes.length);
+        for (const hex of hexes) colours.push(packedColour(hex));
+      } else style = known;
     }
     styleOf[p] = style;
+    if (count[style]! > 1) striped[Math.floor(p / nx)] = 1;
   }
   const firstOf = Int32Array.from(first);
   const countOf = Int32Array.from(count);
   const colourAt = Uint32Array.from(colours);
 
-  const columnOf = new Int32Array(width);
-  for (let px = 0; px < width; px++) columnOf[px] = gridColumn(px, width, nx);
+  // Canvas columns [spanStart[i], spanStart[i + 1]) show grid column i.
+  const spanStart = new Int32Array(nx + 1);
+  for (let px = 0, i = 0; px <= width; px++) {
+    const column = px === width ? nx : gridColumn(px, width, nx);
+    while (i <= column) spanStart[i++] = px;
+  }
 
   const out = new Uint32Array(image.data.buffer, image.data.byteOffset, width * height);
-  let o = 0;
-  for (let py = 0; py < height; py++) {
-    const rowStart = gridRow(py, height, ny) * nx;
-    for (let px = 0; px < width; px++, o++) {
-      const style = styleOf[rowStart + columnOf[px]!]!;
-      const n = countOf[style]!;
-      out[o] =
-        n === 1
-          ? colourAt[firstOf[style]!]!
-          : colourAt[firstOf[style]! + (Math.floor((px + py) / stripeWidth) % n)]!;
+  let shownRow = -1;
+  for (let py = 0, o = 0; py < height; py++, o += width) {
+    const row = gridRow(py, height, ny);
+    if (row === shownRow && striped[row] === 0) {
+      out.copyWithin(o, o - width, o);
+      continue;
+    }
+    shownRow = row;
+    const rowStart = row * nx;
+    // Runs of grid pixels with one style: a fill for a flat colour, stripes pixel by pixel.
+    for (let i = 0; i < nx;) {
+      const s = styleOf[rowStart + i]!;
+      let end = i + 1;
+      while (end < nx && styleOf[rowStart + end] === s) end++;
+      const from = spanStart[i]!;
+      const to = spanStart[end]!;
+      const n = countOf[s]!;
+      if (n === 1) out.fill(colourAt[firstOf[s]!]!, o + from, o + to);
+      else {
+        for (let px = from; px < to; px++) {
+          out[o + px] = colourAt[firstOf[s]! + (Math.floor((px + py) / stripeWidth) % n)]!;
+        }
+      }
+      i = end;
     }
   }
 }

@@ -1,4 +1,4 @@
-import { legendOf, TOKEN_MEANINGS } from '../../solver/index';
+import { TOKEN_MEANINGS } from '../../solver/index';
 import { labelColours } from '../figure/palette';
 
 export interface LegendEntry {
@@ -16,10 +16,34 @@ function tokenMeaning(token: string): string {
   return token === 'sym' ? 'no broken symmetry' : (TOKEN_MEANINGS[token] ?? token);
 }
 
+/**
+ * Pixels per label, largest first (ties by name), as the solver's `legendOf` orders them. One
+ * pass that looks a label up only where it differs from the previous pixel's (a Map row is
+ * mostly runs of one label), so that a live Map can recount often.
+ */
+export function labelCounts(labels: readonly string[]): { label: string; pixels: number }[] {
+  const counts = new Map<string, number>();
+  let run = labels[0];
+  let length = 0;
+  for (const label of labels) {
+    if (label === run) {
+      length++;
+      continue;
+    }
+    counts.set(run!, (counts.get(run!) ?? 0) + length);
+    run = label;
+    length = 1;
+  }
+  if (length > 0) counts.set(run!, (counts.get(run!) ?? 0) + length);
+  return [...counts]
+    .sort((a, b) => b[1] - a[1] || (a[0] < b[0] ? -1 : 1))
+    .map(([label, pixels]) => ({ label, pixels }));
+}
+
 /** One entry per computed label, largest area first (ties by name, as legendOf orders them). */
 export function legendEntries(labels: readonly string[]): LegendEntry[] {
   const total = labels.length;
-  return legendOf(labels)
+  return labelCounts(labels)
     .filter((entry) => entry.label !== '')
     .map((entry) => ({
       label: entry.label,
