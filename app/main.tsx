@@ -1,6 +1,7 @@
 import { StrictMode } from 'react';
 import { createRoot } from 'react-dom/client';
 import { App } from './App';
+import { startMapDriver } from './mapDriver';
 import './styles.css';
 import { installTestHooks } from './testHooks';
 
@@ -8,6 +9,16 @@ const container = document.getElementById('root');
 if (!container) throw new Error('index.html has no #root element');
 
 installTestHooks();
+
+/** `?baseline=cold` maps with one full search per pixel (the benchmark's baseline). */
+function mapMode(): 'staged' | 'cold' {
+  return new URLSearchParams(window.location.search).get('baseline') === 'cold' ? 'cold' : 'staged';
+}
+
+// The Map's workers start before React's first render, so that loading them overlaps it; the
+// first job waits for them and maps the setup as it is then (normally with a link's scenario
+// already applied by the first render's effects).
+startMapDriver(mapMode());
 
 createRoot(container).render(
   <StrictMode>

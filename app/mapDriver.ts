@@ -11,6 +11,8 @@ import { useFourfold, type FourfoldState } from './store/index';
 /** Performance-timeline names (read by the benchmark through Playwright). */
 export const MARK_COARSE = 'fourfold:coarse';
 export const MARK_DONE = 'fourfold:done';
+/** A mark (time since navigation) when the page first shows a complete coarse frame. */
+export const MARK_FIRST_COARSE = 'fourfold:first-coarse';
 
 /** Progressive redraws while a map refines, at most one per this many milliseconds. */
 const REDRAW_MS = 100;
@@ -118,9 +120,12 @@ export function startMapDriver(mode: MapMode = 'staged'): () => void {
           if (job !== scheduler?.current) return;
           coarseShown = true;
           const ms = performance.now() - changedAt;
-          afterPaint(() =>
-            performance.measure(MARK_COARSE, { start: changedAt, detail: { job, mode } }),
-          );
+          afterPaint(() => {
+            performance.measure(MARK_COARSE, { start: changedAt, detail: { job, mode } });
+            if (performance.getEntriesByName(MARK_FIRST_COARSE).length === 0) {
+              performance.mark(MARK_FIRST_COARSE, { detail: { job, mode } });
+            }
+          });
           bump({ grid, phase: 'refining', boundaries: [], coarseMs: ms }, true);
           awaitingCoarse = false;
           flush();

@@ -1,3 +1,4 @@
+import { groupThousands } from '../format';
 import { APP_MAX_RESOLUTION, resolutionProblem } from '../scenario/setupCheck';
 import { useFourfold } from '../store/index';
 import { commitSetup } from './commitSetup';
@@ -73,7 +74,7 @@ export function ResolutionField() {
           testId="resolution-ny"
           onCommit={(side) => commitSide(1, side)}
         />
-        <span className="setup-hint">{(nx * ny).toLocaleString('en-US')} states</span>
+        <span className="setup-hint">{groupThousands(nx * ny)} states</span>
       </div>
     </div>
   );
