@@ -48,6 +48,7 @@ export function startMapDriver(mode: MapMode = 'staged'): () => void {
     workersNoticeStays ||= event.kind !== 'replaced';
     store.getState().setMap({ workers: workerNotice(event, replacedSoFar) });
   };
+  let shownPlane: MapInput['plane'] | null = null;
 
   const launch = (setup: Setup, changedAt: number): void => {
     if (!scheduler) {
@@ -69,6 +70,11 @@ export function startMapDriver(mode: MapMode = 'staged'): () => void {
         );
       return;
     }
+    // A job whose plane is the previous one's keeps that plane object, so that what shows the
+    // plane (axes, the Probe's and the Cut's fields) sees no change while a slider is dragged.
+    if (shownPlane !== null && JSON.stringify(shownPlane) === JSON.stringify(input.plane)) {
+      input = { ...input, plane: shownPlane };
+    } else shownPlane = input.plane;
     // Only a change reaches the store (every store update runs every subscriber).
     if (store.getState().view.setupProblem !== null) store.getState().setSetupProblem(null);
     awaitingCoarse = true;

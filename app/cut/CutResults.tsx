@@ -51,11 +51,11 @@ export function Transitions() {
 /** Figure (SVG), CSV and JSON of the shown Cut. */
 export function Exports() {
   const result = useFourfold((s) => s.cut.result);
-  const setup = useFourfold((s) => s.setup);
   if (result === null) return null;
+  // The setup as it is at the click (not subscribed: it changes on every slider step).
   const input = (): ReturnType<typeof parseMapInput> | null => {
     try {
-      return parseMapInput(setupToScenario(setup));
+      return parseMapInput(setupToScenario(useFourfold.getState().setup));
     } catch {
       return null;
     }

@@ -1,4 +1,4 @@
-import { useEffect, useMemo, useRef, useState } from 'react';
+import { useEffect, useMemo, useState } from 'react';
 import { useFourfold } from '../store/index';
 import { formatShare, legendEntries } from './legendEntries';
 import { Swatch } from './Swatch';
@@ -8,14 +8,7 @@ import { Swatch } from './Swatch';
  * mean, share of the plot), then the two boundary line styles.
  */
 export function Legend() {
-  // The grid is filled in place, and every job fills another one: `version` says when the labels
-  // on screen changed. Counting 65k labels on every update would compete with the workers:
-  // recount at most a few times a second (a slider drag swaps grids dozens of times a second),
-  // and at once when a map is finished.
-  const version = useThrottled(
-    useFourfold((s) => s.map.version),
-    useFourfold((s) => s.map.phase) === 'done' ? 0 : 300,
-  );
+  const version = useRecountVersion();
   const hasGrid = useFourfold((s) => s.map.grid !== null);
   const entries = useMemo(() => {
     const grid = useFourfold.getState().map.grid;
@@ -73,22 +66,39 @@ function LineSample({ dashed }: { dashed: boolean }) {
   );
 }
 
-/** `value`, updated at most once per `ms` (immediately when `ms` is 0). */
-function useThrottled<T>(value: T, ms: number): T {
-  const [shown, setShown] = useState(value);
-  const last = useRef(0);
+/** Recount the legend at most this often (ms) while a map refines. */
+const RECOUNT_MS = 300;
+
+/**
+ * The map's `version` (it says when the labels on screen changed: the grid is filled in place,
+ * and every job fills another one), passed on at most every RECOUNT_MS while the map refines and
+ * at once when it is done. Counting 65k labels on every update would compete with the workers,
+ * and the legend re-renders only when this value changes, not on every update of the map.
+ */
+function useRecountVersion(): number {
+  const [shown, setShown] = useState(() => useFourfold.getState().map.version);
   useEffect(() => {
-    const wait = last.current + ms - performance.now();
-    if (wait <= 0) {
-      last.current = performance.now();
-      setShown(value);
-      return;
-    }
-    const timer = setTimeout(() => {
-      last.current = performance.now();
-      setShown(value);
-    }, wait);
-    return () => clearTimeout(timer);
-  }, [value, ms]);
+    let last = 0;
+    let timer: ReturnType<typeof setTimeout> | undefined;
+    const update = () => {
+      timer = undefined;
+      last = performance.now();
+      setShown(useFourfold.getState().map.version);
+    };
+    const unsubscribe = useFourfold.subscribe(({ map }, { map: before }) => {
+      if (map.version === before.version && map.phase === before.phase) return;
+      if (map.phase === 'done') {
+        clearTimeout(timer);
+        update();
+      } else if (timer === undefined) {
+        timer = setTimeout(update, Math.max(0, last + RECOUNT_MS - performance.now()));
+      }
+    });
+    update();
+    return () => {
+      unsubscribe();
+      clearTimeout(timer);
+    };
+  }, []);
   return shown;
 }

@@ -7,7 +7,7 @@ import {
   toPhysicalUnits,
   withPhysical,
 } from '../scenario/physical';
-import type { PhysicalSetup, Setup } from '../scenario/setup';
+import type { PhysicalSetup } from '../scenario/setup';
 import { useFourfold } from '../store/index';
 import { commitSetup } from './commitSetup';
 import { NumberField } from './NumberField';
@@ -210,7 +210,8 @@ function DerivedScales({ physical }: { readonly physical: PhysicalSetup }) {
 }
 
 /** What the tilt path on the Map shows, and whether it is exact. */
-function TiltNote({ setup }: { readonly setup: Setup }) {
+function TiltNote() {
+  const setup = useFourfold((s) => s.setup);
   const path = useMemo(() => tiltTrajectory(setup), [setup]);
   // The selected Probe pin can be taken as the sample whose tilt path is drawn.
   const pin = useFourfold((s) => s.probe.pins.find((p) => p.id === s.probe.selected));
@@ -252,8 +253,8 @@ function TiltNote({ setup }: { readonly setup: Setup }) {
  * meV and B_perp is chosen so that E_Z stays.
  */
 export function UnitsFields() {
-  const setup = useFourfold((s) => s.setup);
-  const physical = setup.physical ?? null;
+  // Only the units: a slider drag in the Setup changes the rest of the setup many times a second.
+  const physical = useFourfold((s) => s.setup.physical ?? null);
   return (
     <fieldset className="setup-group" data-testid="units">
       <legend>Units</legend>
@@ -299,7 +300,7 @@ export function UnitsFields() {
               <sub>X</sub> to the quasiparticle gap
             </span>
           </label>
-          <TiltNote setup={setup} />
+          <TiltNote />
           <p className="setup-hint">
             Couplings are in meV per tesla of <var>B</var>
             <sub>⊥</sub> (contact couplings grow with it); <var>E</var>
