@@ -1,9 +1,8 @@
-import { mkdirSync, writeFileSync } from 'node:fs';
-import { arch, availableParallelism, cpus, loadavg, platform } from 'node:os';
-import { join } from 'node:path';
-import { probeModel, type Model } from '../../solver/index';
+import { availableParallelism } from 'node:os';
+import { mapToJson, probeModel, type Model } from '../../solver/index';
+import { cliMapRuns, solveTimes, type CliMapRuns } from './cli';
 import { median } from './measure';
-import { MAP_RESOLUTION, cliMap, inProcessMap, naiveMapEstimate } from './map';
+import { MAP_RESOLUTION, bfgsPerPoint, inProcessMap, naiveMapEstimate } from './map';
 import { genericModels, standardModels, STANDARD_POINTS, NEIGHBOUR_STEP } from './models';
 import {
   BATCH,
@@ -19,12 +18,13 @@ import {
 import { formatDuration, formatMisses, formatTable, rowToJson, type BenchRow } from './report';
 
 /**
- * `npm run bench`: speed of our solver against a naive baseline measured in the same run
- * (test/bench/naive.ts), with the miss rate of each against a common reference. Run through
- * test/bench/run.mjs, which bundles this file with esbuild as the CLI is bundled.
+ * The Node part of `npm run bench`: the command line end to end (the targets), and the solver
+ * against a naive baseline measured in the same run (test/bench/naive.ts), with the miss rate of
+ * each against a common reference (the detail). Run through test/bench/run.mjs, which bundles
+ * this file with esbuild as the CLI is bundled.
  */
 export interface BenchOptions {
-  /** Repository root (for fourfold.mjs and test-results/). */
+  /** Repository root (for fourfold.mjs). */
   readonly root: string;
   /** Bundled workers/node/mapThread.ts. */
   readonly workerUrl: URL;
@@ -32,9 +32,40 @@ export interface BenchOptions {
   readonly workDir: string;
   /** Generic models per filling. */
   readonly models: number;
-  /** When the benchmark was bundled (ms since the epoch), to notice sources edited since. */
-  readonly bundledAt: number;
+  /** Skip the 2048 x 2048 map (minutes when it is slow). */
+  readonly quick: boolean;
 }
+
+/** A row of the target table (test/bench/targetTable.mjs). */
+export interface TargetRow {
+  readonly key: string;
+  readonly part: string;
+  readonly measurement: string;
+  readonly unit: 'ms' | 'us' | 'MB';
+  readonly value: number | null;
+  readonly outcome?: string;
+  readonly baseline: number | null;
+  readonly baselineLabel: string;
+  readonly target: { on: 'value' | 'speedup' | 'growth'; op: '<=' | '>='; limit: number };
+}
+
+export interface NodeBenchResult {
+  readonly targets: TargetRow[];
+  /** The solver detail table and its notes. */
+  readonly detail: string;
+  readonly json: Record<string, unknown>;
+}
+
+/** Targets of the command line (issue 13). */
+const SOLVE_TARGET_MS = 300;
+const MAP_256_TARGET_MS = 750;
+const MAP_2048_TARGET_MS = 20000;
+const MAP_2048_MEMORY_MB = 1024;
+const PER_POINT_SPEEDUP = 1000;
+/** A 2048 x 2048 map that runs three times its target is stopped. */
+const MAP_2048_TIMEOUT_MS = 3 * MAP_2048_TARGET_MS;
+const SOLVE_RUNS = 9;
+const CLI_MAP_RUNS = 3;
 
 /** Haar-random starts per point of the naive baseline. */
 export const NAIVE_STARTS = 32;
@@ -70,18 +101,94 @@ function probeMicrosOf(models: readonly { model: Model }[]): number {
   );
 }
 
-export async function runBenchmark(options: BenchOptions): Promise<void> {
+/** The command line's rows: `solve` of one point, the 256 and 2048 maps, the per-point time. */
+function cliTargets(
+  solve: ReturnType<typeof solveTimes>,
+  map256: CliMapRuns,
+  map2048: CliMapRuns | null,
+  naivePixelMillis: number,
+  cores: number,
+  bfgsMicros: number,
+): TargetRow[] {
+  const outcome = (m: CliMapRuns | null) =>
+    m === null ? 'skipped (--quick)' : (m.runs.find((r) => r.outcome !== 'ok')?.outcome ?? 'ok');
+  const pixels = (n: number) => n * n;
+  return [
+    {
+      key: 'cli-solve',
+      part: 'CLI',
+      measurement: `solve, one point, process start to exit (median of ${SOLVE_RUNS})`,
+      unit: 'ms',
+      value: median(solve.fourfold),
+      baseline: median(solve.tsx),
+      baselineLabel: 'cli.ts transpiled on the fly (tsx), no bundle',
+      target: { on: 'value', op: '<=', limit: SOLVE_TARGET_MS },
+    },
+    {
+      key: 'cli-map-256',
+      part: 'CLI',
+      measurement: `map 256 x 256 to JSON, start-up included (median of ${CLI_MAP_RUNS})`,
+      unit: 'ms',
+      value: Number.isFinite(map256.medianMillis) ? map256.medianMillis : null,
+      outcome: outcome(map256),
+      baseline: (naivePixelMillis * pixels(256)) / cores,
+      baselineLabel: 'naive search per pixel, extrapolated',
+      target: { on: 'value', op: '<=', limit: MAP_256_TARGET_MS },
+    },
+    {
+      key: 'cli-map-2048',
+      part: 'CLI',
+      measurement: `map 2048 x 2048 to SVG, start-up included (one run, stopped after ${MAP_2048_TIMEOUT_MS / 1000} s)`,
+      unit: 'ms',
+      value: map2048 && Number.isFinite(map2048.medianMillis) ? map2048.medianMillis : null,
+      outcome: outcome(map2048),
+      baseline: (naivePixelMillis * pixels(2048)) / cores,
+      baselineLabel: 'naive search per pixel, extrapolated',
+      target: { on: 'value', op: '<=', limit: MAP_2048_TARGET_MS },
+    },
+    {
+      key: 'cli-map-2048-memory',
+      part: 'CLI',
+      measurement: 'map 2048 x 2048, peak memory (resident, threads included)',
+      unit: 'MB',
+      value: map2048?.runs[0]?.outcome === 'ok' ? map2048.peakMegabytes : null,
+      outcome: outcome(map2048),
+      baseline: map256.peakMegabytes,
+      baselineLabel: 'the 256 x 256 map',
+      target: { on: 'value', op: '<=', limit: MAP_2048_MEMORY_MB },
+    },
+    {
+      key: 'per-point',
+      part: 'CLI',
+      measurement: 'time per point: map 256 x 256 wall / 65,536 points',
+      unit: 'us',
+      value: Number.isFinite(map256.medianMillis)
+        ? (1000 * map256.medianMillis) / pixels(256)
+        : null,
+      outcome: outcome(map256),
+      baseline: bfgsMicros,
+      baselineLabel: 'notebook-style BFGS, 8 starts, one thread',
+      target: { on: 'speedup', op: '>=', limit: PER_POINT_SPEEDUP },
+    },
+  ];
+}
+
+export async function runBenchmark(options: BenchOptions): Promise<NodeBenchResult> {
   const started = performance.now();
   const cores = availableParallelism();
-  const machine = {
-    cores,
-    cpu: cpus()[0]?.model ?? 'unknown',
-    node: process.version,
-    platform: `${platform()} ${arch()}`,
-    loadAverageAtStart: loadavg()[0]!,
-  };
-  const date = new Date().toISOString();
   const n = options.models;
+
+  log(`CLI: solve of one point, ${SOLVE_RUNS} runs each way`);
+  const solve = solveTimes(options.root, SOLVE_RUNS);
+  log(`CLI: map 256 x 256, ${CLI_MAP_RUNS} runs`);
+  const map256 = cliMapRuns(options.root, options.workDir, 256, CLI_MAP_RUNS, 'json', 120000);
+  let map2048: CliMapRuns | null = null;
+  if (!options.quick) {
+    log(`CLI: map 2048 x 2048 (stopped after ${MAP_2048_TIMEOUT_MS / 1000} s)`);
+    map2048 = cliMapRuns(options.root, options.workDir, 2048, 1, 'svg', MAP_2048_TIMEOUT_MS);
+  }
+  log('notebook-style baseline: BFGS from 8 starts per point');
+  const bfgs = bfgsPerPoint();
 
   log(`cold points, nu = 0, ${n} generic models`);
   const generic0 = genericModels(n, 0, 1);
@@ -102,8 +209,7 @@ export async function runBenchmark(options: BenchOptions): Promise<void> {
   const coldPlus = coldPoints(genericPlus, NAIVE_STARTS, 4);
   log(`map ${MAP_RESOLUTION} x ${MAP_RESOLUTION}, in process, ${MAP_RUNS} runs`);
   const mapInProcess = await inProcessMap(options.workerUrl, cores, MAP_RUNS);
-  log('map through the CLI');
-  const mapCli = cliMap(options.root, options.workDir, mapInProcess.map, options.bundledAt);
+  const cliSameAsInProcess = map256.firstOutput === JSON.stringify(mapToJson(mapInProcess.map));
   log('naive map sample');
   const naiveMap = naiveMapEstimate(NAIVE_STARTS, cores);
 
@@ -156,14 +262,6 @@ export async function runBenchmark(options: BenchOptions): Promise<void> {
       key: 'map-in-process',
       measurement: `map ${MAP_RESOLUTION}x${MAP_RESOLUTION}, in process, ${cores} threads (median of ${MAP_RUNS})`,
       oursMicroseconds: 1000 * mapInProcess.medianMillis,
-      baselineMicroseconds: 1000 * naiveMap.extrapolatedMillis,
-      baselineNote: 'extrapolated',
-      targetMicroseconds: MAP_TARGET_MICROS,
-    },
-    {
-      key: 'map-cli',
-      measurement: `map ${MAP_RESOLUTION}x${MAP_RESOLUTION}, CLI end to end (one run)`,
-      oursMicroseconds: 1000 * mapCli.millis,
       baselineMicroseconds: 1000 * naiveMap.extrapolatedMillis,
       baselineNote: 'extrapolated',
       targetMicroseconds: MAP_TARGET_MICROS,
@@ -227,33 +325,30 @@ export async function runBenchmark(options: BenchOptions): Promise<void> {
       mapInProcess.runsMillis.map((ms) => `${(ms / 1000).toFixed(2)} s`).join(', ') +
       ` (thread-pool start-up included); ${labels.size} phases (${[...labels].join(', ')}), ` +
       `${mapInProcess.map.boundaries.length} boundary polylines, ${mapInProcess.map.crossings.length} crossings.`,
-    `map CLI: node fourfold.mjs map --model F --out X.json, bundle prebuilt; output ` +
-      (mapCli.sameAsInProcess ? 'identical to' : 'DIFFERENT FROM') +
-      ' the in-process map' +
-      (mapCli.sourcesChanged
-        ? ' (the CLI sources were edited during the run: the CLI ran newer code).'
-        : '.'),
+    `map CLI (target rows): node fourfold.mjs map --model F --out X.json; output ` +
+      (cliSameAsInProcess ? 'identical to' : 'DIFFERENT FROM') +
+      ' the in-process map.',
+    `solve CLI (target row): node fourfold.mjs solve, median ${median(solve.fourfold).toFixed(0)} ms; ` +
+      `through npm run --silent solve (npm's start-up included) ${median(solve.npm).toFixed(0)} ms; ` +
+      `tsx baseline ${median(solve.tsx).toFixed(0)} ms.`,
+    `notebook-style baseline: BFGS with the analytic gradient from 8 random starts (test/bench/bfgs.ts), ` +
+      `${bfgs.points} pixels spread over the plane, median ${bfgs.medianMicros.toFixed(0)} us per point.`,
     `naive map: one naive solve per pixel, no warm start, no adaptivity, no boundary refinement;`,
     `  ${naiveMap.samplePixels} pixels spread over the plane took ${(naiveMap.sampleMillis / 1000).toFixed(2)} s on one thread,`,
     `  extrapolated to ${MAP_RESOLUTION * MAP_RESOLUTION} pixels / ${cores} cores.`,
   ];
 
-  // Other processes on the machine inflate wall times: show the 1-minute load around the run.
-  const loadAtEnd = loadavg()[0]!;
-  const title =
-    `Fourfold benchmark, ${date}\n` +
-    `machine: ${machine.cores} cores (${machine.cpu}), node ${machine.node}, ${machine.platform}; ` +
-    `load average ${machine.loadAverageAtStart.toFixed(2)} at start, ${loadAtEnd.toFixed(2)} at end`;
   const elapsed = (performance.now() - started) / 1000;
-  process.stdout.write(
-    `${title}\n\n${formatTable(rows)}\n\n${notes.join('\n')}\n\nbenchmark took ${elapsed.toFixed(0)} s\n`,
+  const detail = `${formatTable(rows)}\n\n${notes.join('\n')}\n\nNode part took ${elapsed.toFixed(0)} s`;
+  const targets = cliTargets(
+    solve,
+    map256,
+    map2048,
+    naiveMap.sampleMillis / naiveMap.samplePixels,
+    cores,
+    bfgs.medianMicros,
   );
-
-  const resultsDir = join(options.root, 'test-results');
-  mkdirSync(resultsDir, { recursive: true });
   const json = {
-    date,
-    machine: { ...machine, loadAverageAtEnd: loadAtEnd },
     naiveStarts: NAIVE_STARTS,
     missTolerance: MISS_TOLERANCE,
     referenceStarts: REFERENCE_STARTS,
@@ -277,9 +372,7 @@ export async function runBenchmark(options: BenchOptions): Promise<void> {
       resolution: MAP_RESOLUTION,
       threads: mapInProcess.threads,
       inProcessRunsMilliseconds: mapInProcess.runsMillis,
-      cliMilliseconds: mapCli.millis,
-      cliOutputSameAsInProcess: mapCli.sameAsInProcess,
-      cliSourcesEditedDuringRun: mapCli.sourcesChanged,
+      cliOutputSameAsInProcess: cliSameAsInProcess,
       phases: [...labels],
       boundaries: mapInProcess.map.boundaries.length,
       crossings: mapInProcess.map.crossings.length,
@@ -287,8 +380,13 @@ export async function runBenchmark(options: BenchOptions): Promise<void> {
       naiveSampleMilliseconds: naiveMap.sampleMillis,
       naiveExtrapolatedMilliseconds: naiveMap.extrapolatedMillis,
     },
+    cli: {
+      solveMilliseconds: solve,
+      map256: { ...map256, firstOutput: undefined },
+      map2048: map2048 && { ...map2048, firstOutput: undefined },
+      bfgsPerPoint: bfgs,
+    },
     elapsedSeconds: elapsed,
   };
-  writeFileSync(join(resultsDir, 'bench.json'), JSON.stringify(json, null, 2) + '\n');
-  log(`wrote ${join('test-results', 'bench.json')}`);
+  return { targets, detail, json };
 }

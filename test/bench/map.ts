@@ -1,17 +1,14 @@
-import { spawnSync } from 'node:child_process';
-import { readFileSync, readdirSync, statSync, writeFileSync } from 'node:fs';
-import { join } from 'node:path';
 import {
   PlaneCouplings,
   axisValue,
   computePhaseMap,
-  mapToJson,
   parseMapInput,
   type PhaseMap,
 } from '../../solver/index';
 import { ThreadPool } from '../../workers/node/threadPool';
 import { median, timed, timedAsync } from './measure';
 import { standardMapDocument } from './models';
+import { BfgsWorkspace, bfgsSolve } from './bfgs';
 import { NAIVE_DEFAULTS, NaiveWorkspace, naiveSolve } from './naive';
 
 export const MAP_RESOLUTION = 256;
@@ -49,57 +46,6 @@ export async function inProcessMap(
     map = result.value;
   }
   return { runsMillis, medianMillis: median(runsMillis), threads, map: map! };
-}
-
-export interface CliMap {
-  readonly millis: number;
-  /** The CLI wrote the same JSON as mapToJson of the in-process map. */
-  readonly sameAsInProcess: boolean;
-  /** The CLI's sources changed after the benchmark was bundled (the two ran different code). */
-  readonly sourcesChanged: boolean;
-}
-
-/** Sources the CLI bundles (as listed in fourfold.mjs). */
-const CLI_SOURCES = ['cli.ts', 'solver', 'workers/node', 'app/figure'];
-
-/** Latest modification time (ms since the epoch) of a file or of any file below a folder. */
-function newestTime(path: string): number {
-  const stat = statSync(path);
-  if (!stat.isDirectory()) return stat.mtimeMs;
-  return Math.max(0, ...readdirSync(path).map((name) => newestTime(join(path, name))));
-}
-
-/**
- * One end-to-end run of `node fourfold.mjs map --model F --out X.json` (process start, parse,
- * threads, JSON writing). The CLI's bundle is built by an untimed `--help` call first, so the
- * timed run measures the command as a user meets it on every run after the first.
- */
-export function cliMap(
-  root: string,
-  workDir: string,
-  inProcess: PhaseMap,
-  bundledAt: number,
-): CliMap {
-  const modelFile = join(workDir, 'standard-map.json');
-  const outFile = join(workDir, 'standard-map.out.json');
-  writeFileSync(modelFile, JSON.stringify(standardMapDocument(MAP_RESOLUTION)));
-  const cli = join(root, 'fourfold.mjs');
-  spawnSync(process.execPath, [cli, '--help'], { cwd: root });
-  const run = timed(() =>
-    spawnSync(process.execPath, [cli, 'map', '--model', modelFile, '--out', outFile], {
-      cwd: root,
-      encoding: 'utf8',
-    }),
-  );
-  if (run.value.status !== 0) {
-    throw new Error(`fourfold map failed (${run.value.status}): ${run.value.stderr.trim()}`);
-  }
-  const written = readFileSync(outFile, 'utf8');
-  return {
-    millis: run.millis,
-    sameAsInProcess: written === JSON.stringify(mapToJson(inProcess)),
-    sourcesChanged: Math.max(...CLI_SOURCES.map((s) => newestTime(join(root, s)))) > bundledAt,
-  };
 }
 
 export interface NaiveMapEstimate {
@@ -142,4 +88,40 @@ export function naiveMapEstimate(naiveStarts: number, threads: number): NaiveMap
     sampleMillis: sample.millis,
     extrapolatedMillis: ((sample.millis / samplePixels) * nx * ny) / threads,
   };
+}
+
+/** Pixels spread evenly over a plane of n x n: `side` per axis. */
+function spreadPixels(n: number, side: number): number[] {
+  return Array.from({ length: side }, (_, k) => Math.floor(((k + 0.5) * n) / side));
+}
+
+export interface BfgsPerPoint {
+  readonly points: number;
+  /** Median microseconds of one point (all starts) on one thread. */
+  readonly medianMicros: number;
+}
+
+/**
+ * The notebook-style baseline per point (test/bench/bfgs.ts: BFGS with the analytic gradient
+ * from 8 random starts) on `side` x `side` pixels spread over the standard plane, one thread.
+ */
+export function bfgsPerPoint(side = 8): BfgsPerPoint {
+  const input = parseMapInput(standardMapDocument(MAP_RESOLUTION));
+  const [nx, ny] = input.plane.resolution;
+  const planeCouplings = new PlaneCouplings(input);
+  const ws = new BfgsWorkspace();
+  const columns = spreadPixels(nx, side);
+  const rows = spreadPixels(ny, side);
+  const solvePixel = (i: number, j: number) =>
+    bfgsSolve(
+      planeCouplings.at(axisValue(input.plane.x, nx, i), axisValue(input.plane.y, ny, j)),
+      j * nx + i,
+      ws,
+    );
+  for (let k = 0; k < side; k++) solvePixel(columns[k]!, rows[k]!);
+  const micros: number[] = [];
+  for (const j of rows) {
+    for (const i of columns) micros.push(1000 * timed(() => solvePixel(i, j)).millis);
+  }
+  return { points: micros.length, medianMicros: median(micros) };
 }

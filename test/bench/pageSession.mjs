@@ -6,7 +6,7 @@ import { join } from 'node:path';
 import { chromium } from '@playwright/test';
 import { CHROMIUM_ARGS, CHROMIUM_EXECUTABLE } from '../../e2e/chromium.mjs';
 
-/** The interfaces.md example model and plane at 256 x 256 (the benchmark scenario). */
+/** The standard model's worked point and plane at 256 x 256 (the benchmark scenario). */
 export const SCENARIO = {
   filling: 0,
   channels: {
@@ -86,13 +86,18 @@ export function launchBrowser() {
   return chromium.launch({ executablePath: CHROMIUM_EXECUTABLE, args: CHROMIUM_ARGS });
 }
 
+/** A fresh browser context (empty cache and storage) with the benchmark's window size. */
+export function newContext(browser) {
+  return browser.newContext({ viewport: { width: 1440, height: 1000 } });
+}
+
 /**
- * A page of `browser` at `url` (with the scenario in its address) that records every main-thread
- * long task (PerformanceObserver `longtask`: tasks over 50 ms) into `window.__longTasks`.
- * Navigation is left to the caller (`gotoScenario`), so that tracing can start before it.
+ * A page in `context` that records every main-thread long task (PerformanceObserver
+ * `longtask`: tasks over 50 ms) into `window.__longTasks`. Navigation is left to the caller
+ * (`gotoScenario`), so that tracing can start before it.
  */
-export async function newObservedPage(browser) {
-  const page = await browser.newPage({ viewport: { width: 1440, height: 1000 } });
+export async function newObservedPage(context) {
+  const page = await context.newPage();
   await page.addInitScript(() => {
     window.__longTasks = [];
     new PerformanceObserver((list) => {

@@ -5,7 +5,8 @@
 // finished map), then for a 3-s pointer drag of the Zeeman slider, and prints the top entries.
 // The production build is built unminified, so that the profile names functions.
 // The raw files go to test-results/trace/ (open the .json in Chromium's Performance panel).
-//   node test/bench/trace.mjs [--dev] [--port N] [--dist DIR]
+//   node test/bench/trace.mjs [--dev] [--port N] [--dist DIR] [--root DIR --label NAME: another
+//   checkout, its files named NAME-...]
 import { execFileSync } from 'node:child_process';
 import { mkdirSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
@@ -15,6 +16,7 @@ import {
   launchBrowser,
   mapDone,
   measures,
+  newContext,
   newObservedPage,
   startServer,
 } from './pageSession.mjs';
@@ -48,7 +50,7 @@ async function recorded(browser, page, session, action) {
   return { result, trace, profile };
 }
 
-export async function traceSession({ root, dev, port, dist }) {
+export async function traceSession({ root, dev, port, dist, label }) {
   if (!dev) {
     execFileSync(
       process.execPath,
@@ -70,12 +72,12 @@ export async function traceSession({ root, dev, port, dist }) {
   }
   const server = await startServer({ root, kind: dev ? 'dev' : 'preview', port, outDir: dist });
   const browser = await launchBrowser();
-  const kind = dev ? 'dev' : 'prod';
-  const outDir = join(root, 'test-results', 'trace');
+  const kind = `${label ? `${label}-` : ''}${dev ? 'dev' : 'prod'}`;
+  const outDir = join(import.meta.dirname, '..', '..', 'test-results', 'trace');
   mkdirSync(outDir, { recursive: true });
   const report = [];
   try {
-    const page = await newObservedPage(browser);
+    const page = await newObservedPage(await newContext(browser));
     const session = await page.context().newCDPSession(page);
     const load = await recorded(browser, page, session, async () => {
       await gotoScenario(page, server.url);
@@ -107,12 +109,13 @@ export async function traceSession({ root, dev, port, dist }) {
 
 if (import.meta.url === `file://${process.argv[1]}`) {
   const args = process.argv.slice(2);
-  const root = join(import.meta.dirname, '..', '..');
+  const root = option(args, '--root', join(import.meta.dirname, '..', '..'));
   const text = await traceSession({
     root,
     dev: args.includes('--dev'),
     port: Number(option(args, '--port', process.env.FOURFOLD_E2E_PORT ?? 4318)),
     dist: option(args, '--dist', process.env.FOURFOLD_E2E_DIST ?? '../dist'),
+    label: option(args, '--label', ''),
   });
   process.stdout.write(text + '\n');
 }
