@@ -1,4 +1,4 @@
-import { useEffect, useMemo, useState } from 'react';
+import { memo, useEffect, useMemo, useState } from 'react';
 import { useFourfold } from '../store/index';
 import { formatShare, legendEntries } from './legendEntries';
 import { Swatch } from './Swatch';
@@ -23,17 +23,13 @@ export function Legend() {
       ) : (
         <ul className="legend-list">
           {entries.map((entry) => (
-            <li
+            <LegendRow
               key={entry.label}
-              className="legend-entry"
-              data-testid="legend-entry"
-              data-label={entry.label}
-            >
-              <Swatch colours={entry.colours} />
-              <span className="legend-label">{entry.label}</span>
-              <span className="legend-share">{formatShare(entry.share)}</span>
-              <span className="legend-meaning">{entry.meaning}</span>
-            </li>
+              label={entry.label}
+              colours={entry.colours.join(' ')}
+              share={formatShare(entry.share)}
+              meaning={entry.meaning}
+            />
           ))}
         </ul>
       )}
@@ -57,6 +53,32 @@ export function Legend() {
     </section>
   );
 }
+
+/**
+ * One label's row. Its props are strings, so a recount re-renders only the rows whose shown
+ * share changed (a live Map recounts several times a second).
+ */
+const LegendRow = memo(function LegendRow({
+  label,
+  colours,
+  share,
+  meaning,
+}: {
+  label: string;
+  /** The swatch colours, space-separated. */
+  colours: string;
+  share: string;
+  meaning: string;
+}) {
+  return (
+    <li className="legend-entry" data-testid="legend-entry" data-label={label}>
+      <Swatch colours={colours.split(' ')} />
+      <span className="legend-label">{label}</span>
+      <span className="legend-share">{share}</span>
+      <span className="legend-meaning">{meaning}</span>
+    </li>
+  );
+});
 
 function LineSample({ dashed }: { dashed: boolean }) {
   return (

@@ -1,8 +1,12 @@
+import { memo } from 'react';
 import type { Channel } from '../../solver/index';
 import type { AxisQuantity } from '../scenario/setup';
 
-/** Typeset name of a quantity the Setup edits or an axis sweeps (u⊥, u_z, E_Z, Δ_V, u_ab). */
-export function QuantityLabel({
+/**
+ * Typeset name of a quantity the Setup edits or an axis sweeps (u⊥, u_z, E_Z, Δ_V, u_ab).
+ * Memoised: it sits beside fields that re-render on every step of a slider.
+ */
+export const QuantityLabel = memo(function QuantityLabel({
   quantity,
   customLabel,
 }: {
@@ -47,7 +51,7 @@ export function QuantityLabel({
         </span>
       );
   }
-}
+});
 
 /**
  * The matrix of a channel, tau_a (x) sigma_b (public/notes.html#basis), with identity factors left
