@@ -2,7 +2,9 @@ import {
   DescentWorkspace,
   frameEnergy,
   hartreeFockOfOrder,
+  multiplyFrame,
   orthonormaliseFrame,
+  projectOut,
   seededRandom,
   type Couplings,
   type RandomSource,
@@ -56,38 +58,8 @@ export function energyAndGradient(
   const energy = frameEnergy(c, u, ws.descent, ws.order);
   const h = hartreeFockOfOrder(c, ws.order, ws.hamiltonian);
   // Y = H Z, then (1 - P) Y = Y - U (U^dagger Y).
-  const y = ws.hz;
-  for (let v = 0; v < nf; v++) {
-    for (let r = 0; r < 4; r++) {
-      let re = 0;
-      let im = 0;
-      for (let k = 0; k < 4; k++) {
-        const hr = h[2 * (4 * r + k)]!;
-        const hi = h[2 * (4 * r + k) + 1]!;
-        const zr = x[8 * v + 2 * k]!;
-        const zi = x[8 * v + 2 * k + 1]!;
-        re += hr * zr - hi * zi;
-        im += hr * zi + hi * zr;
-      }
-      y[8 * v + 2 * r] = re;
-      y[8 * v + 2 * r + 1] = im;
-    }
-  }
-  for (let v = 0; v < nf; v++) {
-    for (let j = 0; j < nf; j++) {
-      // <u_j, y_v>
-      let dr = 0;
-      let di = 0;
-      for (let r = 0; r < 8; r += 2) {
-        dr += u[8 * j + r]! * y[8 * v + r]! + u[8 * j + r + 1]! * y[8 * v + r + 1]!;
-        di += u[8 * j + r]! * y[8 * v + r + 1]! - u[8 * j + r + 1]! * y[8 * v + r]!;
-      }
-      for (let r = 0; r < 8; r += 2) {
-        y[8 * v + r] = y[8 * v + r]! - (dr * u[8 * j + r]! - di * u[8 * j + r + 1]!);
-        y[8 * v + r + 1] = y[8 * v + r + 1]! - (dr * u[8 * j + r + 1]! + di * u[8 * j + r]!);
-      }
-    }
-  }
+  const y = multiplyFrame(h, x, nf, ws.hz);
+  for (let v = 0; v < nf; v++) for (let j = 0; j < nf; j++) projectOut(u, j, y, 8 * v);
   // W = ((1 - P) H Z) S^-1: column v of W is sum_w column w of (1 - P) H Z times (S^-1)_wv.
   const s = gram(x, nf);
   const sInv = invertHermitian(s, nf);
