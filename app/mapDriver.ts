@@ -6,6 +6,7 @@ import { setupToScenario } from './scenario/scenario';
 import { workerNotice } from './status/workerNotice';
 import type { PoolEvent } from '../workers/workerPool';
 import type { Setup } from './scenario/setup';
+import { laterPhase } from './store/mapSlice';
 import { useFourfold, type FourfoldState } from './store/index';
 
 /** Performance-timeline names (read by the benchmark through Playwright). */
@@ -104,7 +105,12 @@ export function startMapDriver(mode: MapMode = 'staged'): () => void {
     };
     /** Queues `patch`; `soon`: at the next frame, otherwise within REDRAW_MS. */
     const bump = (patch: MapPatch, soon = false) => {
-      queued = { ...queued, ...patch };
+      // Patches of one job merge as the store merges them: the phase only moves forward.
+      const phase =
+        queued?.phase !== undefined && patch.phase !== undefined
+          ? laterPhase(queued.phase, patch.phase)
+          : (patch.phase ?? queued?.phase);
+      queued = { ...queued, ...patch, ...(phase === undefined ? {} : { phase }) };
       if (soon) {
         clearTimeout(timer);
         timer = undefined;
