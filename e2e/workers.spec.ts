@@ -71,7 +71,7 @@ test('a map worker stopped silently mid-map is replaced within seconds; the map 
   await expect(page.getByTestId('map-problem')).toHaveCount(0);
   await expect(page.getByTestId('zeeman')).toHaveValue('1.1');
   // The status of the job only moved forward (a short stage may pass between two redraws).
-  const order = ['coarse', 'refining', 'boundaries', 'done'];
+  const order = ['coarse', 'refining', 'boundaries', 'verifying', 'done'];
   const seen = await phases();
   expect(seen[0]).toBe('coarse');
   expect(seen.at(-1)).toBe('done');
