@@ -2,7 +2,8 @@ import type { Couplings } from './couplings';
 import { DEFAULT_DESCENT, descend } from './localMinimise';
 import { DescentWorkspace } from './tangentSpace';
 import { DEFAULT_MINIMISE, minimiseEnergy } from './minimise';
-import { presentGroupCount } from './orderParameters';
+import { ORDER_GROUPS, presentGroupCount } from './orderParameters';
+import { channelIndex } from './channels';
 import { ORDER_TOLERANCE, phaseLabel } from './phaseLabel';
 import { DEGENERACY_TOLERANCE, softDirections } from './degeneracy';
 import { axisValue, PlaneCouplings, type MapInput } from './plane';
@@ -140,6 +141,13 @@ export function bisectTransition(
   let gapLo: number | undefined;
   let gapHi: number | undefined;
   let third: { t: number; frame: Float64Array; label: string } | undefined;
+  // A continuous transition: the groups one end breaks and the other does not. In mean field
+  // their squared magnitude m grows linearly away from the transition, so the last two probes
+  // on the broken side extrapolate to its position (a secant step, much faster than halving).
+  const broken = brokenChannels(nearEnd.frame, farEnd.frame, nf);
+  const brokenLabel = broken === undefined ? undefined : broken.nearBroken ? near : far;
+  const samples: { t: number; m: number }[] = [];
+  let sampleCount = 0;
   const probe = (t: number): void => {
     if (third !== undefined) return;
     const c = at(t);
@@ -150,6 +158,16 @@ export function bisectTransition(
     const b = descend(c, branchFar, branch, ws);
     let frame: Float64Array;
     let difference: number | undefined;
+    // Two distinct critical points (minima, or a branch that has become a saddle beyond the
+    // transition, as a rigid state past a level crossing is): the root of their energy
+    // difference is the first-order transition, found by regula falsi below.
+    const critical = 1e-9 * c.scale;
+    if (!(a.converged && b.converged) && a.gradient <= critical && b.gradient <= critical) {
+      let distance = 0;
+      for (let k = 1; k < 16; k++)
+        distance = Math.max(distance, Math.abs(orderA[k]! - ws.order[k]!));
+      if (distance > FIRST_ORDER_JUMP) difference = a.energy - b.energy;
+    }
     if (a.converged && b.converged) {
       let distance = 0;
       for (let k = 1; k < 16; k++)
@@ -193,6 +211,13 @@ export function bisectTransition(
         return;
       }
     }
+    if (broken !== undefined && label === brokenLabel) {
+      let m = 0;
+      for (const k of broken.channels) m += orderNear[k]! * orderNear[k]!;
+      samples.push({ t, m });
+      sampleCount++;
+      if (samples.length > 3) samples.shift();
+    }
     if (label === near) {
       lo = t;
       frameNear = Float64Array.from(frame);
@@ -202,6 +227,36 @@ export function bisectTransition(
       frameFar = Float64Array.from(frame);
       gapHi = difference !== undefined && difference > 0 ? difference : undefined;
     }
+  };
+  // The secant's root, when it lies inside the bracket or on the bracket's broken end (where
+  // the transition sits when a probe hit it exactly); elsewhere the bracket is halved.
+  const secantRoot = (): number => {
+    const n = samples.length;
+    const s1 = samples[n - 2]!;
+    const s2 = samples[n - 1]!;
+    if (n === 3) {
+      // Inverse quadratic interpolation t(m) through three samples, at m = 0 (as in Brent's
+      // method; Brent, Algorithms for Minimization without Derivatives, Prentice-Hall (1973)):
+      // it follows the curvature of m(t) that makes a secant overshoot.
+      const s0 = samples[0]!;
+      if (s0.m !== s1.m && s0.m !== s2.m) {
+        return (
+          (s0.t * s1.m * s2.m) / ((s0.m - s1.m) * (s0.m - s2.m)) +
+          (s1.t * s0.m * s2.m) / ((s1.m - s0.m) * (s1.m - s2.m)) +
+          (s2.t * s0.m * s1.m) / ((s2.m - s0.m) * (s2.m - s1.m))
+        );
+      }
+    }
+    return s2.t - (s2.m * (s2.t - s1.t)) / (s2.m - s1.m);
+  };
+  // Each pair of samples is used once: when its probes both land on the symmetric side (the
+  // bending curve makes the secant overshoot that way), the next step halves the bracket.
+  let usedSamples = -1;
+  const secantInside = (): boolean => {
+    if (usedSamples === sampleCount) return false;
+    const root = secantRoot();
+    const brokenAtHigh = brokenLabel === far;
+    return (root > lo && root < hi) || (brokenAtHigh ? root <= lo : root >= hi);
   };
   for (let guard = 0; hi - lo > tolerance && guard < 200 && third === undefined; guard++) {
     if (gapLo !== undefined && gapHi !== undefined) {
@@ -213,6 +268,24 @@ export function bisectTransition(
       probe(Math.min(hi - margin, Math.max(lo + margin, estimate - 0.4 * tolerance)));
       if (hi - lo > tolerance) {
         const second = Math.min(hi - margin, Math.max(lo + margin, estimate + 0.4 * tolerance));
+        if (second > lo && second < hi) probe(second);
+      }
+      if (hi - lo > width / 2) probe((lo + hi) / 2);
+    } else if (
+      samples.length >= 2 &&
+      samples[samples.length - 2]!.m !== samples[samples.length - 1]!.m &&
+      secantInside()
+    ) {
+      // Secant on m(t) through the two latest broken-side probes, then two probes just either
+      // side of its root; bisection where that did not halve the bracket.
+      const width = hi - lo;
+      const estimate = secantRoot();
+      usedSamples = sampleCount;
+      const margin = 0.01 * tolerance;
+      const clamp = (u: number): number => Math.min(hi - margin, Math.max(lo + margin, u));
+      probe(clamp(estimate - 0.4 * tolerance));
+      if (hi - lo > tolerance) {
+        const second = clamp(estimate + 0.4 * tolerance);
         if (second > lo && second < hi) probe(second);
       }
       if (hi - lo > width / 2) probe((lo + hi) / 2);
@@ -295,6 +368,34 @@ export function locateTransitions(
   };
   visit(0, 1, nearEnd, farEnd, 0);
   return out;
+}
+
+/**
+ * Channels of the order-parameter groups present at exactly one end (and whether that end is
+ * the near one), when only one end has groups the other lacks: the order parameter of a
+ * continuous transition between them. Undefined otherwise.
+ */
+function brokenChannels(
+  near: Float64Array,
+  far: Float64Array,
+  nf: number,
+): { channels: number[]; nearBroken: boolean } | undefined {
+  const p = new Float64Array(32);
+  const on = orderOfProjector(projectorOf(near, nf, p), new Float64Array(16));
+  const of = orderOfProjector(projectorOf(far, nf, p), new Float64Array(16));
+  const onlyNear: number[] = [];
+  const onlyFar: number[] = [];
+  for (const group of ORDER_GROUPS) {
+    const indices = group.channels.map(channelIndex);
+    const size = (o: Float64Array): number => Math.hypot(...indices.map((k) => o[k]!));
+    const inNear = size(on) > ORDER_TOLERANCE;
+    const inFar = size(of) > ORDER_TOLERANCE;
+    if (inNear && !inFar) onlyNear.push(...indices);
+    if (inFar && !inNear) onlyFar.push(...indices);
+  }
+  if (onlyNear.length > 0 && onlyFar.length === 0) return { channels: onlyNear, nearBroken: true };
+  if (onlyFar.length > 0 && onlyNear.length === 0) return { channels: onlyFar, nearBroken: false };
+  return undefined;
 }
 
 /** Whether `order` lies closer (max norm) to the state of frame `a` than to that of `b`. */
