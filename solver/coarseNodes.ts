@@ -26,9 +26,13 @@ import { axisValue, PlaneCouplings, type MapInput } from './plane';
  */
 export const COARSE_SEARCH: MinimiseOptions = DEFAULT_MINIMISE;
 
-/** Coarse node spacing: about 32 nodes along the longer side, at least every 2nd pixel. */
+/**
+ * Coarse node spacing: about 16 nodes along the longer side, at least every 2nd pixel. Every
+ * pixel between them is certified on its own (see `solveCells`), so the nodes need not be
+ * dense; fewer nodes are fewer full searches.
+ */
 export function coarseStride(nx: number, ny: number): number {
-  return Math.max(2, Math.ceil(Math.max(nx, ny) / 32));
+  return Math.max(2, Math.ceil(Math.max(nx, ny) / 16));
 }
 
 /** Pixel indices of coarse nodes along one side: 0, s, 2s, ... and n - 1. */
