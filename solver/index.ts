@@ -29,7 +29,13 @@ export { seededRandom, type RandomSource } from './random';
 export { randomFrame } from './seeds';
 export { orderOfProjector, projectorOf, hartreeFockOfOrder } from './state';
 export { DEFAULT_DESCENT, descend, type DescentOptions, type DescentResult } from './localMinimise';
-export { DescentWorkspace, frameEnergy, tangentDimension, tangentModel } from './tangentSpace';
+export {
+  DescentWorkspace,
+  frameEnergy,
+  retract,
+  tangentDimension,
+  tangentModel,
+} from './tangentSpace';
 export {
   DEFAULT_MINIMISE,
   minimiseEnergy,
