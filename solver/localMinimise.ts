@@ -37,6 +37,12 @@ export interface DescentOptions {
   abandonAbove: number;
   /** Order parameters of the best minimum so far: a run that nears it is abandoned too. */
   abandonNear?: Float64Array | undefined;
+  /**
+   * Stop after an accepted Newton step shorter than this (tangent norm) from a point that
+   * passed the minimum test, when the quadratic model predicted it well (see `descend`):
+   * for continuing a state from a nearby point, where one step is enough.
+   */
+  readonly singleStep?: number;
 }
 
 export const DEFAULT_DESCENT: DescentOptions = {
@@ -275,6 +281,27 @@ export function descend(
       // Below rounding the measured decrease is noise: trust the quadratic model there.
       const ratio = predicted > roundoff ? decrease / predicted : 1;
       trusted = passes && ratio > 0.5 && ratio < 1.5;
+      // One short Newton step from a state that passed the minimum test, predicted well by the
+      // quadratic model, whose predicted decrease is below 1e-12 of the scale: the start was
+      // already that close to the minimum in energy, and the new state is closer, so a caller
+      // that continues a state from a nearby point may stop here.
+      if (
+        options.singleStep !== undefined &&
+        passes &&
+        norm < options.singleStep &&
+        predicted <= 1e-12 * scale &&
+        ratio > 0.5 &&
+        ratio < 1.5 &&
+        polished >= options.polishSteps
+      ) {
+        return {
+          energy,
+          gradient: gmax,
+          iterations: iteration + 1,
+          converged: true,
+          abandoned: false,
+        };
+      }
       if (ratio > 0.75) lambda = Math.max(minShift, lambda / 4);
       else if (ratio < 0.25) lambda = Math.max(2 * lambda, 1e-4 * scale);
       lastRatio = norm <= MAX_STEP ? ratio : 0;

@@ -1,5 +1,5 @@
 import { energyOfOrder, type Couplings } from './couplings';
-import { DEGENERACY_TOLERANCE, settleDegenerate, softDirections } from './degeneracy';
+import { DEGENERACY_TOLERANCE, sameState, settleDegenerate, softDirections } from './degeneracy';
 import { FrozenStates, MAX_CELL_STATES } from './frozenStates';
 import { searchGroundState } from './groundSearch';
 import { orderOfProjector, projectorOf } from './state';
@@ -8,7 +8,7 @@ import { DEFAULT_DESCENT, descend, type DescentOptions } from './localMinimise';
 import { DescentWorkspace, frameEnergy, tangentGradient } from './tangentSpace';
 import { DEFAULT_MINIMISE, minimiseEnergy } from './minimise';
 import { presentGroupCount } from './orderParameters';
-import { ORDER_TOLERANCE } from './phaseLabel';
+import { ORDER_TOLERANCE, phaseLabel } from './phaseLabel';
 import { axisValue, PlaneCouplings, type MapInput } from './plane';
 import { PixelScratch, summarise } from './stateSummary';
 
@@ -138,11 +138,17 @@ export function solveCells(input: MapInput, coarse: CoarseNodes, cells: CellRang
               : j > jFirst
                 ? block.frames.subarray(32 * (n - width), 32 * (n - width) + 32)
                 : solver.nodeFrame(b * coarse.cols.length + a);
+          const neighbourLabel =
+            i > iFirst
+              ? block.labels[n - 1]!
+              : j > jFirst
+                ? block.labels[n - width]!
+                : coarse.labels[b * coarse.cols.length + a]!;
           solver.fromNeighbour(i, j, neighbour);
           // The other solved neighbour (below, when the state came from the left): two branches
           // of one label can meet between pixels, and this one may continue the lower.
           if (i > iFirst && j > jFirst) solver.tryNeighbour(i, j, block, n - width);
-          solver.certify(i, j, block);
+          solver.certify(i, j, block, [], neighbourLabel);
           solver.store(block, n);
         }
       }
@@ -158,6 +164,15 @@ export function solveCells(input: MapInput, coarse: CoarseNodes, cells: CellRang
  * transition. The same as the global search's.
  */
 const PIXEL_TOLERANCE = 1e-10;
+
+/**
+ * A pixel continued from a neighbour stops after one Newton step shorter than this (see
+ * `DescentOptions.singleStep`): its energy is then exact to about 1e-11 of the scale.
+ */
+const PIXEL_SINGLE_STEP = 2e-3;
+
+/** Branch states whose order parameters agree to this (max norm) are one state, not a tie. */
+const TIE_DISTANCE = 1e-5;
 
 /** Corner order parameters that agree to this hold one state (see `rigidCell`). */
 const RIGID_ORDER = 1e-12;
@@ -183,6 +198,7 @@ class PixelSolver {
     ...DEFAULT_DESCENT,
     polishSteps: 0,
     gradientTolerance: PIXEL_TOLERANCE,
+    singleStep: PIXEL_SINGLE_STEP,
   };
   private readonly continuation: DescentOptions = {
     ...DEFAULT_DESCENT,
@@ -408,6 +424,8 @@ class PixelSolver {
     const frame = this.trial;
     frame.set(block.frames.subarray(32 * n, 32 * n + 32));
     const result = descend(c, frame, this.options, this.ws);
+    // The workspace now holds the trial's Hessian, not the pixel's.
+    this.fresh = false;
     if (result.converged && result.energy < this.energy - DEGENERACY_TOLERANCE * c.scale) {
       this.best.set(frame);
       this.energy = result.energy;
@@ -421,19 +439,31 @@ class PixelSolver {
    * converged minimum or a fixed state lies below it, the pixel gets the full search of a
    * single point instead (counted in the block).
    */
-  certify(i: number, j: number, block: PixelBlock, ties: readonly Float64Array[] = []): void {
+  certify(
+    i: number,
+    j: number,
+    block: PixelBlock,
+    ties: readonly Float64Array[] = [],
+    expectedLabel?: string,
+  ): void {
     const c = this.at(i, j);
     const [nx, ny] = this.input.plane.resolution;
     const x = axisValue(this.input.plane.x, nx, i);
     const y = axisValue(this.input.plane.y, ny, j);
     const lower = this.frozen.below(x, y, this.energy, c.scale);
     if (lower === undefined && this.converged) {
-      // A degenerate state (a soft family, or a tie between branches): the member the
-      // vanishing fields select, as the single-point search reports it.
-      if (
-        ties.length > 0 ||
-        (!this.rigid && softDirections(c, this.best, this.ws, this.fresh) > 0)
-      ) {
+      // A tie between branches (two states at one energy), or a state whose label differs from
+      // the neighbour it was continued from and that sits in a degenerate family: the member
+      // the vanishing fields select, as the single-point search reports it. (A state continued
+      // inside a family otherwise keeps its neighbour's member: every chain of continuation
+      // starts at a coarse node, which is the search's representative, and descents do not
+      // drift along a flat direction.)
+      const moved =
+        expectedLabel !== undefined &&
+        !this.rigid &&
+        this.labelOfBest(c) !== expectedLabel &&
+        softDirections(c, this.best, this.ws, this.fresh) > 0;
+      if (ties.length > 0 || moved) {
         this.best.set(settleDegenerate(c, [this.best, ...ties], this.energy, this.ws));
         this.at(i, j);
       }
@@ -550,8 +580,15 @@ class PixelSolver {
           if (
             slot !== pick &&
             store.converged[slot] === 1 &&
-            store.energy[slot]! <= this.energy + DEGENERACY_TOLERANCE * scale
+            store.energy[slot]! <= this.energy + DEGENERACY_TOLERANCE * scale &&
+            !sameState(
+              store.frames.subarray(32 * slot, 32 * slot + 32),
+              this.best,
+              this.nf,
+              TIE_DISTANCE,
+            )
           ) {
+            // Another state at the same energy (branches that reached one state are no tie).
             ties.push(store.frames.subarray(32 * slot, 32 * slot + 32));
           }
         }
@@ -571,6 +608,13 @@ class PixelSolver {
       };
     }
     return this.branchBuffers;
+  }
+
+  /** The label of the state in `best` at couplings `c`. */
+  private labelOfBest(c: Couplings): string {
+    const s = this.scratch;
+    orderOfProjector(projectorOf(this.best, this.nf, s.projector), s.order);
+    return phaseLabel(s.order, c);
   }
 
   /** Writes the state just solved into slot n of the block. */
