@@ -97,7 +97,12 @@ export interface CellRange {
  * Every cell depends only on its own corners, so any grouping of cells into calls gives the same
  * numbers bit for bit.
  */
-export function solveCells(input: MapInput, coarse: CoarseNodes, cells: CellRange): PixelBlock {
+export function solveCells(
+  input: MapInput,
+  coarse: CoarseNodes,
+  cells: CellRange,
+  options: PixelOptions = {},
+): PixelBlock {
   const { a0, b0, a1, b1 } = cells;
   const [nx, ny] = input.plane.resolution;
   const [i0, iEnd] = [cellSpan(coarse.cols, a0, nx)[0], cellSpan(coarse.cols, a1 - 1, nx)[1]];
@@ -105,7 +110,7 @@ export function solveCells(input: MapInput, coarse: CoarseNodes, cells: CellRang
   const width = iEnd - i0;
   const height = jEnd - j0;
   const block = emptyBlock(i0, j0, width, height);
-  const solver = new PixelSolver(input, coarse);
+  const solver = new PixelSolver(input, coarse, options.certificate ?? true);
   for (let b = b0; b < b1; b++) {
     const [jFirst, jLast] = cellSpan(coarse.rows, b, ny);
     for (let a = a0; a < a1; a++) {
@@ -179,6 +184,15 @@ interface BranchStore {
   groups: Uint8Array;
 }
 
+export interface PixelOptions {
+  /**
+   * false skips every pixel's certificate (the fixed-state bound, the search it can call and the
+   * settling of degenerate pixels): pixels are then only continued from their neighbours. For
+   * measuring what the certificate costs (`npm run bench`); never for a map that is shown.
+   */
+  readonly certificate?: boolean;
+}
+
 /** The allocation-free per-pixel work of stage 2. */
 class PixelSolver {
   private readonly nf: number;
@@ -216,6 +230,7 @@ class PixelSolver {
   constructor(
     private readonly input: MapInput,
     private readonly coarse: CoarseNodes,
+    private readonly certificate: boolean,
   ) {
     this.nf = input.model.filling + 2;
     this.planeCouplings = new PlaneCouplings(input);
@@ -434,6 +449,7 @@ class PixelSolver {
    * single point instead (counted in the block).
    */
   certify(i: number, j: number, block: PixelBlock, ties: readonly Float64Array[] = []): void {
+    if (!this.certificate) return;
     const c = this.at(i, j);
     const [nx, ny] = this.input.plane.resolution;
     const x = axisValue(this.input.plane.x, nx, i);
@@ -572,7 +588,10 @@ class PixelSolver {
               TIE_DISTANCE,
             )
           ) {
-            // Another state at the same energy (branches that reached one state are no tie).
+            // Another state at the same energy (branches that reached one state are no tie;
+            // two members of one orbit of the model's exact rotations are: settling them costs
+            // time on maps with U(1) orbits, but where the orbit meets another family at one
+            // energy it is what finds the member the single-point search reports).
             ties.push(store.frames.subarray(32 * slot, 32 * slot + 32));
           }
         }
@@ -652,7 +671,7 @@ export function solvePixelList(
   const [nx, ny] = input.plane.resolution;
   const count = pixels.length;
   const block = emptyBlock(0, 0, count, 1);
-  const solver = new PixelSolver(input, coarse);
+  const solver = new PixelSolver(input, coarse, true);
   const width = coarse.cols.length;
   for (let n = 0; n < count; n++) {
     const i = pixels[n]! % nx;

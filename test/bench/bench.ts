@@ -2,7 +2,13 @@ import { availableParallelism } from 'node:os';
 import { mapToJson, probeModel, type Model } from '../../solver/index';
 import { cliMapRuns, solveTimes, type CliMapRuns } from './cli';
 import { median } from './measure';
-import { MAP_RESOLUTION, bfgsPerPoint, inProcessMap, naiveMapEstimate } from './map';
+import {
+  MAP_RESOLUTION,
+  bfgsPerPoint,
+  certificateCost,
+  inProcessMap,
+  naiveMapEstimate,
+} from './map';
 import { genericModels, standardModels, STANDARD_POINTS, NEIGHBOUR_STEP } from './models';
 import {
   BATCH,
@@ -66,6 +72,8 @@ const PER_POINT_SPEEDUP = 1000;
 const MAP_2048_TIMEOUT_MS = 3 * MAP_2048_TARGET_MS;
 const SOLVE_RUNS = 9;
 const CLI_MAP_RUNS = 3;
+/** Seeded random maps (128 x 128) besides the standard one in the certificate's cost. */
+const CERTIFICATE_RANDOM_MAPS = 6;
 
 /** Haar-random starts per point of the naive baseline. */
 export const NAIVE_STARTS = 32;
@@ -210,6 +218,8 @@ export async function runBenchmark(options: BenchOptions): Promise<NodeBenchResu
   log(`map ${MAP_RESOLUTION} x ${MAP_RESOLUTION}, in process, ${MAP_RUNS} runs`);
   const mapInProcess = await inProcessMap(options.workerUrl, cores, MAP_RUNS);
   const cliSameAsInProcess = map256.firstOutput === JSON.stringify(mapToJson(mapInProcess.map));
+  log('certificate cost: pixel stage with and without it');
+  const certificate = certificateCost(CERTIFICATE_RANDOM_MAPS);
   log('naive map sample');
   const naiveMap = naiveMapEstimate(NAIVE_STARTS, cores);
 
@@ -333,6 +343,15 @@ export async function runBenchmark(options: BenchOptions): Promise<NodeBenchResu
       `tsx baseline ${median(solve.tsx).toFixed(0)} ms.`,
     `notebook-style baseline: BFGS with the analytic gradient from 8 random starts (test/bench/bfgs.ts), ` +
       `${bfgs.points} pixels spread over the plane, median ${bfgs.medianMicros.toFixed(0)} us per point.`,
+    `certificate (every pixel's check that no fixed state lies below it, the full search it calls,`,
+    `  the settling of degenerate pixels): pixel stage on one thread from the same coarse nodes,`,
+    `  median of 3, with / without it; pixels sent to a full search:`,
+    ...certificate.map(
+      (c) =>
+        `  ${c.name}: ${c.withMillis.toFixed(0)} ms / ${c.withoutMillis.toFixed(0)} ms ` +
+        `(x${(c.withMillis / c.withoutMillis).toFixed(2)}); searched ${c.searched} of ${c.pixels} ` +
+        `(${((100 * c.searched) / c.pixels).toFixed(3)} %)`,
+    ),
     `naive map: one naive solve per pixel, no warm start, no adaptivity, no boundary refinement;`,
     `  ${naiveMap.samplePixels} pixels spread over the plane took ${(naiveMap.sampleMillis / 1000).toFixed(2)} s on one thread,`,
     `  extrapolated to ${MAP_RESOLUTION * MAP_RESOLUTION} pixels / ${cores} cores.`,
@@ -380,6 +399,7 @@ export async function runBenchmark(options: BenchOptions): Promise<NodeBenchResu
       naiveSampleMilliseconds: naiveMap.sampleMillis,
       naiveExtrapolatedMilliseconds: naiveMap.extrapolatedMillis,
     },
+    certificate,
     cli: {
       solveMilliseconds: solve,
       map256: { ...map256, firstOutput: undefined },

@@ -1,8 +1,14 @@
 import {
+  CHANNELS,
+  MapGrid,
   PlaneCouplings,
   axisValue,
   computePhaseMap,
+  nodeRange,
   parseMapInput,
+  seededRandom,
+  solveCells,
+  solveCoarseNodes,
   type PhaseMap,
 } from '../../solver/index';
 import { ThreadPool } from '../../workers/node/threadPool';
@@ -124,4 +130,85 @@ export function bfgsPerPoint(side = 8): BfgsPerPoint {
     for (const i of columns) micros.push(1000 * timed(() => solvePixel(i, j)).millis);
   }
   return { points: micros.length, medianMicros: median(micros) };
+}
+
+export interface CertificateCost {
+  readonly name: string;
+  readonly pixels: number;
+  /** Pixels the certificate sent to a full single-point search. */
+  readonly searched: number;
+  /** Median milliseconds of the pixel stage (one thread, the same coarse nodes) with and without. */
+  readonly withMillis: number;
+  readonly withoutMillis: number;
+}
+
+/**
+ * What the per-pixel certificate costs: the pixel stage of the standard map and of seeded random
+ * maps (2 to 15 channels, H != F, a field on an axis) timed with and without it on one thread
+ * from the same coarse nodes, and how many pixels it sent to a full search.
+ */
+export function certificateCost(randomMaps: number, runs = 3): CertificateCost[] {
+  const documents: { name: string; document: Record<string, unknown> }[] = [
+    {
+      name: `standard ${MAP_RESOLUTION}x${MAP_RESOLUTION}`,
+      document: standardMapDocument(MAP_RESOLUTION),
+    },
+  ];
+  const random = seededRandom(7);
+  const uniform = (from: number, to: number): number => from + (to - from) * random();
+  for (let m = 0; m < randomMaps; m++) {
+    const names = [...CHANNELS].filter(() => random() < 0.3).slice(0, 15);
+    if (names.length < 2) names.push('x0', 'z0');
+    const channels: Record<string, { hartree: number; fock: number }> = {};
+    for (const name of names) channels[name] = { hartree: uniform(-1, 1), fock: uniform(-1, 1) };
+    const [xName, yName] = [names[0]!, names[1]!];
+    const filling = ([-1, 0, 1] as const)[m % 3];
+    documents.push({
+      name: `random #${m + 1} (nu=${filling}, ${names.length} channels) 128x128`,
+      document: {
+        filling,
+        channels,
+        zeeman: uniform(0, 0.5),
+        valleyZeeman: uniform(-0.2, 0.2),
+        plane: {
+          x: {
+            from: -1.5,
+            to: 1.5,
+            targets: { [`${xName}.fock`]: 1, [`${xName}.hartree`]: uniform(-1.5, 1.5) },
+          },
+          y:
+            m % 2 === 0
+              ? { from: 0, to: 1, targets: { zeeman: 1 } }
+              : { from: -1.5, to: 1.5, targets: { [`${yName}.fock`]: 1 } },
+          resolution: [128, 128],
+        },
+      },
+    });
+  }
+  return documents.map(({ name, document }) => {
+    const input = parseMapInput(document);
+    const grid = new MapGrid(input);
+    grid.placeCoarse(solveCoarseNodes(input, nodeRange(0, grid.nodeCount)));
+    const coarse = grid.coarseNodes();
+    const cells = { a0: 0, b0: 0, a1: grid.cols.length - 1, b1: grid.rows.length - 1 };
+    let searched = 0;
+    const timesWith: number[] = [];
+    const timesWithout: number[] = [];
+    for (let run = 0; run < runs; run++) {
+      timesWith.push(
+        timed(() => (searched = solveCells(input, coarse, cells).searched[0]!)).millis,
+      );
+      timesWithout.push(
+        timed(() => solveCells(input, coarse, cells, { certificate: false })).millis,
+      );
+    }
+    const [nx, ny] = input.plane.resolution;
+    return {
+      name,
+      pixels: nx * ny,
+      searched,
+      withMillis: median(timesWith),
+      withoutMillis: median(timesWithout),
+    };
+  });
 }
