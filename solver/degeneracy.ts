@@ -8,6 +8,8 @@ import { energyOfOrder } from './couplings';
 import { ORDER_GROUPS, presentGroupCount } from './orderParameters';
 import { seedLibrary } from './seeds';
 import { ORDER_TOLERANCE, phaseLabel } from './phaseLabel';
+import { canonicaliseOrbit } from './orbitGauge';
+import type { ModelSymmetry } from './symmetry';
 import { orderOfProjector, projectorOf } from './state';
 import { DescentWorkspace, frameEnergy, tangentDimension, tangentModel } from './tangentSpace';
 
@@ -328,11 +330,27 @@ export function selectRepresentative(
   };
 }
 
-/** Whether two frames describe the same state up to the tolerance of their order parameters. */
-export function sameState(a: Float64Array, b: Float64Array, nf: number, tolerance = 1e-6): boolean {
+/**
+ * Whether two frames describe the same state up to the tolerance of their order parameters
+ * (with `symmetry`, up to the model's exact rotations about the field and about tau_z).
+ */
+export function sameState(
+  a: Float64Array,
+  b: Float64Array,
+  nf: number,
+  tolerance = 1e-6,
+  symmetry?: ModelSymmetry,
+): boolean {
   const p = new Float64Array(32);
-  const oa = orderOfProjector(projectorOf(a, nf, p), new Float64Array(16));
-  const ob = orderOfProjector(projectorOf(b, nf, p), new Float64Array(16));
+  // Up to the exact rotations about the field and about tau_z (one orbit is one state here).
+  const fa = Float64Array.from(a);
+  const fb = Float64Array.from(b);
+  if (symmetry !== undefined) {
+    canonicaliseOrbit(fa, nf, symmetry);
+    canonicaliseOrbit(fb, nf, symmetry);
+  }
+  const oa = orderOfProjector(projectorOf(fa, nf, p), new Float64Array(16));
+  const ob = orderOfProjector(projectorOf(fb, nf, p), new Float64Array(16));
   for (let k = 1; k < 16; k++) if (Math.abs(oa[k]! - ob[k]!) > tolerance) return false;
   return true;
 }

@@ -9,6 +9,7 @@ import { DescentWorkspace, frameEnergy, tangentGradient } from './tangentSpace';
 import { DEFAULT_MINIMISE, minimiseEnergy } from './minimise';
 import { presentGroupCount } from './orderParameters';
 import { ORDER_TOLERANCE } from './phaseLabel';
+import { modelSymmetry } from './symmetry';
 import { axisValue, PlaneCouplings, type MapInput } from './plane';
 import { PixelScratch, summarise } from './stateSummary';
 
@@ -448,7 +449,13 @@ class PixelSolver {
    * converged minimum or a fixed state lies below it, the pixel gets the full search of a
    * single point instead (counted in the block).
    */
-  certify(i: number, j: number, block: PixelBlock, ties: readonly Float64Array[] = []): void {
+  certify(
+    i: number,
+    j: number,
+    block: PixelBlock,
+    ties: readonly Float64Array[] = [],
+    orbitTie = false,
+  ): void {
     if (!this.certificate) return;
     const c = this.at(i, j);
     const [nx, ny] = this.input.plane.resolution;
@@ -463,7 +470,7 @@ class PixelSolver {
       // tolerance (E_Z = 1e-6 near the KD/CAF line, energies 3e-13 apart), a continued KD
       // keeps its label while the search's representative is CAF.
       const soft = !this.rigid && softDirections(c, this.best, this.ws, this.fresh) > 0;
-      if (ties.length > 0 || soft) {
+      if (ties.length > 0 || orbitTie || soft) {
         this.best.set(settleDegenerate(c, [this.best, ...ties], this.energy, this.ws));
         this.at(i, j);
       }
@@ -575,27 +582,30 @@ class PixelSolver {
         this.fresh = false;
         this.rigid = false;
         const ties: Float64Array[] = [];
+        let orbitTie = false;
         for (let k = 0; k < branches; k++) {
           const slot = k * size + local;
           if (
-            slot !== pick &&
-            store.converged[slot] === 1 &&
-            store.energy[slot]! <= this.energy + DEGENERACY_TOLERANCE * scale &&
-            !sameState(
-              store.frames.subarray(32 * slot, 32 * slot + 32),
-              this.best,
-              this.nf,
-              TIE_DISTANCE,
-            )
+            slot === pick ||
+            store.converged[slot] !== 1 ||
+            store.energy[slot]! > this.energy + DEGENERACY_TOLERANCE * scale
           ) {
-            // Another state at the same energy (branches that reached one state are no tie;
-            // two members of one orbit of the model's exact rotations are: settling them costs
-            // time on maps with U(1) orbits, but where the orbit meets another family at one
-            // energy it is what finds the member the single-point search reports).
-            ties.push(store.frames.subarray(32 * slot, 32 * slot + 32));
+            continue;
+          }
+          const other = store.frames.subarray(32 * slot, 32 * slot + 32);
+          // Branches that reached one state are no tie. Two members of one orbit of the model's
+          // exact rotations are one state too, but the pixel is still settled (once, from its
+          // own state): where the orbit meets another family at one energy, that is what finds
+          // the member the single-point search reports. Any other state at the same energy is a
+          // tie and is settled with it.
+          if (sameState(other, this.best, this.nf, TIE_DISTANCE)) continue;
+          if (sameState(other, this.best, this.nf, TIE_DISTANCE, modelSymmetry(this.couplings!))) {
+            orbitTie = true;
+          } else {
+            ties.push(other);
           }
         }
-        this.certify(i, j, block, ties);
+        this.certify(i, j, block, ties, orbitTie);
         this.store(block, (j - block.j0) * blockWidth + (i - block.i0));
       }
     }
