@@ -1,6 +1,7 @@
 export { CHANNELS, channelIndex, channelName, type Channel } from './channels';
 export {
   ModelError,
+  coulombScale,
   errorLine,
   isPlainObject,
   modelToJson,
@@ -161,3 +162,16 @@ export {
   scaledExponentialIntegral,
   type RangeProfile,
 } from './interactionRange';
+export { scaledBesselI0 } from './besselI0';
+export { coulombExchange, coulombExchangeLoss, imageExchange } from './coulombExchange';
+export { channelChange, channelReading, type ChannelReading } from './channelWavevector';
+export { eigenvaluesOfReal } from './realEigenvalues';
+export { symplecticModes, type SymplecticModes } from './symplecticModes';
+export { WavevectorHessian, channelVectors } from './wavevectorHessian';
+export { ModeRotation } from './modeRotation';
+export {
+  FIT_WAVEVECTOR,
+  modeDispersion,
+  type DispersionOptions,
+  type ModeDispersion,
+} from './modeDispersion';

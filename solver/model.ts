@@ -13,7 +13,8 @@ export interface ChannelCoupling {
 /**
  * One Hartree-Fock problem (public/notes.html#energy): couplings per channel, Zeeman energy E_Z
  * (full spin splitting), sublattice splitting Delta_V (positive lowers K, sublattice A), optional
- * extra one-body terms `sum c_ab G_ab` and the Coulomb exchange E_X (only shifts the gap).
+ * extra one-body terms `sum c_ab G_ab`, the Coulomb exchange E_X (only shifts the gap) and the
+ * Coulomb scale e^2 / (eps l_B) (only the finite-wavevector modes use it).
  * All energies in one unit of the user's choice.
  */
 export interface Model {
@@ -23,6 +24,11 @@ export interface Model {
   readonly valleyZeeman: number;
   readonly oneBody: Readonly<Partial<Record<Channel, number>>>;
   readonly exchange: number | undefined;
+  /**
+   * Coulomb scale e^2 / (eps l_B) of the SU(4)-symmetric interaction, >= 0, for the collective
+   * modes at finite wavevector (public/notes.html#dispersion); undefined when the model sets none.
+   */
+  readonly coulomb?: number | undefined;
 }
 
 /** The first line of an error's message (or of its text), for a one-line report. */
@@ -46,6 +52,7 @@ const MODEL_FIELDS = new Set([
   'valleyZeeman',
   'oneBody',
   'exchange',
+  'coulomb',
   'plane',
   'name',
   'description',
@@ -126,7 +133,7 @@ export function parseModel(json: unknown, where = ''): Model {
   for (const key of Object.keys(json)) {
     if (!MODEL_FIELDS.has(key)) {
       throw new ModelError(
-        `${prefix}${fieldKey(key)}: unknown field; a model has filling, channels, zeeman, valleyZeeman, oneBody, exchange, plane`,
+        `${prefix}${fieldKey(key)}: unknown field; a model has filling, channels, zeeman, valleyZeeman, oneBody, exchange, coulomb, plane`,
       );
     }
   }
@@ -166,6 +173,7 @@ export function parseModel(json: unknown, where = ''): Model {
     'valleyZeeman' in json ? finiteNumber(json.valleyZeeman, `${prefix}valleyZeeman`) : 0;
   const exchange =
     'exchange' in json ? finiteNumber(json.exchange, `${prefix}exchange`) : undefined;
+  const coulomb = 'coulomb' in json ? coulombScale(json.coulomb, `${prefix}coulomb`) : undefined;
   return Object.freeze({
     filling,
     channels: Object.freeze(channels),
@@ -173,7 +181,17 @@ export function parseModel(json: unknown, where = ''): Model {
     valleyZeeman,
     oneBody: Object.freeze(oneBody),
     exchange,
+    ...(coulomb !== undefined ? { coulomb } : {}),
   });
+}
+
+/** The Coulomb scale e^2 / (eps l_B): a finite number >= 0, or a ModelError naming `field`. */
+export function coulombScale(value: unknown, field: string): number {
+  const c = finiteNumber(value, field);
+  if (c < 0) {
+    throw new ModelError(`${field}: expected e^2/(eps l_B) >= 0 in the model's unit, got ${c}`);
+  }
+  return c;
 }
 
 /** Number of electrons per flux quantum in the n = 0 level: nu + 2. */
@@ -196,5 +214,6 @@ export function modelToJson(model: Model): Record<string, unknown> {
   };
   if (Object.keys(model.oneBody).length > 0) out.oneBody = { ...model.oneBody };
   if (model.exchange !== undefined) out.exchange = model.exchange;
+  if (model.coulomb !== undefined) out.coulomb = model.coulomb;
   return out;
 }
