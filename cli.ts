@@ -11,7 +11,13 @@ import {
   errorLine,
   mapCsvPieces,
   mapJsonPieces,
+  DEFAULT_WAVEVECTORS,
+  MAX_WAVEVECTOR_COUNT,
+  dispersionToCsv,
+  dispersionToJson,
   modelAtPoint,
+  modelDispersion,
+  wavevectorGrid,
   parseMapInput,
   parseModel,
   probeModel,
@@ -41,12 +47,20 @@ const USAGE = `usage:
                                          the point x,y of the model's plane; --out writes the
                                          lattice picture of one model as SVG (the JSON still
                                          goes to stdout)
+  fourfold modes --model FILE [--coulomb C] [--q FROM:TO:N] [--gate D] [--out OUT]
+                                         collective modes at finite wavevector q (1/l_B) of the
+                                         model's ground state; C = e^2/(eps l_B) in the model's
+                                         unit (default: the model's "coulomb"); q from FROM to
+                                         TO in N points (default 0:6:61); D a gate distance in
+                                         l_B; OUT ends in .json, .csv or .svg (default: JSON on
+                                         stdout)
 options:
   --threads N   worker threads for map (default: all cores)
   --column single|double
-                figure width of a map's or a cut's .svg: one journal column (8.6 cm,
+                figure width of a map's, a cut's or the modes' .svg: one journal column (8.6 cm,
                 default) or two (17.8 cm)
-  --title TEXT  a title above a map's or a cut's .svg figure (E_Z, u_perp, Delta_V are typeset)
+  --title TEXT  a title above a map's, a cut's or the modes' .svg figure (E_Z, u_perp, Delta_V
+                are typeset)
   --help        this text
 Each option is given at most once. An option the command does not take (--threads for cut,
 --title for a .json or .csv output, ...) is refused, as is a repeated one: one line on stderr,
@@ -73,9 +87,12 @@ interface Args {
   to?: [number, number];
   n?: number;
   at?: [number, number];
+  coulomb?: number;
+  gate?: number;
+  q?: { from: number; to: number; count: number };
 }
 
-type Command = 'solve' | 'map' | 'cut' | 'probe';
+type Command = 'solve' | 'map' | 'cut' | 'probe' | 'modes';
 
 /** The options each command takes; any other is refused, so that none is silently ignored. */
 const COMMAND_OPTIONS: Readonly<Record<Command, readonly string[]>> = {
@@ -83,6 +100,7 @@ const COMMAND_OPTIONS: Readonly<Record<Command, readonly string[]>> = {
   map: ['--model', '--out', '--threads', '--column', '--title'],
   cut: ['--model', '--from', '--to', '--n', '--out', '--column', '--title'],
   probe: ['--model', '--at', '--out'],
+  modes: ['--model', '--coulomb', '--q', '--gate', '--out', '--column', '--title'],
 };
 
 const ALL_OPTIONS = new Set(Object.values(COMMAND_OPTIONS).flat());
@@ -100,6 +118,37 @@ function parsePoint(flag: string, text: string): [number, number] {
   return [numbers[0]!, numbers[1]!];
 }
 
+/** A non-negative (or, `positive`, strictly positive) finite number given to `flag`. */
+function parseAmount(flag: string, text: string, what: string, positive = false): number {
+  const value = text.trim() === '' ? NaN : Number(text);
+  if (!Number.isFinite(value) || value < 0 || (positive && value === 0)) {
+    throw new CliError(`${flag}: expected ${what}, got ${quoteInput(text)}`, 2);
+  }
+  return value;
+}
+
+/** `--q FROM:TO:N`: N wavevectors from FROM to TO (1/l_B). */
+function parseWavevectors(text: string): { from: number; to: number; count: number } {
+  const parts = text.split(':').map((p) => (p.trim() === '' ? NaN : Number(p)));
+  const [from, to, count] = parts;
+  if (
+    parts.length !== 3 ||
+    !Number.isFinite(from) ||
+    !Number.isFinite(to) ||
+    !Number.isInteger(count) ||
+    from! < 0 ||
+    to! <= from! ||
+    count! < 2 ||
+    count! > MAX_WAVEVECTOR_COUNT
+  ) {
+    throw new CliError(
+      `--q: expected FROM:TO:N with 0 <= FROM < TO (1/l_B) and N from 2 to ${MAX_WAVEVECTOR_COUNT}, got ${quoteInput(text)}`,
+      2,
+    );
+  }
+  return { from: from!, to: to!, count: count! };
+}
+
 function isCommand(command: string): command is Command {
   return Object.hasOwn(COMMAND_OPTIONS, command);
 }
@@ -111,7 +160,7 @@ function parseArgs(argv: readonly string[]): Args {
   }
   if (!isCommand(command)) {
     throw new CliError(
-      `unknown command ${quoteInput(command)}; use solve, map, cut or probe (--help for usage)`,
+      `unknown command ${quoteInput(command)}; use solve, map, cut, probe or modes (--help for usage)`,
       2,
     );
   }
@@ -162,6 +211,11 @@ function parseArgs(argv: readonly string[]): Args {
     else if (flag === '--from') args.from = parsePoint(flag, value);
     else if (flag === '--to') args.to = parsePoint(flag, value);
     else if (flag === '--at') args.at = parsePoint(flag, value);
+    else if (flag === '--coulomb') {
+      args.coulomb = parseAmount(flag, value, "e^2/(eps l_B) >= 0 in the model's unit");
+    } else if (flag === '--gate') {
+      args.gate = parseAmount(flag, value, 'a gate distance > 0 in units of l_B', true);
+    } else if (flag === '--q') args.q = parseWavevectors(value);
     else if (flag === '--n') {
       const n = value.trim() === '' ? NaN : Number(value);
       if (!Number.isInteger(n) || n < 2 || n > MAX_CUT_POINTS) {
@@ -192,8 +246,9 @@ function parseArgs(argv: readonly string[]): Args {
       );
     }
   }
-  if (command === 'map' || command === 'cut') {
-    const data = args.out !== undefined && !/\.svg$/i.test(args.out);
+  if (command === 'modes' && args.out !== undefined) outputFormat(args.out);
+  if (command === 'map' || command === 'cut' || command === 'modes') {
+    const data = args.out === undefined ? command === 'modes' : !/\.svg$/i.test(args.out);
     for (const flag of ['--column', '--title'] as const) {
       if (seen.has(flag) && data) {
         throw new CliError(`${flag}: only for a figure; it applies when --out ends in .svg`, 2);
@@ -346,6 +401,42 @@ async function runMap(json: unknown, args: Args): Promise<void> {
   }
 }
 
+/**
+ * The collective modes of one model's ground state along q (README, Command line): JSON on
+ * stdout, or the file `--out` names (.json, .csv or .svg, the figure of the app's Probe).
+ */
+async function runModes(json: unknown, args: Args): Promise<void> {
+  if (Array.isArray(json)) {
+    throw new ModelError('model file: modes takes one model, not an array');
+  }
+  const model = parseModel(json);
+  const grid = args.q ?? DEFAULT_WAVEVECTORS;
+  const q = wavevectorGrid(grid.from, grid.to, grid.count);
+  if (args.coulomb === undefined && model.coulomb === undefined) {
+    throw new CliError(
+      'coulomb: the model sets no Coulomb scale; add "coulomb": e^2/(eps l_B) in its unit, or give --coulomb C',
+    );
+  }
+  const { dispersion, phase } = modelDispersion(model, q, {
+    ...(args.coulomb !== undefined ? { coulomb: args.coulomb } : {}),
+    ...(args.gate !== undefined ? { gateDistance: args.gate } : {}),
+  });
+  const context = { model, phase };
+  if (args.out === undefined) {
+    process.stdout.write(`${JSON.stringify(dispersionToJson(dispersion, context))}\n`);
+    return;
+  }
+  const { path, format } = outputFormat(args.out);
+  let text: string;
+  if (format === 'json') text = `${JSON.stringify(dispersionToJson(dispersion, context))}\n`;
+  else if (format === 'csv') text = dispersionToCsv(dispersion, context);
+  else {
+    const { dispersionFigureSvg } = await import('./app/probe/dispersionFigure');
+    text = dispersionFigureSvg(dispersion, context, { column: args.column, title: args.title });
+  }
+  writeOutput(path, text);
+}
+
 /** Runs the CLI; returns the exit code. Every failure is one line on stderr, no stack trace. */
 export async function main(argv: readonly string[]): Promise<number> {
   try {
@@ -357,6 +448,7 @@ export async function main(argv: readonly string[]): Promise<number> {
       else writeOutput(args.out, text);
     } else if (args.command === 'cut') await runCut(json, args);
     else if (args.command === 'probe') process.stdout.write(await runProbe(json, args));
+    else if (args.command === 'modes') await runModes(json, args);
     else await runMap(json, args);
     return 0;
   } catch (error) {

@@ -27,7 +27,11 @@ export function channelReading(hartree: number, fock: number): ChannelReading {
   if (hartree !== 0 && ratio > 0 && ratio <= 1) {
     return { kind: 'gaussian', rangeSquared: hartree / fock - 1 };
   }
-  return { kind: 'contactPlusGaussian', contact: 2 * fock - hartree, gaussian: 2 * (hartree - fock) };
+  return {
+    kind: 'contactPlusGaussian',
+    contact: 2 * fock - hartree,
+    gaussian: 2 * (hartree - fock),
+  };
 }
 
 /**

@@ -175,3 +175,17 @@ export {
   type DispersionOptions,
   type ModeDispersion,
 } from './modeDispersion';
+export {
+  DEFAULT_WAVEVECTORS,
+  MAX_WAVEVECTOR,
+  MAX_WAVEVECTOR_COUNT,
+  modelDispersion,
+  wavevectorGrid,
+  type ModelDispersion,
+} from './modelDispersion';
+export {
+  DISPERSION_CAUTION,
+  dispersionToCsv,
+  dispersionToJson,
+  type DispersionContext,
+} from './dispersionExport';

@@ -85,25 +85,28 @@ describe('spin waves of the SU(4) Coulomb ferromagnet (Kallin and Halperin, PRB 
     [0.3, 1],
     [0.05, 2.5],
     [1.2, 0.4],
-  ])('nu = 0, E_Z = %s, e^2/(eps l_B) = %s: every branch is E_Z + E_X - X_C(q) to 1e-9', (ez, c) => {
-    const { result, dispersion } = dispersionOf(
-      parseModel({ filling: 0, channels: {}, zeeman: ez, coulomb: c }),
-    );
-    expect(result.phase).toBe('F');
-    expect(dispersion.branches).toHaveLength(4);
-    const scale = Math.max(ez, c);
-    for (const branch of dispersion.branches) {
-      branch.forEach((w, n) => {
-        expect(Math.abs(w - kallinHalperin(ez, c, Q_DEFAULT[n]!))).toBeLessThan(1e-9 * scale);
-      });
-    }
-    // Small q: 1 - e^-x I_0(x) = x - 3x^2/4 + ..., x = q^2/4, so rho = sqrt(pi/2) C / 4.
-    for (const rho of dispersion.stiffness) {
-      expect(Math.abs(rho! - (SQRT_HALF_PI * c) / 4)).toBeLessThan(1e-8 * c);
-    }
-    expect(dispersion.velocities).toEqual([null, null, null, null]);
-    expect(dispersion.stable).toBe(true);
-  });
+  ])(
+    'nu = 0, E_Z = %s, e^2/(eps l_B) = %s: every branch is E_Z + E_X - X_C(q) to 1e-9',
+    (ez, c) => {
+      const { result, dispersion } = dispersionOf(
+        parseModel({ filling: 0, channels: {}, zeeman: ez, coulomb: c }),
+      );
+      expect(result.phase).toBe('F');
+      expect(dispersion.branches).toHaveLength(4);
+      const scale = Math.max(ez, c);
+      for (const branch of dispersion.branches) {
+        branch.forEach((w, n) => {
+          expect(Math.abs(w - kallinHalperin(ez, c, Q_DEFAULT[n]!))).toBeLessThan(1e-9 * scale);
+        });
+      }
+      // Small q: 1 - e^-x I_0(x) = x - 3x^2/4 + ..., x = q^2/4, so rho = sqrt(pi/2) C / 4.
+      for (const rho of dispersion.stiffness) {
+        expect(Math.abs(rho! - (SQRT_HALF_PI * c) / 4)).toBeLessThan(1e-8 * c);
+      }
+      expect(dispersion.velocities).toEqual([null, null, null, null]);
+      expect(dispersion.stable).toBe(true);
+    },
+  );
 
   test('nu = -1 (one filled flavour): two spin flips follow Kallin and Halperin, the valley flip starts at 0 (derived)', () => {
     const ez = 0.4;
@@ -288,17 +291,20 @@ describe('channels at finite q (public/notes.html#dispersion)', () => {
     [0.5, -0.3, 'opposite signs'],
     [0, 0.6, 'no direct part'],
     [0.8, 0, 'no exchange part'],
-  ])('H = %s, F = %s (%s): contact plus a Gaussian of range l_B, exact at q = 0, gone at large q', (h, f) => {
-    const reading = channelReading(h, f);
-    expect(reading.kind).toBe('contactPlusGaussian');
-    if (reading.kind !== 'contactPlusGaussian') return;
-    expect(reading.contact + reading.gaussian).toBeCloseTo(h, 15);
-    expect(reading.contact + reading.gaussian / 2).toBeCloseTo(f, 15);
-    expect(channelChange(h, f, 0)).toEqual({ direct: 0, exchange: 0 });
-    const far = channelChange(h, f, 40);
-    expect(far.direct).toBeCloseTo(-h, 15);
-    expect(far.exchange).toBeCloseTo(-f, 15);
-  });
+  ])(
+    'H = %s, F = %s (%s): contact plus a Gaussian of range l_B, exact at q = 0, gone at large q',
+    (h, f) => {
+      const reading = channelReading(h, f);
+      expect(reading.kind).toBe('contactPlusGaussian');
+      if (reading.kind !== 'contactPlusGaussian') return;
+      expect(reading.contact + reading.gaussian).toBeCloseTo(h, 15);
+      expect(reading.contact + reading.gaussian / 2).toBeCloseTo(f, 15);
+      expect(channelChange(h, f, 0)).toEqual({ direct: 0, exchange: 0 });
+      const far = channelChange(h, f, 40);
+      expect(far.direct).toBeCloseTo(-h, 15);
+      expect(far.exchange).toBeCloseTo(-f, 15);
+    },
+  );
 
   test('the two readings meet at F = H (continuity)', () => {
     const below = channelChange(1, 1 - 1e-9, 1.2);
@@ -309,10 +315,13 @@ describe('channels at finite q (public/notes.html#dispersion)', () => {
 });
 
 describe('gate screening', () => {
-  test.each([0.3, 1, 1.5])('d = %s l_B: the image part at q = 0 is sqrt(pi/2) e^(2d^2) erfc(sqrt2 d) (derived; erf from mathjs)', (d) => {
-    const closed = SQRT_HALF_PI * Math.exp(2 * d * d) * (1 - mathjs.erf(Math.SQRT2 * d));
-    expect(imageExchange(0, d)).toBeCloseTo(closed, 12);
-  });
+  test.each([0.3, 1, 1.5])(
+    'd = %s l_B: the image part at q = 0 is sqrt(pi/2) e^(2d^2) erfc(sqrt2 d) (derived; erf from mathjs)',
+    (d) => {
+      const closed = SQRT_HALF_PI * Math.exp(2 * d * d) * (1 - mathjs.erf(Math.SQRT2 * d));
+      expect(imageExchange(0, d)).toBeCloseTo(closed, 12);
+    },
+  );
 
   test('a far gate subtracts 1/(2d); a near one screens almost everything', () => {
     expect(imageExchange(0.7, 200) * 400).toBeCloseTo(1, 4);
@@ -355,7 +364,10 @@ describe('symplectic structure and stability', () => {
       const { re, im } = eigenvaluesOfReal(jk, d);
       for (const x of re) expect(Math.abs(x)).toBeLessThan(1e-9);
       const positive = im.filter((y) => y > 0).sort((a, b) => a - b);
-      const negative = im.filter((y) => y < 0).map((y) => -y).sort((a, b) => a - b);
+      const negative = im
+        .filter((y) => y < 0)
+        .map((y) => -y)
+        .sort((a, b) => a - b);
       const branches = dispersion.branches.map((b) => b[n]!);
       positive.forEach((y, j) => expect(y).toBeCloseTo(branches[j]!, 9));
       negative.forEach((y, j) => expect(y).toBeCloseTo(branches[j]!, 9));
@@ -436,7 +448,10 @@ describe('symplectic structure and stability', () => {
     for (let k = 0; k < 150; k++) {
       const base = genericModel(random, ([-1, 0, 1] as const)[k % 3]!);
       const model: Model = { ...base, coulomb: 10 };
-      const { result, dispersion } = dispersionOf(model, Q_DEFAULT.filter((_, n) => n % 3 === 0));
+      const { result, dispersion } = dispersionOf(
+        model,
+        Q_DEFAULT.filter((_, n) => n % 3 === 0),
+      );
       expect(dispersion.growth.every((g) => g[0] === 0)).toBe(true);
       dispersion.q.forEach((q, n) => {
         const grows = dispersion.growth.some((g) => g[n]! > 0);
