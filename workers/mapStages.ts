@@ -8,6 +8,7 @@ import {
   locateCrossings,
   minimiseEnergy,
   modelAtPoint,
+  modelDispersion,
   parseMapInput,
   parseModel,
   probeModel,
@@ -22,6 +23,7 @@ import {
   type CutPath,
   type CutResult,
   type MapInput,
+  type ModelDispersion,
   type PixelBlock,
   type ProbeReport,
 } from '../solver/index';
@@ -84,6 +86,14 @@ export const mapStagesApi = {
   /** The Probe of the plane point (x, y): ground state, competitors and derived numbers. */
   probe(json: string, x: number, y: number): ProbeReport {
     return probeModel(modelAtPoint(inputOf(json), x, y));
+  },
+  /**
+   * The collective modes along q (1/l_B) of the plane point (x, y), with the scenario model's
+   * Coulomb scale and an optional gate (l_B): a side task of the Probe.
+   */
+  modes(json: string, x: number, y: number, q: number[], gateDistance?: number): ModelDispersion {
+    const model = modelAtPoint(inputOf(json), x, y);
+    return modelDispersion(model, q, gateDistance === undefined ? {} : { gateDistance });
   },
   /** A Cut through the scenario's plane (a side task: the user waits on it). */
   cut(json: string, path: CutPath, n: number): CutResult {

@@ -7,6 +7,7 @@ import type { Pin } from '../store/probeSlice';
 import { LevelDiagram } from './LevelDiagram';
 import { latticeSvg } from './latticeSvg';
 import { probeDocument } from './probeDocument';
+import { DispersionPanel } from './DispersionPanel';
 import { ModeList } from './ModeList';
 import { OrientationDiscs } from './OrientationDiscs';
 import { SpinorTable } from './SpinorTable';
@@ -92,6 +93,8 @@ export function ProbeDetails({ pin, report }: { pin: Pin; report: ProbeReport })
         <h3>Collective modes at q = 0</h3>
         <ModeList report={report} />
       </section>
+
+      <DispersionPanel pin={pin} report={report} />
 
       <section className="probe-card probe-competitors">
         <h3>Competing minima</h3>

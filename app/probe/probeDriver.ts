@@ -3,6 +3,11 @@ import { setupToScenario } from '../scenario/scenario';
 import { SIDE_TASK_QUIET_MS, runSideTask } from '../sidePool';
 import { useFourfold, type FourfoldState } from '../store/index';
 
+/** The key of a pin's Probe: its point and the scenario document (JSON) it was solved for. */
+export function probeKey(pin: { x: number; y: number }, json: string): string {
+  return `${pin.x} ${pin.y} ${json}`;
+}
+
 /**
  * Keeps every pin's Probe in step with the Setup: a pin whose point or setup changed is solved
  * again on the Map's worker pool (the selected pin first), a setup change after a short quiet
@@ -26,7 +31,7 @@ export function startProbeDriver(): () => void {
     }
     const ordered = [...pins].sort((a, b) => Number(b.id === selected) - Number(a.id === selected));
     for (const pin of ordered) {
-      const key = `${pin.x} ${pin.y} ${json}`;
+      const key = probeKey(pin, json);
       if (results[pin.id]?.key === key) continue;
       store.getState().setProbeEntry(pin.id, { key, status: 'pending' });
       const current = () => !stopped && store.getState().probe.results[pin.id]?.key === key;

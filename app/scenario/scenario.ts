@@ -85,6 +85,14 @@ function exchangeOf(setup: Setup): number | undefined {
   return setup.exchange;
 }
 
+/**
+ * The Coulomb scale the scenario writes (the model's `coulomb`): from the field and eps_r in
+ * physical units, else the setup's own (none until the user gives one).
+ */
+export function coulombOf(setup: Setup): number | undefined {
+  return setup.physical ? physicalScales(setup.physical).coulombMeV : setup.coulomb;
+}
+
 /** The scenario document of a setup (model with every listed channel, plus the plane). */
 export function setupToScenario(setup: Setup): ScenarioJson {
   const channels: Record<string, { hartree: number; fock: number }> = {};
@@ -108,6 +116,8 @@ export function setupToScenario(setup: Setup): ScenarioJson {
   }
   const exchange = exchangeOf(setup);
   if (exchange !== undefined) document.exchange = exchange;
+  const coulomb = coulombOf(setup);
+  if (coulomb !== undefined) document.coulomb = coulomb;
   document.plane = {
     x: planeAxis(setup.x, setup),
     y: planeAxis(setup.y, setup),
@@ -179,6 +189,7 @@ function firstDifference(a: MapInput, b: MapInput, skip: ReadonlySet<string>): s
     differ('zeeman', a.model.zeeman, b.model.zeeman),
     differ('valleyZeeman', a.model.valleyZeeman, b.model.valleyZeeman),
     differ('exchange', a.model.exchange, b.model.exchange),
+    differ('coulomb', a.model.coulomb, b.model.coulomb),
   ];
   for (const ch of CHANNELS) {
     const ca = a.model.channels[ch];
@@ -256,11 +267,22 @@ export function scenarioToSetup(json: unknown): Setup {
     ...(listedZero.length > 0 ? { listedZero } : {}),
     ...(Object.keys(model.oneBody).length > 0 ? { oneBody: { ...model.oneBody } } : {}),
     ...(model.exchange !== undefined && !physical ? { exchange: model.exchange } : {}),
+    ...(model.coulomb !== undefined && !physical ? { coulomb: model.coulomb } : {}),
   };
   const out = physicalFromScenario(json, setup, model.exchange);
   // What the physical units derive (checked against the file there) is not compared again.
   const skip = new Set<string>();
-  if (out.physical) skip.add('zeeman').add('exchange');
+  if (out.physical) {
+    skip.add('zeeman').add('exchange').add('coulomb');
+    // In physical units the Coulomb scale follows from the field; a file may leave it out.
+    const expected = physicalScales(out.physical).coulombMeV;
+    const given = model.coulomb;
+    if (given !== undefined && Math.abs(given - expected) > 1e-9 * Math.max(1, expected)) {
+      throw new ModelError(
+        `coulomb: ${given} disagrees with e^2/(4 pi eps0 eps_r l_B) = ${expected} meV from fourfold.physical; edit one of them, or remove it from "fourfold"`,
+      );
+    }
+  }
   for (const ch of Object.keys(out.ranges ?? {})) {
     skip.add(`channels.${ch}.hartree`).add(`channels.${ch}.fock`);
   }

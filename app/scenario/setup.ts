@@ -89,6 +89,12 @@ export interface Setup {
    * physical units `physical.exchangeInGap` decides and E_X follows from the field.
    */
   readonly exchange?: number;
+  /**
+   * The Coulomb scale e^2 / (eps l_B) (the model file's `coulomb`) for the collective modes at
+   * finite wavevector, in dimensionless units; in physical units it follows from B_perp and
+   * eps_r instead.
+   */
+  readonly coulomb?: number;
   /** The model file's `name` and `description`, kept as loaded. */
   readonly name?: string;
   readonly description?: string;
