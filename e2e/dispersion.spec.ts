@@ -1,6 +1,7 @@
 import { readFileSync } from 'node:fs';
 import { expect, test, type Page } from '@playwright/test';
 import { parseCsvStrictly, parseXmlStrictly, textsOf } from '../test/strictParsers';
+import { coulombScaleMeV } from '../solver/index';
 import { BUSY_MACHINE_MS, failOnConsoleErrors, mapDone, pointAt } from './demoPage';
 
 failOnConsoleErrors();
@@ -57,6 +58,13 @@ test('the dispersion of a pinned point: q = 0 equals the Probe, exports as SVG, 
   });
   // CAF: one Goldstone branch (spin rotation about the field), marked on the chart.
   await expect(page.getByTestId('dispersion-goldstone-mark')).toHaveCount(1);
+  // The colours' legend names the spin rotation about the field first; the open panel is two
+  // columns wide, so the chart keeps its own size (460 px).
+  await expect(page.getByTestId('dispersion-legend').locator('li').first()).toHaveText(
+    'σz: spin about the field',
+  );
+  expect((await page.getByTestId('dispersion-chart').boundingBox())!.width).toBeGreaterThan(455);
+  await expect(page.getByTestId('dispersion-chart')).toContainText('ω (model unit)');
 
   const svg = await download(page, 'dispersion-export-svg');
   const doc = parseXmlStrictly(svg);
@@ -95,4 +103,33 @@ test('the dispersion of a pinned point: q = 0 equals the Probe, exports as SVG, 
   await expect(page.getByTestId('dispersion-status')).toHaveAttribute('data-status', 'done', {
     timeout: BUSY_MACHINE_MS,
   });
+});
+
+test('in physical units the scale follows from B_perp and eps_r, q is in 1/nm and energies in meV', async ({
+  page,
+}) => {
+  await page.goto('/');
+  await mapDone(page);
+  await page.getByTestId('units-physical').check();
+  await expect(page.getByTestId('physical-bperp')).toBeVisible();
+  await mapDone(page);
+  const [px, py] = await pointAt(page, -0.7, 0.9);
+  await page.mouse.click(px, py);
+  await expect(page.getByTestId('probe-details')).toBeVisible({ timeout: BUSY_MACHINE_MS });
+  await page.getByTestId('dispersion').locator('summary').click();
+  await expect(page.getByTestId('dispersion-status')).toHaveAttribute('data-status', 'done', {
+    timeout: BUSY_MACHINE_MS,
+  });
+  // e^2/(4 pi eps0 eps_r l_B) at the Setup's B_perp and eps_r (CODATA 2018, solver/units.ts).
+  const bPerp = Number(await page.getByTestId('physical-bperp').inputValue());
+  const epsilonR = Number(await page.getByTestId('physical-epsilon').inputValue());
+  const derived = Number(
+    await page.getByTestId('dispersion-coulomb-derived').getAttribute('data-value'),
+  );
+  expect(derived).toBeCloseTo(coulombScaleMeV(bPerp, epsilonR), 10);
+  const chart = page.getByTestId('dispersion-chart');
+  await expect(chart).toContainText('q (1/nm)');
+  await expect(chart).toContainText('ω (meV)');
+  await expect(page.getByTestId('dispersion-table').locator('th').nth(1)).toHaveText('Gap (meV)');
+  await expect(page.getByTestId('dispersion-branch-0')).toContainText('meV nm');
 });

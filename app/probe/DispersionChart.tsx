@@ -2,9 +2,12 @@ import { axisBottom, axisLeft, line, scaleLinear, select } from 'd3';
 import { useEffect, useMemo, useRef } from 'react';
 import type { ModeDispersion } from '../../solver/index';
 import {
+  ROTATION_NAMES,
   branchRuns,
   energyExtent,
   energyTitle,
+  groupsPresent,
+  plainRotation,
   rotationColour,
   wavevectorScale,
   wavevectorTitle,
@@ -15,15 +18,25 @@ const WIDTH = 460;
 const HEIGHT = 260;
 const MARGIN = { top: 10, right: 12, bottom: 36, left: 50 };
 
-/** Plain text of a typeset axis title ('q l_B' as q l_B with a subscript B, 'omega' as ω). */
-function plainTitle(title: string): string {
-  return title.replace('omega', 'ω').replace('l_B', 'l_B');
+/** An axis title as SVG text: 'omega' as ω, 'l_B' as l with a subscript B. */
+function AxisTitle({ title }: { readonly title: string }) {
+  const [before, after] = title.replace('omega', 'ω').split('l_B');
+  if (after === undefined) return <>{before}</>;
+  return (
+    <>
+      {before}l
+      <tspan baselineShift="sub" fontSize="0.75em">
+        B
+      </tspan>
+      {after}
+    </>
+  );
 }
 
 /**
  * The dispersion chart of the Probe: every branch coloured by the rotation its mode performs
  * over a dark casing (as the exported figure), Goldstone branches marked at q = 0, the large-q
- * limits dotted, growth rates of an instability dashed below zero.
+ * limits dotted, growth rates of an instability dashed below zero; the colours' legend below.
  */
 export function DispersionChart({
   dispersion,
@@ -67,71 +80,81 @@ export function DispersionChart({
   }, [chart]);
 
   return (
-    <svg
-      className="dispersion-chart"
-      viewBox={`0 0 ${WIDTH} ${HEIGHT}`}
-      width={WIDTH}
-      height={HEIGHT}
-      role="img"
-      aria-label="Collective modes against the wavevector"
-      data-testid="dispersion-chart"
-      data-branches={dispersion.branches.length}
-    >
-      <defs>
-        <clipPath id="dispersion-chart-plot">
-          <rect width={plotW} height={plotH} />
-        </clipPath>
-      </defs>
-      <g transform={`translate(${MARGIN.left},${MARGIN.top})`}>
-        <g clipPath="url(#dispersion-chart-plot)">
-          {chart.limits.map((w) => (
-            <line
-              key={w}
-              className="dispersion-limit"
-              x1={0}
-              x2={plotW}
-              y1={chart.y(w)}
-              y2={chart.y(w)}
-            />
-          ))}
-          {chart.y.domain()[0]! < 0 && (
-            <line className="dispersion-zero" x1={0} x2={plotW} y1={chart.y(0)} y2={chart.y(0)} />
-          )}
-          <path className="dispersion-casing" d={chart.casing} />
-          {chart.runs.map((run, k) => (
-            <path key={k} className="dispersion-branch" d={run.d} stroke={run.colour} />
-          ))}
-          {chart.growth.map((d, k) => (
-            <path key={k} className="dispersion-growth" d={d} data-testid="dispersion-growth" />
-          ))}
-        </g>
-        {dispersion.q[0] === 0 &&
-          dispersion.goldstone.map((g, b) =>
-            g ? (
-              <circle
-                key={b}
-                className="dispersion-goldstone"
-                data-testid="dispersion-goldstone-mark"
-                cx={chart.x(0)}
-                cy={chart.y(dispersion.branches[b]![0]!)}
-                r={4}
+    <>
+      <svg
+        className="dispersion-chart"
+        viewBox={`0 0 ${WIDTH} ${HEIGHT}`}
+        width={WIDTH}
+        height={HEIGHT}
+        role="img"
+        aria-label="Collective modes against the wavevector"
+        data-testid="dispersion-chart"
+        data-branches={dispersion.branches.length}
+      >
+        <defs>
+          <clipPath id="dispersion-chart-plot">
+            <rect width={plotW} height={plotH} />
+          </clipPath>
+        </defs>
+        <g transform={`translate(${MARGIN.left},${MARGIN.top})`}>
+          <g clipPath="url(#dispersion-chart-plot)">
+            {chart.limits.map((w) => (
+              <line
+                key={w}
+                className="dispersion-limit"
+                x1={0}
+                x2={plotW}
+                y1={chart.y(w)}
+                y2={chart.y(w)}
               />
-            ) : null,
-          )}
-        <rect className="dispersion-frame" width={plotW} height={plotH} />
-        <g ref={bottom} className="dispersion-axis" transform={`translate(0,${plotH})`} />
-        <g ref={left} className="dispersion-axis" />
-        <text className="dispersion-title" x={plotW / 2} y={plotH + 31} textAnchor="middle">
-          {plainTitle(wavevectorTitle(units))}
-        </text>
-        <text
-          className="dispersion-title"
-          transform={`translate(${-38},${plotH / 2}) rotate(-90)`}
-          textAnchor="middle"
-        >
-          {plainTitle(energyTitle(units))}
-        </text>
-      </g>
-    </svg>
+            ))}
+            {chart.y.domain()[0]! < 0 && (
+              <line className="dispersion-zero" x1={0} x2={plotW} y1={chart.y(0)} y2={chart.y(0)} />
+            )}
+            <path className="dispersion-casing" d={chart.casing} />
+            {chart.runs.map((run, k) => (
+              <path key={k} className="dispersion-branch" d={run.d} stroke={run.colour} />
+            ))}
+            {chart.growth.map((d, k) => (
+              <path key={k} className="dispersion-growth" d={d} data-testid="dispersion-growth" />
+            ))}
+          </g>
+          {dispersion.q[0] === 0 &&
+            dispersion.goldstone.map((g, b) =>
+              g ? (
+                <circle
+                  key={b}
+                  className="dispersion-goldstone"
+                  data-testid="dispersion-goldstone-mark"
+                  cx={chart.x(0)}
+                  cy={chart.y(dispersion.branches[b]![0]!)}
+                  r={4}
+                />
+              ) : null,
+            )}
+          <rect className="dispersion-frame" width={plotW} height={plotH} />
+          <g ref={bottom} className="dispersion-axis" transform={`translate(0,${plotH})`} />
+          <g ref={left} className="dispersion-axis" />
+          <text className="dispersion-title" x={plotW / 2} y={plotH + 31} textAnchor="middle">
+            <AxisTitle title={wavevectorTitle(units)} />
+          </text>
+          <text
+            className="dispersion-title"
+            transform={`translate(${-38},${plotH / 2}) rotate(-90)`}
+            textAnchor="middle"
+          >
+            <AxisTitle title={energyTitle(units)} />
+          </text>
+        </g>
+      </svg>
+      <ul className="dispersion-legend" data-testid="dispersion-legend">
+        {groupsPresent(dispersion).map((group) => (
+          <li key={group} data-group={group}>
+            <span className="dispersion-swatch" style={{ background: rotationColour(group) }} />{' '}
+            {plainRotation(ROTATION_NAMES[group])}
+          </li>
+        ))}
+      </ul>
+    </>
   );
 }

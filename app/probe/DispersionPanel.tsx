@@ -24,7 +24,12 @@ import type { Pin } from '../store/probeSlice';
 import { DispersionChart } from './DispersionChart';
 import { probeKey } from './probeDriver';
 import { dispersionFigureSvg } from './dispersionFigure';
-import { ROTATION_NAMES, rotationColour, type DispersionUnits } from './dispersionSeries';
+import {
+  ROTATION_NAMES,
+  plainRotation,
+  rotationColour,
+  type DispersionUnits,
+} from './dispersionSeries';
 
 type Status =
   | { readonly kind: 'running' }
@@ -300,7 +305,7 @@ function DispersionResult({
                     className="dispersion-swatch"
                     style={{ background: rotationColour(group) }}
                   />{' '}
-                  {group === null ? '—' : ROTATION_NAMES[group].replace(/_\{?([^}\s:]*)\}?/g, '$1')}
+                  {group === null ? '—' : plainRotation(ROTATION_NAMES[group])}
                 </td>
               </tr>
             );

@@ -23,6 +23,14 @@ export const ROTATION_NAMES: Readonly<Record<OrderGroupKey, string>> = {
   spinBondInPlane: 'tau_{x,y} sigma_{x,y}',
 };
 
+/** A rotation's name as plain text for the page ('sigma_{x,y}' as σx,y). */
+export function plainRotation(name: string): string {
+  return name
+    .replace(/sigma/g, 'σ')
+    .replace(/tau/g, 'τ')
+    .replace(/_\{?([^}\s:]*)\}?/g, '$1');
+}
+
 /** The colour of a rotation group: the region colour of its order-parameter token. */
 export function rotationColour(group: OrderGroupKey | null): string {
   if (group === null) return UNKNOWN_TOKEN_COLOUR;
@@ -84,8 +92,9 @@ export function wavevectorTitle(units: DispersionUnits): string {
   return units.magneticLengthNm === undefined ? 'q l_B' : 'q (1/nm)';
 }
 
+/** The energy axis: omega with its unit (a bare omega turned on its side reads as a 3). */
 export function energyTitle(units: DispersionUnits): string {
-  return units.energyUnit === undefined ? 'omega' : `omega (${units.energyUnit})`;
+  return `omega (${units.energyUnit ?? 'model unit'})`;
 }
 
 /** The energy range to show: from the deepest growth rate (drawn as -Im omega) or 0 to the top. */
