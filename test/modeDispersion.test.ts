@@ -250,6 +250,17 @@ describe('Goldstone and Larmor theorems', () => {
     for (const b of flips) expect(dispersion.stiffness[b]).toBeGreaterThan(0);
   });
 
+  test('Larmor on the CAF (x0, y0, z0 only, E_Z = 0.4): the in-plane spin precesses at E_Z exactly; the rotation about the field, which the field leaves a symmetry, is the Goldstone branch (Larmor theorem, common practice)', () => {
+    const ez = 0.4;
+    const { dispersion } = dispersionOf(standard(-1, 2, ez));
+    expect(dispersion.gaps[0]).toBeLessThan(1e-9);
+    expect(dispersion.rotates[0]![1]).toBe('spinAlongField');
+    const larmor = dispersion.gaps.findIndex((w) => Math.abs(w - ez) < 1e-12);
+    expect(larmor).toBe(1);
+    expect(dispersion.rotates[larmor]![1]).toBe('spinInPlane');
+    expect(dispersion.branches[larmor]![1]).toBeGreaterThan(ez);
+  });
+
   test('the fit wavevector is small enough that the q^4 term is below 1e-9 of the stiffness', () => {
     expect(FIT_WAVEVECTOR ** 2).toBeLessThan(1e-5);
   });
