@@ -35,6 +35,41 @@ export function symplecticModes(k: Float64Array, d: number, zero: number): Sympl
   const vectors = new Float64Array(d * d);
   symmetricEigen(Float64Array.from(k.subarray(0, d * d)), d, values, vectors);
   if (values[0]! < -zero) return unstableModes(k, d);
+  const { jr, spectrum, modes } = stableForm(values, vectors, d, zero);
+  const n = 2 * d;
+  const frequencies: number[] = [];
+  const planes: Float64Array[] = [];
+  for (let m = d; m < n; m += 2) {
+    frequencies.push(Math.max(0, (spectrum[m]! + spectrum[m + 1]!) / 2));
+    // Column m is (u; v) with y = u + iv an eigenvector of iA; the motion is J K^(1/2) y, or y
+    // itself for a zero mode (K^(1/2) y = 0 there).
+    const plane = new Float64Array(2 * d);
+    for (let p = 0; p < d; p++) {
+      plane[p] = modes[p * n + m]!;
+      plane[d + p] = modes[(p + d) * n + m]!;
+    }
+    planes.push(frequencies[frequencies.length - 1]! > zero ? moved(jr, plane, d) : plane);
+  }
+  return { frequencies, growth: frequencies.map(() => 0), planes, stable: true };
+}
+
+/**
+ * The stable form of the modes of K from its eigenvalues `values` and eigenvectors `vectors`
+ * (columns, as symmetricEigen returns them): K^(1/2) = Q sqrt(max(Lambda, 0)) Q^T with
+ * eigenvalues within `zero` of 0 taken as 0 (a square root would otherwise turn a 1e-16 residue
+ * into a spurious 1e-8 frequency), jr = J K^(1/2), A = (1/2) K^(1/2) J K^(1/2), and the
+ * spectrum and eigenvectors of the real symmetric embedding [[0, -A], [A, 0]] of iA. A is real
+ * antisymmetric, so iA is Hermitian with eigenvalues +-omega; the embedding has each of them
+ * twice, and diagonalising it (rather than A^T A) keeps zero frequencies at rounding level
+ * instead of its square root. The upper half of `spectrum` (indices d to 2d - 1) holds each
+ * omega >= 0 twice, ascending. Shared with collectiveModes.ts (q = 0).
+ */
+export function stableForm(
+  values: Float64Array,
+  vectors: Float64Array,
+  d: number,
+  zero: number,
+): { jr: Float64Array; spectrum: Float64Array; modes: Float64Array } {
   const root = new Float64Array(d * d);
   for (let m = 0; m < d; m++) {
     const s = values[m]! > zero ? Math.sqrt(values[m]!) : 0;
@@ -44,6 +79,7 @@ export function symplecticModes(k: Float64Array, d: number, zero: number): Sympl
       for (let q = 0; q < d; q++) root[p * d + q] = root[p * d + q]! + vp * vectors[q * d + m]!;
     }
   }
+  // Rows (2n, 2n+1) of J K^(1/2) are (row 2n+1, -row 2n) of K^(1/2).
   const jr = new Float64Array(d * d);
   for (let n = 0; n < d; n += 2) {
     for (let q = 0; q < d; q++) {
@@ -70,20 +106,7 @@ export function symplecticModes(k: Float64Array, d: number, zero: number): Sympl
   const spectrum = new Float64Array(n);
   const modes = new Float64Array(n * n);
   symmetricEigen(embedding, n, spectrum, modes);
-  const frequencies: number[] = [];
-  const planes: Float64Array[] = [];
-  for (let m = d; m < n; m += 2) {
-    frequencies.push(Math.max(0, (spectrum[m]! + spectrum[m + 1]!) / 2));
-    // Column m is (u; v) with y = u + iv an eigenvector of iA; the motion is J K^(1/2) y, or y
-    // itself for a zero mode (K^(1/2) y = 0 there).
-    const plane = new Float64Array(2 * d);
-    for (let p = 0; p < d; p++) {
-      plane[p] = modes[p * n + m]!;
-      plane[d + p] = modes[(p + d) * n + m]!;
-    }
-    planes.push(frequencies[frequencies.length - 1]! > zero ? moved(jr, plane, d) : plane);
-  }
-  return { frequencies, growth: frequencies.map(() => 0), planes, stable: true };
+  return { jr, spectrum, modes };
 }
 
 /** (J K^(1/2) u, J K^(1/2) v) for the plane (u, v), given jr = J K^(1/2). */

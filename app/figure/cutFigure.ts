@@ -9,6 +9,7 @@ import {
   axisSvg,
   estimateTextWidth,
   figureDocument,
+  notesSvg,
   svgNumber,
   typesetLabel,
 } from './figureStyle';
@@ -37,20 +38,6 @@ function dashAttribute(dash: string): string {
   if (dash === '') return '';
   const pt = dash.split(' ').map((v) => svgNumber(Number(v) * FIGURE_LINE.curve));
   return ` stroke-dasharray="${pt.join(' ')}"`;
-}
-
-function wrap(text: string, widthPt: number, fontSize: number): string[] {
-  const lines: string[] = [];
-  let current = '';
-  for (const word of text.split(' ')) {
-    const next = current === '' ? word : `${current} ${word}`;
-    if (current !== '' && estimateTextWidth(next, fontSize) > widthPt) {
-      lines.push(current);
-      current = word;
-    } else current = next;
-  }
-  if (current !== '') lines.push(current);
-  return lines;
 }
 
 /**
@@ -188,15 +175,9 @@ export function cutFigureSvg(cut: CutResult, options: CutFigureOptions = {}): st
     'Vertical lines: transitions located to 1e-9 of the cut; solid first order, dashed continuous.',
   );
   if (options.caution !== false) notes.push(MEAN_FIELD_CAUTION);
-  for (const note of notes) {
-    for (const text of wrap(note, plotWidth + left - 4, small)) {
-      parts.push(
-        `<text x="${svgNumber(-left + 4)}" y="${svgNumber(yLegend)}">${xmlText(text)}</text>`,
-      );
-      yLegend += small + 2;
-    }
-    yLegend += 2;
-  }
+  const notesMarkup = notesSvg(notes, -left + 4, yLegend, plotWidth + left - 4, small);
+  parts.push(...notesMarkup.markup);
+  yLegend = notesMarkup.y;
   parts.push('</g>', '</g>');
   if (title !== '') {
     parts.push(

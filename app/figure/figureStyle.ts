@@ -78,6 +78,44 @@ export function estimateTextWidth(text: string, fontSize: number = FIGURE_FONT.s
   return em * fontSize;
 }
 
+/** Words of `text` in lines no wider than `widthPt` at `fontSize` (a word longer stays whole). */
+export function wrapWords(text: string, widthPt: number, fontSize: number): string[] {
+  const lines: string[] = [];
+  let current = '';
+  for (const word of text.split(' ')) {
+    const next = current === '' ? word : `${current} ${word}`;
+    if (current !== '' && estimateTextWidth(next, fontSize) > widthPt) {
+      lines.push(current);
+      current = word;
+    } else current = next;
+  }
+  if (current !== '') lines.push(current);
+  return lines;
+}
+
+/**
+ * Notes under a figure: each wrapped to `widthPt` at `fontSize`, one <text> per line from
+ * baseline `y` at `x`, a little space between notes. Returns the markup and the next baseline.
+ */
+export function notesSvg(
+  notes: readonly string[],
+  x: number,
+  y: number,
+  widthPt: number,
+  fontSize: number,
+): { markup: string[]; y: number } {
+  const markup: string[] = [];
+  let baseline = y;
+  for (const note of notes) {
+    for (const text of wrapWords(note, widthPt, fontSize)) {
+      markup.push(`<text x="${svgNumber(x)}" y="${svgNumber(baseline)}">${xmlText(text)}</text>`);
+      baseline += fontSize + 2;
+    }
+    baseline += 2;
+  }
+  return { markup, y: baseline };
+}
+
 /** About `count` round tick values within [from, to] (either order), ascending. */
 export function linearTicks(from: number, to: number, count = 5): number[] {
   const lo = Math.min(from, to);

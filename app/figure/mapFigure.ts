@@ -18,6 +18,7 @@ import {
   tickLabelFormat,
   typesetLabel,
   linearTicks,
+  wrapWords,
   type AxisScale,
 } from './figureStyle';
 import { xmlText } from './xmlText';
@@ -84,21 +85,6 @@ function meaningOf(label: string): string {
     .split('+')
     .map((t) => SHORT_MEANINGS[t] ?? TOKEN_MEANINGS[t]?.split(':')[0] ?? t)
     .join(' + ');
-}
-
-/** Words of `text` in lines no wider than `width` pt at `fontSize`. */
-function wrap(text: string, width: number, fontSize: number): string[] {
-  const lines: string[] = [];
-  let line = '';
-  for (const word of text.split(' ')) {
-    const next = line === '' ? word : `${line} ${word}`;
-    if (line !== '' && estimateTextWidth(next, fontSize) > width) {
-      lines.push(line);
-      line = word;
-    } else line = next;
-  }
-  if (line !== '') lines.push(line);
-  return lines;
 }
 
 function linearScale(from: number, to: number, r0: number, r1: number): AxisScale {
@@ -255,7 +241,7 @@ export function mapFigureSvg(map: FigureMap, options: MapFigureOptions = {}): st
   const legendParts: string[] = [];
   let y = legendTop;
   for (const entry of entries) {
-    const meaning = wrap(
+    const meaning = wrapWords(
       meaningOf(entry.label),
       legendWidth - swatch - 0.6 * fs - labelColumn,
       small,

@@ -13,12 +13,11 @@ import {
   FIGURE_INK,
   FIGURE_LINE,
   axisSvg,
-  estimateTextWidth,
   figureDocument,
+  notesSvg,
   svgNumber,
   typesetLabel,
 } from '../figure/figureStyle';
-import { xmlText } from '../figure/xmlText';
 import {
   ROTATION_NAMES,
   branchRuns,
@@ -40,20 +39,6 @@ export interface DispersionFigureOptions extends DispersionUnits {
 
 /** Width of the dark casing under each coloured branch, pt: light colours stay visible. */
 const CASING_PT = 1.9;
-
-function wrap(text: string, widthPt: number, fontSize: number): string[] {
-  const lines: string[] = [];
-  let current = '';
-  for (const word of text.split(' ')) {
-    const next = current === '' ? word : `${current} ${word}`;
-    if (current !== '' && estimateTextWidth(next, fontSize) > widthPt) {
-      lines.push(current);
-      current = word;
-    } else current = next;
-  }
-  if (current !== '') lines.push(current);
-  return lines;
-}
 
 /**
  * The dispersion of the collective modes as a paper-ready SVG figure, in the Figure's style
@@ -160,15 +145,9 @@ export function dispersionFigureSvg(
   }
   marks.push(`${MEAN_FIELD_CAUTION} ${DISPERSION_CAUTION}`);
   yLegend += 2;
-  for (const note of marks) {
-    for (const text of wrap(note, plotWidth + left - 4, small)) {
-      parts.push(
-        `<text x="${svgNumber(-left + 4)}" y="${svgNumber(yLegend)}">${xmlText(text)}</text>`,
-      );
-      yLegend += small + 2;
-    }
-    yLegend += 2;
-  }
+  const notesMarkup = notesSvg(marks, -left + 4, yLegend, plotWidth + left - 4, small);
+  parts.push(...notesMarkup.markup);
+  yLegend = notesMarkup.y;
   parts.push('</g>', '</g>');
   if (title !== '') {
     parts.push(
