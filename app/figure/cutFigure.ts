@@ -9,6 +9,7 @@ import {
   axisSvg,
   estimateTextWidth,
   figureDocument,
+  figureTitleSvg,
   notesSvg,
   svgNumber,
   typesetLabel,
@@ -180,9 +181,7 @@ export function cutFigureSvg(cut: CutResult, options: CutFigureOptions = {}): st
   yLegend = notesMarkup.y;
   parts.push('</g>', '</g>');
   if (title !== '') {
-    parts.push(
-      `<text x="${svgNumber(left + plotWidth / 2)}" y="${svgNumber(1.3 * font)}" text-anchor="middle" font-size="${font + 1}">${typesetLabel(title, font + 1).markup}</text>`,
-    );
+    parts.push(figureTitleSvg(title, left + plotWidth / 2, font));
   }
   const description =
     cut.path.kind === 'line'

@@ -78,6 +78,11 @@ export function estimateTextWidth(text: string, fontSize: number = FIGURE_FONT.s
   return em * fontSize;
 }
 
+/** A figure's title above the plot, centred on `x`, typeset one point larger than `fontSize`. */
+export function figureTitleSvg(title: string, x: number, fontSize: number): string {
+  return `<text x="${svgNumber(x)}" y="${svgNumber(1.3 * fontSize)}" text-anchor="middle" font-size="${fontSize + 1}">${typesetLabel(title, fontSize + 1).markup}</text>`;
+}
+
 /** Words of `text` in lines no wider than `widthPt` at `fontSize` (a word longer stays whole). */
 export function wrapWords(text: string, widthPt: number, fontSize: number): string[] {
   const lines: string[] = [];

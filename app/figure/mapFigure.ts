@@ -14,9 +14,9 @@ import {
   axisSvg,
   estimateTextWidth,
   figureDocument,
+  figureTitleSvg,
   svgNumber,
   tickLabelFormat,
-  typesetLabel,
   linearTicks,
   wrapWords,
   type AxisScale,
@@ -287,9 +287,7 @@ export function mapFigureSvg(map: FigureMap, options: MapFigureOptions = {}): st
     '</defs>',
   );
   if (title !== '') {
-    body.push(
-      `<text x="${svgNumber(plotX + side / 2)}" y="${svgNumber(1.3 * fs)}" text-anchor="middle" font-size="${fs + 1}">${typesetLabel(title, fs + 1).markup}</text>`,
-    );
+    body.push(figureTitleSvg(title, plotX + side / 2, fs));
   }
   body.push('<g id="regions">', ...regionParts, '</g>');
   body.push(

@@ -14,6 +14,7 @@ import {
   FIGURE_LINE,
   axisSvg,
   figureDocument,
+  figureTitleSvg,
   notesSvg,
   svgNumber,
   typesetLabel,
@@ -150,9 +151,7 @@ export function dispersionFigureSvg(
   yLegend = notesMarkup.y;
   parts.push('</g>', '</g>');
   if (title !== '') {
-    parts.push(
-      `<text x="${svgNumber(left + plotWidth / 2)}" y="${svgNumber(1.3 * font)}" text-anchor="middle" font-size="${font + 1}">${typesetLabel(title, font + 1).markup}</text>`,
-    );
+    parts.push(figureTitleSvg(title, left + plotWidth / 2, font));
   }
   const description =
     `Collective modes of the ${context.phase} state along q, Coulomb scale ${d.coulomb}` +
