@@ -662,7 +662,9 @@ describe('fourfold: every option is used or refused, input is quoted briefly', (
     ];
     for (const run of runs) {
       expectOneLineError(run, ['\u2026']);
-      expect(run.stderr.trimEnd().length).toBeLessThanOrEqual(125);
+      // The longest is an unknown top-level field: the key cut to 16 characters, then the list
+      // of a model's fields (134 characters since the list names coulomb).
+      expect(run.stderr.trimEnd().length).toBeLessThanOrEqual(135);
     }
   });
 });
