@@ -189,3 +189,88 @@ export {
   dispersionToJson,
   type DispersionContext,
 } from './dispersionExport';
+// Observations and the fit (public/notes.html#observations, #fit).
+export { readCsvRecords, type CsvRecord } from './csvRows';
+export {
+  CONDITION_PHRASES,
+  conditionHolds,
+  isPhaseLabel,
+  parseStateCondition,
+  type StateCondition,
+} from './stateCondition';
+export {
+  MAX_OBSERVATIONS,
+  OBSERVATION_COLUMNS,
+  OBSERVATION_KINDS,
+  PAIR_COLUMN,
+  observationCells,
+  observationFromCells,
+  observationsFromJson,
+  observationsToCsv,
+  observationsToJson,
+  parseObservationsCsv,
+  type Observation,
+  type ObservationCells,
+  type ObservationColumn,
+  type ObservationKind,
+} from './observations';
+export {
+  MAX_SWEEP_TILT,
+  RATIO_CHANNELS,
+  conditionDocument,
+  conditionKey,
+  fieldConditionOf,
+  hartreeRatioOf,
+  parseFitPlane,
+  sweepConditionOf,
+  valleyPerTesla,
+  withHartreeRatio,
+  zeemanPerTesla,
+  type FieldCondition,
+  type FitPlane,
+  type FreeRatio,
+  type TiltSweepCondition,
+} from './fitPlane';
+export { SWEEP_SAMPLES, predictedTilt, tiltResidual, tiltSweep, type TiltSweep } from './tiltSweep';
+export {
+  DEFAULT_FIT_OPTIONS,
+  chiSquare,
+  phasesHold,
+  predictRows,
+  rowInGrid,
+  rowInLikelihood,
+  type FitOptions,
+  type FitProblem,
+  type RowPrediction,
+} from './rowPredictions';
+export {
+  FitCancelled,
+  computeConditionMap,
+  type ConditionMap,
+  type ConditionStages,
+} from './conditionMap';
+export {
+  DEFAULT_SWEEP_FIELD,
+  REFINE_TOLERANCE,
+  computeSweepField,
+  type SweepField,
+  type SweepFieldOptions,
+} from './sweepField';
+export { consistencyGrid, type ConsistencyGrid } from './consistencyGrid';
+export { TWO_SIGMA_LEVEL, chiSquareRise, erf } from './chiSquareLevels';
+export {
+  RATIO_BOUNDS,
+  fitLikelihood,
+  type FitParameter,
+  type FitResult,
+  type RowEvaluator,
+} from './likelihoodFit';
+export { runFit, type FitOutcome, type FitProgress, type FitRunners } from './fitRun';
+export { localConditionStages, localFitRunners, rowsAt, sweepsAt } from './fitStages';
+export { fitCaution, fitToJson } from './fitJson';
+export {
+  fitOptionsFromJson,
+  observationSetOfDocument,
+  observationSetToJson,
+  type ObservationSet,
+} from './observationSet';
