@@ -7,6 +7,13 @@ import {
   computePhaseMap,
   isPlainObject,
   cutToCsv,
+  fitToJson,
+  parseFitPlane,
+  parseObservationsCsv,
+  observationSetOfDocument,
+  DEFAULT_FIT_OPTIONS,
+  DEFAULT_SWEEP_FIELD,
+  runFit as runObservationFit,
   cutToJson,
   errorLine,
   mapCsvPieces,
@@ -54,8 +61,15 @@ const USAGE = `usage:
                                          TO in N points (default 0:6:61); D a gate distance in
                                          l_B; OUT ends in .json, .csv or .svg (default: JSON on
                                          stdout)
+  fourfold fit --model PLANE.json --observations OBS.csv [--out FIT.json] [--threads N]
+                                         which couplings of the plane (meV per tesla of B_perp)
+                                         explain a sample's observations: the consistency grid,
+                                         the maximum-likelihood estimate with uncertainties and
+                                         each row's prediction, as JSON on stdout or in FIT.json
 options:
-  --threads N   worker threads for map (default: all cores)
+  --threads N   worker threads for map and fit (default: all cores)
+  --observations OBS.csv
+                the fit's observations: header bPerp_T,tilt_deg,valleyZeeman_meV,kind,value,sigma
   --column single|double
                 figure width of a map's, a cut's or the modes' .svg: one journal column (8.6 cm,
                 default) or two (17.8 cm)
@@ -90,9 +104,10 @@ interface Args {
   coulomb?: number;
   gate?: number;
   q?: { from: number; to: number; count: number };
+  observations?: string;
 }
 
-type Command = 'solve' | 'map' | 'cut' | 'probe' | 'modes';
+type Command = 'solve' | 'map' | 'cut' | 'probe' | 'modes' | 'fit';
 
 /** The options each command takes; any other is refused, so that none is silently ignored. */
 const COMMAND_OPTIONS: Readonly<Record<Command, readonly string[]>> = {
@@ -101,6 +116,7 @@ const COMMAND_OPTIONS: Readonly<Record<Command, readonly string[]>> = {
   cut: ['--model', '--from', '--to', '--n', '--out', '--column', '--title'],
   probe: ['--model', '--at', '--out'],
   modes: ['--model', '--coulomb', '--q', '--gate', '--out', '--column', '--title'],
+  fit: ['--model', '--observations', '--out', '--threads'],
 };
 
 const ALL_OPTIONS = new Set(Object.values(COMMAND_OPTIONS).flat());
@@ -160,7 +176,7 @@ function parseArgs(argv: readonly string[]): Args {
   }
   if (!isCommand(command)) {
     throw new CliError(
-      `unknown command ${quoteInput(command)}; use solve, map, cut, probe or modes (--help for usage)`,
+      `unknown command ${quoteInput(command)}; use solve, map, cut, probe, modes or fit (--help for usage)`,
       2,
     );
   }
@@ -216,6 +232,7 @@ function parseArgs(argv: readonly string[]): Args {
     } else if (flag === '--gate') {
       args.gate = parseAmount(flag, value, 'a gate distance > 0 in units of l_B', true);
     } else if (flag === '--q') args.q = parseWavevectors(value);
+    else if (flag === '--observations') args.observations = value;
     else if (flag === '--n') {
       const n = value.trim() === '' ? NaN : Number(value);
       if (!Number.isInteger(n) || n < 2 || n > MAX_CUT_POINTS) {
@@ -234,6 +251,15 @@ function parseArgs(argv: readonly string[]): Args {
     if (args.from[0] === args.to[0] && args.from[1] === args.to[1]) {
       throw new CliError('--to: must differ from --from (a cut needs two distinct end points)', 2);
     }
+  }
+  if (command === 'fit' && args.observations === undefined) {
+    throw new CliError('--observations: missing (give the observations as OBS.csv)', 2);
+  }
+  if (command === 'fit' && args.out !== undefined && !/\.json$/i.test(args.out)) {
+    throw new CliError(
+      `--out ${quoteInput(args.out, QUOTED_PATH_LENGTH)}: fit writes its result as JSON; end it in .json`,
+      2,
+    );
   }
   if (args.out !== undefined) {
     const ending = command === 'solve' ? 'json' : command === 'probe' ? 'svg' : null;
@@ -437,6 +463,62 @@ async function runModes(json: unknown, args: Args): Promise<void> {
   writeOutput(path, text);
 }
 
+/** The text of a file the command reads besides the model (one line naming it if it cannot). */
+function readText(flag: string, path: string): string {
+  try {
+    return readFileSync(path, 'utf8');
+  } catch (error) {
+    const code = (error as NodeJS.ErrnoException).code;
+    const reason =
+      code === 'ENOENT'
+        ? 'no such file'
+        : code === 'EISDIR'
+          ? 'is a directory'
+          : (code ?? 'unreadable');
+    throw new CliError(`${flag} ${quoteInput(path, QUOTED_PATH_LENGTH)}: ${reason}`);
+  }
+}
+
+/**
+ * Which couplings of the plane explain the observations (README, Command line): the
+ * consistency grid, the fit and each row's prediction, as JSON. A bad row ends with one line
+ * naming its row and column (exit 1).
+ */
+async function runFit(json: unknown, args: Args): Promise<void> {
+  const source = args.observations!;
+  const text = readText('--observations', source);
+  let rows;
+  try {
+    rows = parseObservationsCsv(text);
+  } catch (error) {
+    if (error instanceof ModelError) {
+      throw new CliError(
+        `--observations ${quoteInput(source, QUOTED_PATH_LENGTH)}: ${error.message}`,
+      );
+    }
+    throw error;
+  }
+  if (rows.length === 0) {
+    throw new CliError(
+      `--observations ${quoteInput(source, QUOTED_PATH_LENGTH)}: no observation rows below the header`,
+    );
+  }
+  const plane = parseFitPlane(json);
+  const { FitThreads } = await import('./workers/node/fitThreads');
+  const threads = new FitThreads(new URL('./fitThread.mjs', import.meta.url), args.threads);
+  try {
+    // Options a scenario saved by the app carries (its own rows give way to OBS.csv).
+    const options = observationSetOfDocument(json, '--model')?.options ?? DEFAULT_FIT_OPTIONS;
+    const problem = { plane, rows, options };
+    const outcome = await runObservationFit(problem, threads.runners, DEFAULT_SWEEP_FIELD);
+    const document = `${JSON.stringify(fitToJson(problem, outcome))}\n`;
+    if (args.out === undefined) process.stdout.write(document);
+    else writeOutput(args.out, document);
+  } finally {
+    await threads.close();
+  }
+}
+
 /** Runs the CLI; returns the exit code. Every failure is one line on stderr, no stack trace. */
 export async function main(argv: readonly string[]): Promise<number> {
   try {
@@ -449,6 +531,7 @@ export async function main(argv: readonly string[]): Promise<number> {
     } else if (args.command === 'cut') await runCut(json, args);
     else if (args.command === 'probe') process.stdout.write(await runProbe(json, args));
     else if (args.command === 'modes') await runModes(json, args);
+    else if (args.command === 'fit') await runFit(json, args);
     else await runMap(json, args);
     return 0;
   } catch (error) {
