@@ -284,10 +284,10 @@ function parseArgs(argv: readonly string[]): Args {
   return args;
 }
 
-function readJson(path: string): unknown {
-  let text: string;
+/** The text of a file the command reads (the model, the observations); one line naming it if it cannot. */
+function readText(flag: string, path: string): string {
   try {
-    text = readFileSync(path, 'utf8');
+    return readFileSync(path, 'utf8');
   } catch (error) {
     const code = (error as NodeJS.ErrnoException).code;
     const reason =
@@ -296,8 +296,12 @@ function readJson(path: string): unknown {
         : code === 'EISDIR'
           ? 'is a directory'
           : (code ?? 'unreadable');
-    throw new CliError(`--model ${quoteInput(path, QUOTED_PATH_LENGTH)}: ${reason}`);
+    throw new CliError(`${flag} ${quoteInput(path, QUOTED_PATH_LENGTH)}: ${reason}`);
   }
+}
+
+function readJson(path: string): unknown {
+  let text = readText('--model', path);
   // A UTF-8 byte order mark is not JSON (RFC 8259 section 8.1), but some editors write one.
   if (text.startsWith('\ufeff')) text = text.slice(1);
   try {
@@ -463,22 +467,6 @@ async function runModes(json: unknown, args: Args): Promise<void> {
   writeOutput(path, text);
 }
 
-/** The text of a file the command reads besides the model (one line naming it if it cannot). */
-function readText(flag: string, path: string): string {
-  try {
-    return readFileSync(path, 'utf8');
-  } catch (error) {
-    const code = (error as NodeJS.ErrnoException).code;
-    const reason =
-      code === 'ENOENT'
-        ? 'no such file'
-        : code === 'EISDIR'
-          ? 'is a directory'
-          : (code ?? 'unreadable');
-    throw new CliError(`${flag} ${quoteInput(path, QUOTED_PATH_LENGTH)}: ${reason}`);
-  }
-}
-
 /**
  * Which couplings of the plane explain the observations (README, Command line): the
  * consistency grid, the fit and each row's prediction, as JSON. A bad row ends with one line
@@ -504,18 +492,18 @@ async function runFit(json: unknown, args: Args): Promise<void> {
     );
   }
   const plane = parseFitPlane(json);
-  const { FitThreads } = await import('./workers/node/fitThreads');
-  const threads = new FitThreads(new URL('./fitThread.mjs', import.meta.url), args.threads);
+  const { ThreadPool } = await import('./workers/node/threadPool');
+  const pool = new ThreadPool(new URL('./mapThread.mjs', import.meta.url), args.threads);
   try {
     // Options a scenario saved by the app carries (its own rows give way to OBS.csv).
     const options = observationSetOfDocument(json, '--model')?.options ?? DEFAULT_FIT_OPTIONS;
     const problem = { plane, rows, options };
-    const outcome = await runObservationFit(problem, threads.runners, DEFAULT_SWEEP_FIELD);
+    const outcome = await runObservationFit(problem, pool.fitRunners, DEFAULT_SWEEP_FIELD);
     const document = `${JSON.stringify(fitToJson(problem, outcome))}\n`;
     if (args.out === undefined) process.stdout.write(document);
     else writeOutput(args.out, document);
   } finally {
-    await threads.close();
+    await pool.close();
   }
 }
 

@@ -56,11 +56,7 @@ async function build() {
   const started = Date.now();
   const result = await esbuild({
     absWorkingDir: root,
-    entryPoints: {
-      cli: 'cli.ts',
-      mapThread: 'workers/node/mapThread.ts',
-      fitThread: 'workers/node/fitThread.ts',
-    },
+    entryPoints: { cli: 'cli.ts', mapThread: 'workers/node/mapThread.ts' },
     outdir: dir,
     outExtension: { '.js': '.mjs' },
     bundle: true,

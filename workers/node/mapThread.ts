@@ -1,17 +1,29 @@
 import { parentPort } from 'node:worker_threads';
 import { expose, transfer } from 'comlink';
 import nodeEndpoint from 'comlink/dist/esm/node-adapter.mjs';
-import { locateCrossings, solveCells, solveCoarseNodes } from '../../solver/index';
+import {
+  locateCrossings,
+  rowsAt,
+  solveCells,
+  solveCoarseNodes,
+  sweepsAt,
+} from '../../solver/index';
 import type {
   CellRange,
   CoarseBlock,
   CoarseNodes,
   Crossing,
+  FitProblem,
   MapInput,
   PixelBlock,
+  RowPrediction,
+  TiltSweep,
 } from '../../solver/index';
 
-/** The Map stages, exposed to the CLI's thread pool; all logic lives in solver/. */
+/**
+ * The Map stages and the fit's tilt sweeps and row evaluations, exposed to the CLI's thread
+ * pool; all logic lives in solver/.
+ */
 const mapThreadApi = {
   coarse(input: MapInput, nodes: Int32Array): CoarseBlock {
     const b = solveCoarseNodes(input, nodes);
@@ -28,6 +40,12 @@ const mapThreadApi = {
     endLabels: string[],
   ): Crossing[] {
     return locateCrossings(input, edges, endFrames, endLabels);
+  },
+  sweeps(document: string, gFactor: number, startDeg: number, points: Float64Array): TiltSweep[] {
+    return sweepsAt(document, gFactor, startDeg, points);
+  },
+  rows(problem: FitProblem, points: number[][]): RowPrediction[][] {
+    return rowsAt(problem, points);
   },
 };
 

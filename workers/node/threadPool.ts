@@ -2,11 +2,16 @@ import { availableParallelism } from 'node:os';
 import { Worker } from 'node:worker_threads';
 import { wrap, type Remote } from 'comlink';
 import nodeEndpoint from 'comlink/dist/esm/node-adapter.mjs';
-import type { MapStages } from '../../solver/index';
+import {
+  computeConditionMap,
+  parseMapInput,
+  type FitRunners,
+  type MapStages,
+} from '../../solver/index';
 import type { MapThreadApi } from './mapThread';
 
 /**
- * A pool of worker threads running the Map stages for the CLI. Calls queue for the next free
+ * A pool of worker threads running the Map stages and the pieces of a fit for the CLI. Calls queue for the next free
  * thread; results do not depend on which thread ran them. `close()` ends the threads.
  */
 export class ThreadPool {
@@ -53,6 +58,17 @@ export class ThreadPool {
     cells: (input, coarse, cells) => this.run((r) => r.cells(input, coarse, cells)),
     crossings: (input, edges, frames, labels) =>
       this.run((r) => r.crossings(input, edges, frames, labels)),
+  };
+
+  /** The pieces of a fit (`runFit`): each condition's Map on the Map stages, sweeps and rows. */
+  readonly fitRunners: FitRunners = {
+    conditionMap: (document) =>
+      computeConditionMap(parseMapInput(JSON.parse(document)), this.stages, this.size),
+    sweeps: (document, gFactor, startDeg, points) =>
+      this.run((r) => r.sweeps(document, gFactor, startDeg, points)),
+    // One point per call, so that the points of one step spread over the threads.
+    rows: (problem, points) =>
+      Promise.all(points.map((p) => this.run((r) => r.rows(problem, [p])).then((out) => out[0]!))),
   };
 
   async close(): Promise<void> {
