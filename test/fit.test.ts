@@ -10,10 +10,13 @@ import {
   localFitRunners,
   parseFitPlane,
   parseMapInput,
+  parseModel,
+  predictRows,
   parseObservationsCsv,
   predictedTilt,
   runFit,
   seededRandom,
+  solve,
   sweepConditionOf,
   tiltResidual,
   tiltSweep,
@@ -303,5 +306,70 @@ describe('phase rows alone', () => {
       const u = grid.x[i]!;
       expect(grid.held[i] === grid.total).toBe(u > -A / 2 && u < -A / 4);
     }
+  });
+});
+
+describe('the plane of a fit', () => {
+  test('a scenario saved in physical units is read per tesla of B_perp', () => {
+    // The app's scenario holds the model in meV at its B_perp (README, Physical units): the
+    // plane of a fit is the same divided by B_perp, whatever its zeeman (E_Z comes from rows).
+    const perTesla = parseFitPlane({
+      ...contactPlane(8, [-0.12, -0.02], [0.15, 0.4]),
+      channels: { zz: { hartree: 0.01, fock: 0.02 } },
+      valleyZeeman: 0.3,
+    });
+    const scenario = parseFitPlane({
+      filling: 0,
+      channels: { zz: { hartree: 0.05, fock: 0.1 } },
+      zeeman: 0.75,
+      valleyZeeman: 0.3,
+      plane: standardPlane(8, 8, [-0.6, -0.1], [0.75, 2]),
+      fourfold: {
+        physical: {
+          bPerpTesla: 5,
+          tiltDeg: 30,
+          gFactor: 1.8,
+          epsilonR: 4,
+          exchangeInGap: false,
+          tiltMaxDeg: 80,
+        },
+      },
+    });
+    expect(scenario.scaledFromTesla).toBe(5);
+    expect(scenario.gFactor).toBe(1.8);
+    expect(perTesla.gFactor).toBe(2);
+    // Delta_V stays in meV (each row divides it by its own B_perp).
+    expect(scenario.valleyZeemanMeV).toBe(0.3);
+    const numbers = (doc: Record<string, unknown>) =>
+      JSON.stringify(doc, (_, v) => (typeof v === 'number' ? Number(v.toPrecision(12)) : v));
+    expect(numbers(scenario.document)).toBe(numbers(perTesla.document));
+  });
+});
+
+describe('rows at one point of the plane', () => {
+  test('a phase and a gap row at B_perp are the Map and the gap of the model times B_perp', () => {
+    // At (u_perp, u_z) = (-0.1, 0.06) meV/T and 6 T: KD, the Hartree-Fock gap of the model in
+    // meV with E_Z = g mu_B 6 T; the gap row is compared, not fitted (fitGaps off).
+    const plane = parseFitPlane(contactPlane(8, [-0.2, -0.04], [-0.04, 0.16]));
+    const rows = rowsOf(['6,0,,phase,KD,,', '6,0,,phase,no spin moment,,', '6,0,,gap,0.8,0.15,']);
+    const problem: FitProblem = { plane, rows, options: DEFAULT_FIT_OPTIONS };
+    const [kd, noSpin, gap] = predictRows(problem, [-0.1, 0.06]);
+    const model = parseModel({
+      filling: 0,
+      channels: {
+        x0: { hartree: -0.6, fock: -0.6 },
+        y0: { hartree: -0.6, fock: -0.6 },
+        z0: { hartree: 0.36, fock: 0.36 },
+      },
+      zeeman: 6 * A,
+      valleyZeeman: 0,
+    });
+    const expected = solve(model);
+    expect(expected.phase).toBe('KD');
+    expect(kd).toEqual({ predicted: 'KD', residual: null, holds: true });
+    expect(noSpin!.holds).toBe(true);
+    expect(gap!.predicted as number).toBeCloseTo(expected.gap, 9);
+    expect(gap!.residual).toBeCloseTo(((gap!.predicted as number) - 0.8) / 0.15, 12);
+    expect(gap!.holds).toBe(false);
   });
 });
