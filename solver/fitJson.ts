@@ -25,6 +25,13 @@ export function fitCaution(problem: FitProblem): string {
   return parts.join(' ');
 }
 
+/** What a fit says when no pixel of its grid reproduces every phase row. */
+function infeasibleCaution(grid: FitOutcome['grid']): string {
+  let most = 0;
+  for (const h of grid.phaseHeld) most = Math.max(most, h);
+  return `No point of the grid reproduces every phase row (at most ${most} of ${grid.phaseTotal} hold): the estimate and the intervals are where the most hold, and the observations may not fit this plane or this model.`;
+}
+
 function parameterJson(p: FitParameter) {
   return {
     label: p.label,
@@ -97,12 +104,13 @@ export function fitToJson(problem: FitProblem, outcome: FitOutcome): Record<stri
         inFit: rowInLikelihood(row, problem.options),
       };
     }),
+    feasible: fit.feasible,
     work: {
       maps: outcome.maps,
       sweeps: outcome.sweeps,
       evaluations: fit.evaluations,
       ...(outcome.truncated ? { truncated: true } : {}),
     },
-    caution: fitCaution(problem),
+    caution: [fitCaution(problem), ...(fit.feasible ? [] : [infeasibleCaution(grid)])].join(' '),
   };
 }

@@ -191,7 +191,7 @@ export async function fitLikelihood(
       covariance: null,
       deltaChi2: 0,
       predictions: at!.predictions,
-      feasible: at!.phases >= phaseTarget,
+      feasible: at!.phases >= phaseTarget && phaseTarget === grid.phaseTotal,
       evaluations,
     };
   }

@@ -7,6 +7,7 @@ import {
   conditionKey,
   consistencyGrid,
   fitLikelihood,
+  fitToJson,
   localFitRunners,
   parseFitPlane,
   parseMapInput,
@@ -301,11 +302,28 @@ describe('phase rows alone', () => {
     expect(fit.chi2).toBe(0);
     expect(fit.dof).toBe(0);
     expect(fit.predictions.every((p) => p.holds)).toBe(true);
+    expect(fit.feasible).toBe(true);
     // Pixels between the two boundaries hold all three rows; the others not.
     for (let i = 0; i < grid.nx; i++) {
       const u = grid.x[i]!;
       expect(grid.held[i] === grid.total).toBe(u > -A / 2 && u < -A / 4);
     }
+  });
+});
+
+describe('observations the plane cannot reproduce', () => {
+  test('two states at one field and tilt: not feasible, and the JSON says so', async () => {
+    const rows = rowsOf(['2,0,,phase,CAF,,', '2,0,,phase,F,,']);
+    const plane = parseFitPlane(contactPlane(6, [-0.12, -0.02], [0.15, 0.4]));
+    const problem: FitProblem = { plane, rows, options: DEFAULT_FIT_OPTIONS };
+    const outcome = await runFit(problem, localFitRunners, DEFAULT_SWEEP_FIELD);
+    expect(outcome.fit.feasible).toBe(false);
+    expect(outcome.fit.predictions.filter((p) => p.holds)).toHaveLength(1);
+    const json = fitToJson(problem, outcome) as { feasible: boolean; caution: string };
+    expect(json.feasible).toBe(false);
+    expect(json.caution).toContain(
+      'No point of the grid reproduces every phase row (at most 1 of 2',
+    );
   });
 });
 
