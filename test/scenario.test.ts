@@ -308,3 +308,69 @@ describe('Probe pins in the scenario file and the link', () => {
     ).toMatch(/at most/);
   });
 });
+
+describe('observations in the scenario file, the link and the autosave', () => {
+  const document = {
+    ...setupToScenario(GENERIC_SETUP),
+    fourfold: {
+      observations: {
+        rows: [
+          {
+            bPerp_T: 6,
+            tilt_deg: 0,
+            valleyZeeman_meV: null,
+            kind: 'phase',
+            value: 'no spin moment',
+            sigma: null,
+          },
+          {
+            bPerp_T: 9,
+            tilt_deg: null,
+            valleyZeeman_meV: 0.5,
+            kind: 'transition_tilt',
+            value: 49.4,
+            sigma: 1,
+            pair: 'KD/CAF',
+          },
+          { bPerp_T: 6, tilt_deg: 0, valleyZeeman_meV: null, kind: 'gap', value: 0.8, sigma: 0.15 },
+        ],
+        fitGaps: true,
+        freeRatio: null,
+      },
+    },
+  };
+
+  test('they ride in fourfold.observations and come back as loaded', () => {
+    const setup = scenarioToSetup(document);
+    expect(setup.observations?.rows).toHaveLength(3);
+    expect(setup.observations?.rows[1]).toEqual({
+      bPerpTesla: 9,
+      tiltDeg: null,
+      valleyZeemanMeV: 0.5,
+      kind: 'transition_tilt',
+      value: 49.4,
+      sigma: 1,
+      pair: ['KD', 'CAF'],
+    });
+    expect(setup.observations?.options).toEqual({ fitGaps: true, freeRatio: null });
+    expect(setupToScenario(setup).fourfold).toEqual(document.fourfold);
+    expect(readScenarioHash(scenarioHash(setup))).toEqual(setup);
+    expect(parseScenarioFile(scenarioFileText(setup), SCENARIO_FILE_NAME)).toEqual(setup);
+    // Without observations the document has no such block.
+    expect(setupToScenario(GENERIC_SETUP).fourfold).toBeUndefined();
+  });
+
+  test('a bad row gives one line naming the row and the column', () => {
+    const rows: Record<string, unknown>[] = [...document.fourfold.observations.rows];
+    rows[1] = { ...rows[1]!, sigma: -1 };
+    const message = errorOf(() =>
+      scenarioToSetup({
+        ...document,
+        fourfold: { observations: { ...document.fourfold.observations, rows } },
+      }),
+    );
+    expect(message).toBe(
+      'scenario: fourfold.observations.rows row 2, column sigma: expected a positive uncertainty, got -1',
+    );
+  });
+});

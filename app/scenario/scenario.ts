@@ -2,6 +2,8 @@ import {
   CHANNELS,
   ModelError,
   isPlainObject,
+  observationSetOfDocument,
+  observationSetToJson,
   parseMapInput,
   type Channel,
   type MapInput,
@@ -123,7 +125,12 @@ export function setupToScenario(setup: Setup): ScenarioJson {
     y: planeAxis(setup.y, setup),
     resolution: [...setup.resolution],
   };
-  return { ...document, ...physicalToScenario(setup) };
+  const extra = physicalToScenario(setup);
+  if (setup.observations !== undefined) {
+    const fourfold = isPlainObject(extra.fourfold) ? extra.fourfold : {};
+    extra.fourfold = { ...fourfold, observations: observationSetToJson(setup.observations) };
+  }
+  return { ...document, ...extra };
 }
 
 /** The validated solver input of a setup; throws ModelError naming the bad field. */
@@ -269,7 +276,11 @@ export function scenarioToSetup(json: unknown): Setup {
     ...(model.exchange !== undefined && !physical ? { exchange: model.exchange } : {}),
     ...(model.coulomb !== undefined && !physical ? { coulomb: model.coulomb } : {}),
   };
-  const out = physicalFromScenario(json, setup, model.exchange);
+  const observations = observationSetOfDocument(json, 'scenario');
+  const out = {
+    ...physicalFromScenario(json, setup, model.exchange),
+    ...(observations !== null ? { observations } : {}),
+  };
   // What the physical units derive (checked against the file there) is not compared again.
   const skip = new Set<string>();
   if (out.physical) {

@@ -1,4 +1,10 @@
-import { CHANNELS, type Channel, type Filling, type RangeProfile } from '../../solver/index';
+import {
+  CHANNELS,
+  type Channel,
+  type Filling,
+  type ObservationSet,
+  type RangeProfile,
+} from '../../solver/index';
 
 /** Quantities an axis of the Map can sweep (the targets they set are in `scenario.ts`). */
 export type AxisQuantity = 'uPerp' | 'uZ' | 'zeeman' | 'valleyZeeman' | Channel | 'custom';
@@ -95,6 +101,12 @@ export interface Setup {
    * eps_r instead.
    */
   readonly coulomb?: number;
+  /**
+   * A sample's observations and the fit's options (`fourfold.observations` of the scenario,
+   * what `npm run fit` reads from a scenario), kept as loaded so that saving, the link and the
+   * autosave carry them.
+   */
+  readonly observations?: ObservationSet;
   /** The model file's `name` and `description`, kept as loaded. */
   readonly name?: string;
   readonly description?: string;
