@@ -9,6 +9,7 @@ import { CutPanel } from './cut/CutPanel';
 import { DrawingNote } from './cut/DrawingNote';
 import { FigureBar } from './figure/FigureBar';
 import { Readout } from './readout/Readout';
+import { ObservationsPanel } from './observations/ObservationsPanel';
 import { NoticeLine } from './scenario/NoticeLine';
 import { ScenarioBar } from './scenario/ScenarioBar';
 import { useScenarioSync } from './scenario/useScenarioSync';
@@ -63,6 +64,10 @@ export function App() {
         <section className="panel cut-row" aria-labelledby="cut-heading">
           <h2 id="cut-heading">Cut</h2>
           <CutPanel />
+        </section>
+        <section className="panel observations-row" aria-labelledby="observations-heading">
+          <h2 id="observations-heading">Observations</h2>
+          <ObservationsPanel />
         </section>
       </main>
     </div>

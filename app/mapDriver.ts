@@ -184,7 +184,9 @@ export function startMapDriver(mode: MapMode = 'staged'): () => void {
   };
 
   const unsubscribe = store.subscribe((state, previous) => {
-    if (state.setup !== previous.setup) changed(state.setup);
+    if (state.setup !== previous.setup && !onlyObservationsDiffer(state.setup, previous.setup)) {
+      changed(state.setup);
+    }
   });
   changed(store.getState().setup);
 
@@ -211,4 +213,12 @@ export function startMapDriver(mode: MapMode = 'staged'): () => void {
     scheduler?.stop();
     pool?.close();
   };
+}
+
+/** Whether two setups differ in their observations alone (which do not change the Map). */
+function onlyObservationsDiffer(a: Setup, b: Setup): boolean {
+  if (a.observations === b.observations) return false;
+  const keys = new Set([...Object.keys(a), ...Object.keys(b)]);
+  keys.delete('observations');
+  return [...keys].every((k) => a[k as keyof Setup] === b[k as keyof Setup]);
 }
