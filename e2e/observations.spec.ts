@@ -1,5 +1,5 @@
 import { expect, test } from '@playwright/test';
-import { failOnConsoleErrors, mapDone } from './demoPage';
+import { BUSY_MACHINE_MS, failOnConsoleErrors, mapDone } from './demoPage';
 
 failOnConsoleErrors();
 test.describe.configure({ timeout: 240_000 });
@@ -79,4 +79,36 @@ test('a bad row is named in one line, the text stays and the kept rows do not ch
   await expect(panel.getByTestId('observations-table').locator('caption')).toHaveText(
     'No observations kept',
   );
+});
+
+test('the kept rows are fitted on the Map\u2019s workers: phase rows alone give intervals', async ({
+  page,
+}) => {
+  await page.goto('/');
+  await mapDone(page);
+  const panel = page.getByTestId('observations');
+  await panel.scrollIntoViewIfNeeded();
+  await panel
+    .getByTestId('observations-text')
+    .fill(['bPerp_T,tilt_deg,valleyZeeman_meV,kind,value,sigma', '3,0,,phase,CAF,'].join('\n'));
+  await panel.getByTestId('observations-keep').click();
+  await panel.getByTestId('observations-fit').click();
+  const status = panel.getByTestId('observations-fit-status');
+  await expect(status).toHaveAttribute('data-phase', 'done', { timeout: BUSY_MACHINE_MS });
+  const x = panel.getByTestId('fit-parameter-0');
+  await expect(x).toHaveAttribute('data-sigma', 'null');
+  await expect(x.locator('td').nth(1)).toHaveText('not constrained');
+  // The demo's couplings read per tesla: CAF at zero tilt needs 4 |u_perp,F| > g mu_B (E_Z per
+  // tesla, g = 2, mu_B from CODATA 2018: E. Tiesinga et al., Rev. Mod. Phys. 93, 025010 (2021)).
+  const hi = Number(await x.locator('td').nth(3).getAttribute('data-hi'));
+  console.log(`fit in the page: u_perp up to ${hi}`);
+  expect(Math.abs(hi - -(2 * 5.788381806e-2) / 4)).toBeLessThan(1e-4);
+  await expect(panel.getByTestId('fit-row-1').locator('td').nth(5)).toHaveText('yes');
+  await expect(panel.getByTestId('fit-caution')).toContainText('Mean-field');
+  // A change of the setup makes the result out of date.
+  await panel
+    .getByTestId('observations-text')
+    .fill(['bPerp_T,tilt_deg,valleyZeeman_meV,kind,value,sigma', '3,0,,phase,F,'].join('\n'));
+  await panel.getByTestId('observations-keep').click();
+  await expect(status).toHaveAttribute('data-phase', 'stale');
 });

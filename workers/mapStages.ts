@@ -5,6 +5,7 @@ import {
   QUICK_SEARCH,
   computeCut,
   couplingsOf,
+  localFitRunners,
   locateCrossings,
   minimiseEnergy,
   modelAtPoint,
@@ -16,16 +17,22 @@ import {
   solveCoarseNodes,
   solvePixelList,
   solveRowsCold,
+  sweepsAt,
+  rowsAt,
   type CellRange,
+  type ConditionMap,
   type CoarseBlock,
   type CoarseNodes,
   type Crossing,
   type CutPath,
   type CutResult,
+  type FitProblem,
   type MapInput,
   type ModelDispersion,
   type PixelBlock,
   type ProbeReport,
+  type RowPrediction,
+  type TiltSweep,
 } from '../solver/index';
 
 let lastJson = '';
@@ -103,6 +110,18 @@ export const mapStagesApi = {
       c,
       arrays.map((a) => a.buffer),
     );
+  },
+  /** A fit's Map of one field condition, every pixel solved (`computeConditionMap`). */
+  conditionMap(document: string): Promise<ConditionMap> {
+    return localFitRunners.conditionMap(document);
+  },
+  /** A fit's tilt sweeps at the (x, y) pairs of `points` (`tiltSweep`). */
+  sweeps(document: string, gFactor: number, startDeg: number, points: Float64Array): TiltSweep[] {
+    return sweepsAt(document, gFactor, startDeg, points);
+  },
+  /** Every observation row at each parameter point (`predictRows`). */
+  rows(problem: FitProblem, points: number[][]): RowPrediction[][] {
+    return rowsAt(problem, points);
   },
   /** The baseline: a full cold search at every pixel of rows [j0, j0 + rows). */
   coldRows(json: string, j0: number, rows: number): PixelBlock {

@@ -11,6 +11,7 @@ import {
   quoteInput,
 } from '../../solver/index';
 import { useFourfold } from '../store/index';
+import { PageFit } from './PageFit';
 import './observations.css';
 
 /** Largest observations file read (100 rows are a few kilobytes). */
@@ -76,9 +77,9 @@ export function ObservationsPanel() {
         One row per observation, as CSV with the header{' '}
         <code>bPerp_T,tilt_deg,valleyZeeman_meV,kind,value,sigma</code> and optionally{' '}
         <code>pair</code>; <code>kind</code> is <code>phase</code>, <code>transition_tilt</code> or{' '}
-        <code>gap</code>. The rows ride with the scenario, the link and the autosave; the
-        consistency grid and the fit run on the command line for now (<code>npm run fit</code>,
-        README).
+        <code>gap</code>. The rows ride with the scenario, the link and the autosave; the couplings
+        of the Map's plane are read per tesla of B⊥ (<code>npm run fit</code> reads a saved scenario
+        the same way, README).
       </p>
       <textarea
         className="observations-text"
@@ -160,6 +161,7 @@ export function ObservationsPanel() {
           })}
         </tbody>
       </table>
+      <PageFit />
     </div>
   );
 }

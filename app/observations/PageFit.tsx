@@ -1,0 +1,203 @@
+import { useEffect, useMemo, useRef, useState } from 'react';
+import {
+  DEFAULT_SWEEP_FIELD,
+  FitCancelled,
+  ModelError,
+  errorLine,
+  fitToJson,
+  runFit,
+  type FitOutcome,
+  type FitProblem,
+} from '../../solver/index';
+import { setupToScenario } from '../scenario/scenario';
+import { useFourfold } from '../store/index';
+import { PAGE_FIT_SIDE, pageFitProblem, pageFitRunners } from './browserFit';
+
+type FitState =
+  | { readonly phase: 'idle' }
+  | { readonly phase: 'running'; readonly progress: string }
+  | { readonly phase: 'error'; readonly text: string }
+  | {
+      readonly phase: 'done';
+      readonly key: string;
+      readonly problem: FitProblem;
+      readonly outcome: FitOutcome;
+    };
+
+const STAGE_WORDS = { maps: 'Maps', sweeps: 'tilt sweeps', fit: 'evaluations' } as const;
+
+function number(v: number | null | undefined): string {
+  return v === null || v === undefined ? '' : String(Number(v.toPrecision(4)));
+}
+
+/**
+ * The fit of the kept observations over the Map's plane, run on the Map's workers (the same
+ * code as `npm run fit`, on a grid of at most PAGE_FIT_SIDE pixels a side): each parameter with
+ * its estimate, sigma and 2-sigma interval (or the interval alone where the data do not
+ * constrain it), chi^2, and each row observed against predicted.
+ */
+export function PageFit() {
+  const setup = useFourfold((s) => s.setup);
+  const rows = setup.observations?.rows ?? [];
+  const key = useMemo(() => {
+    try {
+      return JSON.stringify(setupToScenario(setup));
+    } catch {
+      return '';
+    }
+  }, [setup]);
+  const [state, setState] = useState<FitState>({ phase: 'idle' });
+  const job = useRef(0);
+  useEffect(
+    () => () => {
+      job.current++;
+    },
+    [],
+  );
+
+  const start = async () => {
+    const mine = ++job.current;
+    let problem: FitProblem;
+    try {
+      problem = pageFitProblem(setup);
+    } catch (error) {
+      if (!(error instanceof ModelError)) throw error;
+      setState({ phase: 'error', text: `${error.message}.` });
+      return;
+    }
+    setState({ phase: 'running', progress: 'starting' });
+    const stale = () => mine !== job.current;
+    try {
+      const outcome = await runFit(
+        problem,
+        pageFitRunners,
+        DEFAULT_SWEEP_FIELD,
+        (p) => {
+          if (!stale())
+            setState({ phase: 'running', progress: `${p.done} ${STAGE_WORDS[p.stage]}` });
+        },
+        stale,
+      );
+      if (!stale()) setState({ phase: 'done', key, problem, outcome });
+    } catch (error) {
+      if (error instanceof FitCancelled || stale()) return;
+      setState({ phase: 'error', text: errorLine(error) });
+    }
+  };
+
+  const status =
+    state.phase === 'idle'
+      ? `Fits the kept rows over the Map's plane (at most ${PAGE_FIT_SIDE} x ${PAGE_FIT_SIDE} pixels), couplings read per tesla of B\u22a5.`
+      : state.phase === 'running'
+        ? `Fitting: ${state.progress}\u2026`
+        : state.phase === 'error'
+          ? state.text
+          : state.key === key
+            ? 'Fitted.'
+            : 'The setup or the rows changed since this fit: fit again.';
+
+  return (
+    <div className="page-fit">
+      <div className="observations-actions">
+        <button
+          type="button"
+          data-testid="observations-fit"
+          disabled={rows.length === 0 || state.phase === 'running'}
+          onClick={() => void start()}
+        >
+          Fit the rows
+        </button>
+        {state.phase === 'running' ? (
+          <button
+            type="button"
+            data-testid="observations-fit-cancel"
+            onClick={() => {
+              job.current++;
+              setState({ phase: 'idle' });
+            }}
+          >
+            Cancel
+          </button>
+        ) : null}
+      </div>
+      <p
+        className={`observations-message ${state.phase === 'error' ? 'error' : 'info'}`}
+        role={state.phase === 'error' ? 'alert' : 'status'}
+        data-testid="observations-fit-status"
+        data-phase={state.phase === 'done' && state.key !== key ? 'stale' : state.phase}
+      >
+        {status}
+      </p>
+      {state.phase === 'done' ? (
+        <FitTables problem={state.problem} outcome={state.outcome} />
+      ) : null}
+    </div>
+  );
+}
+
+function FitTables({ problem, outcome }: { problem: FitProblem; outcome: FitOutcome }) {
+  const json = fitToJson(problem, outcome) as { caution: string };
+  const { fit } = outcome;
+  return (
+    <>
+      <table className="observations-table" data-testid="fit-parameters">
+        <caption>
+          chi² {number(fit.chi2)} for {fit.dof} degrees of freedom
+        </caption>
+        <thead>
+          <tr>
+            <th scope="col">parameter</th>
+            <th scope="col">estimate</th>
+            <th scope="col">σ</th>
+            <th scope="col">2σ interval</th>
+          </tr>
+        </thead>
+        <tbody>
+          {fit.parameters.map((p, d) => (
+            <tr key={d} data-testid={`fit-parameter-${d}`} data-sigma={p.sigma ?? 'null'}>
+              <td>{p.label} (meV/T)</td>
+              <td>{p.estimate === null ? 'not constrained' : number(p.estimate)}</td>
+              <td>{p.sigma === null ? '\u2013' : number(p.sigma)}</td>
+              <td data-lo={p.interval[0]} data-hi={p.interval[1]}>
+                {number(p.interval[0])} to {number(p.interval[1])}
+              </td>
+            </tr>
+          ))}
+        </tbody>
+      </table>
+      <table className="observations-table" data-testid="fit-rows">
+        <caption>Each row at the estimate</caption>
+        <thead>
+          <tr>
+            <th scope="col">row</th>
+            <th scope="col">kind</th>
+            <th scope="col">observed</th>
+            <th scope="col">predicted</th>
+            <th scope="col">residual (σ)</th>
+            <th scope="col">holds</th>
+          </tr>
+        </thead>
+        <tbody>
+          {problem.rows.map((row, k) => {
+            const p = fit.predictions[k]!;
+            const shown = (v: string | number | null) =>
+              typeof v === 'number' ? number(v) : (v ?? 'none');
+            return (
+              <tr key={k} data-testid={`fit-row-${k + 1}`}>
+                <td>{k + 1}</td>
+                <td>{row.kind}</td>
+                <td>{shown(row.value)}</td>
+                <td>{shown(p.predicted)}</td>
+                <td>{p.residual === null ? '' : number(p.residual)}</td>
+                <td>{p.holds ? 'yes' : 'no'}</td>
+              </tr>
+            );
+          })}
+        </tbody>
+      </table>
+      <p className="observations-note" data-testid="fit-caution">
+        {json.caution}
+      </p>
+    </>
+  );
+}
