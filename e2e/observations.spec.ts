@@ -105,10 +105,18 @@ test('the kept rows are fitted on the Map\u2019s workers: phase rows alone give 
   expect(Math.abs(hi - -(2 * 5.788381806e-2) / 4)).toBeLessThan(1e-4);
   await expect(panel.getByTestId('fit-row-1').locator('td').nth(5)).toHaveText('yes');
   await expect(panel.getByTestId('fit-caution')).toContainText('Mean-field');
+  // The consistent pixels are hatched on the Map: CAF holds on part of the demo plane only.
+  const layer = page.getByTestId('consistency-layer');
+  await expect(layer).toHaveAttribute('data-pixels', String(32 * 32));
+  const consistent = Number(await layer.getAttribute('data-consistent'));
+  expect(consistent).toBeGreaterThan(0);
+  expect(consistent).toBeLessThan(32 * 32);
+  await expect(layer.locator('rect')).toHaveCount(consistent);
   // A change of the setup makes the result out of date.
   await panel
     .getByTestId('observations-text')
     .fill(['bPerp_T,tilt_deg,valleyZeeman_meV,kind,value,sigma', '3,0,,phase,F,'].join('\n'));
   await panel.getByTestId('observations-keep').click();
   await expect(status).toHaveAttribute('data-phase', 'stale');
+  await expect(layer).toHaveCount(0);
 });

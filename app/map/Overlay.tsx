@@ -5,6 +5,7 @@ import type { Boundary, Plane } from '../../solver/index';
 import { CutLayer } from '../cut/CutLayer';
 import { PinLayer } from '../probe/PinLayer';
 import { useFourfold } from '../store/index';
+import { ConsistencyLayer } from '../observations/ConsistencyLayer';
 import { TiltTrajectoryLayer } from '../setup/TiltTrajectoryLayer';
 import { axisTitle } from './axisTitle';
 import { PLOT_MARGIN } from './plotFrame';
@@ -62,6 +63,7 @@ export function Overlay({ side }: OverlayProps) {
       <g transform={`translate(${PLOT_MARGIN.left},${PLOT_MARGIN.top})`}>
         <g clipPath={`url(#${clipId})`}>
           <Boundaries x={scales.x} y={scales.y} />
+          <ConsistencyLayer x={scales.x} y={scales.y} />
           <TiltTrajectoryLayer x={scales.x} y={scales.y} />
           <Crosshair x={scales.x} y={scales.y} side={side} />
           <CutLayer x={scales.x} y={scales.y} />

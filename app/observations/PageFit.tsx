@@ -9,9 +9,8 @@ import {
   type FitOutcome,
   type FitProblem,
 } from '../../solver/index';
-import { setupToScenario } from '../scenario/scenario';
 import { useFourfold } from '../store/index';
-import { PAGE_FIT_SIDE, pageFitProblem, pageFitRunners } from './browserFit';
+import { PAGE_FIT_SIDE, pageFitProblem, pageFitRunners, setupKey } from './browserFit';
 
 type FitState =
   | { readonly phase: 'idle' }
@@ -39,13 +38,7 @@ function number(v: number | null | undefined): string {
 export function PageFit() {
   const setup = useFourfold((s) => s.setup);
   const rows = setup.observations?.rows ?? [];
-  const key = useMemo(() => {
-    try {
-      return JSON.stringify(setupToScenario(setup));
-    } catch {
-      return '';
-    }
-  }, [setup]);
+  const key = useMemo(() => setupKey(setup), [setup]);
   const [state, setState] = useState<FitState>({ phase: 'idle' });
   const job = useRef(0);
   useEffect(
@@ -78,7 +71,18 @@ export function PageFit() {
         },
         stale,
       );
-      if (!stale()) setState({ phase: 'done', key, problem, outcome });
+      if (stale()) return;
+      setState({ phase: 'done', key, problem, outcome });
+      // The Map's axes are the plane's numbers at the scenario's field (per tesla times B_perp).
+      const scale = problem.plane.scaledFromTesla ?? 1;
+      const { grid } = outcome;
+      useFourfold.getState().setConsistency({
+        key,
+        x: grid.x.map((v) => v * scale),
+        y: grid.y.map((v) => v * scale),
+        held: grid.held,
+        total: grid.total,
+      });
     } catch (error) {
       if (error instanceof FitCancelled || stale()) return;
       setState({ phase: 'error', text: errorLine(error) });

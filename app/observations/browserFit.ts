@@ -42,3 +42,12 @@ export function pageFitProblem(setup: Setup): FitProblem {
     options: setup.observations?.options ?? DEFAULT_FIT_OPTIONS,
   };
 }
+
+/** A key naming a setup exactly (its scenario document), or '' where it has none. */
+export function setupKey(setup: Setup): string {
+  try {
+    return JSON.stringify(setupToScenario(setup));
+  } catch {
+    return '';
+  }
+}
