@@ -129,7 +129,9 @@ export function ObservationsPanel() {
       ) : null}
       <table className="observations-table" data-testid="observations-table">
         <caption>
-          {rows.length === 0 ? 'No observations kept' : `${rows.length} observations kept`}
+          {rows.length === 0
+            ? 'No observations kept'
+            : `${rows.length} ${rows.length === 1 ? 'observation' : 'observations'} kept`}
         </caption>
         <thead>
           <tr>
