@@ -1,5 +1,5 @@
 import { expect, test } from '@playwright/test';
-import { BUSY_MACHINE_MS, failOnConsoleErrors, mapDone } from './demoPage';
+import { BUSY_MACHINE_MS, failOnConsoleErrors, mapDone, pointAt } from './demoPage';
 
 failOnConsoleErrors();
 test.describe.configure({ timeout: 240_000 });
@@ -112,6 +112,16 @@ test('the kept rows are fitted on the Map\u2019s workers: phase rows alone give 
   expect(consistent).toBeGreaterThan(0);
   expect(consistent).toBeLessThan(32 * 32);
   await expect(layer.locator('rect')).toHaveCount(consistent);
+  // The readout says how many rows hold under the pointer.
+  await page.getByTestId('map-plot').scrollIntoViewIfNeeded();
+  for (const [x, y, held] of [
+    [-0.3, 1.6, '1'],
+    [1.5, 1.5, '0'],
+  ] as const) {
+    const [px, py] = await pointAt(page, x, y);
+    await page.mouse.move(px, py);
+    await expect(page.getByTestId('readout-observations')).toHaveAttribute('data-held', held);
+  }
   // A change of the setup makes the result out of date.
   await panel
     .getByTestId('observations-text')

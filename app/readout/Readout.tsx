@@ -13,6 +13,7 @@ import {
 import { formatDegrees, formatFixed } from '../format';
 import { useFourfold } from '../store/index';
 import { AxisName } from './AxisName';
+import { ObservationsHere } from '../observations/ObservationsHere';
 
 const DEGREES = 180 / Math.PI;
 /** Index of tau_z (x) 1, the generator of valley rotations (channel z0). */
@@ -80,6 +81,7 @@ export function Readout() {
             .join('; ')}
         </span>
       </p>
+      <ObservationsHere x={grid.x[hover.i]!} y={grid.y[hover.j]!} />
       {!solved ? (
         <p className="placeholder">Coarse preview: this pixel is still being solved.</p>
       ) : (
