@@ -1,3 +1,4 @@
+import { readFileSync } from 'node:fs';
 import { expect, test } from '@playwright/test';
 import { BUSY_MACHINE_MS, failOnConsoleErrors, mapDone, pointAt } from './demoPage';
 
@@ -112,6 +113,15 @@ test('the kept rows are fitted on the Map\u2019s workers: phase rows alone give 
   expect(consistent).toBeGreaterThan(0);
   expect(consistent).toBeLessThan(32 * 32);
   await expect(layer.locator('rect')).toHaveCount(consistent);
+  // The Figure export hatches the same pixels.
+  const [download] = await Promise.all([
+    page.waitForEvent('download'),
+    page.getByTestId('export-svg').click(),
+  ]);
+  const svg = readFileSync(await download.path(), 'utf8');
+  const hatched = /<g id="consistent"[^>]*>([\s\S]*?)<\/g>/.exec(svg)![1]!;
+  expect(hatched.match(/<rect /g)).toHaveLength(consistent);
+  expect(svg).toContain('every observation holds (1 row)');
   // The readout says how many rows hold under the pointer.
   await page.getByTestId('map-plot').scrollIntoViewIfNeeded();
   for (const [x, y, held] of [

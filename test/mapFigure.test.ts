@@ -207,6 +207,33 @@ test('a tilt path is drawn through its points with both end angles, and only whe
   expect(svg).not.toContain('meV');
 });
 
+test('the consistent pixels of a fit are hatched, one rectangle each, with a legend line; only when given', () => {
+  // A 4 x 3 grid over the plane [-2, 2]^2 in which 5 pixels hold both rows.
+  const held = [2, 2, 1, 0, 2, 2, 0, 0, 2, 1, 1, 0];
+  const x = [-1.5, -0.5, 0.5, 1.5];
+  const y = [-4 / 3, 0, 4 / 3];
+  const text = mapFigureSvg(map, { consistent: { x, y, held, total: 2 } });
+  const doc = parse(text);
+  const group = elements(doc, 'g').find((g) => g.getAttribute('id') === 'consistent')!;
+  expect(group.getAttribute('fill')).toBe('url(#consistent-hatch)');
+  const rects = elements(group, 'rect');
+  expect(rects).toHaveLength(5);
+  // Each rectangle is one grid pixel: a quarter of the plot's width, a third of its height.
+  const frame = elements(doc, 'rect').find((r) => r.getAttribute('id') === 'frame')!;
+  const side = Number(frame.getAttribute('width'));
+  for (const r of rects) {
+    expect(Number(r.getAttribute('width'))).toBeCloseTo(side / 4, 1);
+    expect(Number(r.getAttribute('height'))).toBeCloseTo(side / 3, 1);
+  }
+  const left = Math.min(...rects.map((r) => Number(r.getAttribute('x'))));
+  expect(left).toBeCloseTo(Number(frame.getAttribute('x')), 1);
+  expect(elements(doc, 'pattern').some((p) => p.getAttribute('id') === 'consistent-hatch')).toBe(
+    true,
+  );
+  expect(text).toContain('every observation holds (2 rows)');
+  expect(svg).not.toContain('consistent-hatch');
+});
+
 describe('boundaries in the SVG lie on the closed-form lines (public/notes.html#closed-forms)', () => {
   // nu = 0, H = F, Delta_V = 0, energies per flux quantum (public/notes.html#closed-forms, derived
   // there from the energy): E_F = -2 uPerp - uZ - E_Z, E_CDW = uZ, E_KD = uPerp,

@@ -8,6 +8,7 @@ import { tiltTrajectory } from '../setup/tiltTrajectory';
 import type { Setup } from '../scenario/setup';
 import { mapFigureSvg, type FigureTiltPath } from './mapFigure';
 import './figure.css';
+import { setupKey } from '../observations/browserFit';
 
 /** PNG resolutions offered, pixels per inch (300 and 600 are common journal minimums). */
 const DPI_CHOICES = [150, 300, 600] as const;
@@ -49,6 +50,9 @@ export function FigureBar() {
         pins: withPins ? s.probe.pins : [],
         tiltPath: figureTiltPath(s.setup),
         ...(s.setup.physical ? { unit: 'meV' } : {}),
+        ...(s.view.consistency !== null && s.view.consistency.key === setupKey(s.setup)
+          ? { consistent: s.view.consistency }
+          : {}),
       },
     );
   };

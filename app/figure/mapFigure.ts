@@ -54,7 +54,24 @@ export interface MapFigureOptions {
   readonly tiltPath?: FigureTiltPath;
   /** Unit of both axes' values, shown after their titles (meV in physical units; default none). */
   readonly unit?: string;
+  /**
+   * Where every observation of a fit holds (its grid in axis coordinates): those pixels are
+   * hatched, and the legend says how many rows hold there (default none).
+   */
+  readonly consistent?: FigureConsistency;
 }
+
+/** A fit's consistency grid in axis coordinates: pixel centres and rows holding per pixel. */
+export interface FigureConsistency {
+  readonly x: ArrayLike<number>;
+  readonly y: ArrayLike<number>;
+  /** Rows that hold at (x[i], y[j]), at held[j * x.length + i]. */
+  readonly held: ArrayLike<number>;
+  readonly total: number;
+}
+
+/** Spacing of the hatching of the consistent pixels, pt. */
+const HATCH = 2.4;
 
 /** A tilt path in axis coordinates, from zero tilt to the largest, with those two angles. */
 export interface FigureTiltPath {
@@ -220,6 +237,29 @@ export function mapFigureSvg(map: FigureMap, options: MapFigureOptions = {}): st
     }
   }
 
+  // Consistent pixels: hatched, one rectangle per grid pixel.
+  const hatchParts: string[] = [];
+  const consistent = options.consistent;
+  if (consistent && consistent.x.length > 0 && consistent.y.length > 0) {
+    const nx = consistent.x.length;
+    const halfOf = (values: ArrayLike<number>, scale: (v: number) => number) =>
+      values.length > 1 ? Math.abs(scale(values[1]!) - scale(values[0]!)) / 2 : side / 2;
+    const hx = halfOf(consistent.x, sx);
+    const hy = halfOf(consistent.y, sy);
+    for (let p = 0; p < consistent.held.length; p++) {
+      if (consistent.held[p] !== consistent.total) continue;
+      const cx = sx(consistent.x[p % nx]!);
+      const cy = sy(consistent.y[Math.floor(p / nx)]!);
+      hatchParts.push(
+        `<rect x="${svgNumber(cx - hx)}" y="${svgNumber(cy - hy)}" width="${svgNumber(2 * hx)}" height="${svgNumber(2 * hy)}"/>`,
+      );
+    }
+    patterns.push(
+      `<pattern id="consistent-hatch" patternUnits="userSpaceOnUse" width="${HATCH}" height="${HATCH}" patternTransform="rotate(-45)">` +
+        `<path d="M0,0V${HATCH}" stroke="${FIGURE_INK}" stroke-width="${FIGURE_LINE.tick}"/></pattern>`,
+    );
+  }
+
   // Axes: numbers and titles left and bottom, mirror ticks top and right.
   const unit = options.unit ? ` (${options.unit})` : '';
   const axes = [
@@ -277,6 +317,13 @@ export function mapFigureSvg(map: FigureMap, options: MapFigureOptions = {}): st
     sampleX += sample + 0.5 * fs + estimateTextWidth(text, small) + 1.5 * fs;
   });
   y += lineHeight;
+  if (consistent) {
+    legendParts.push(
+      `<rect x="${svgNumber(legendX)}" y="${svgNumber(y)}" width="${svgNumber(swatch)}" height="${svgNumber(swatch)}" fill="url(#consistent-hatch)" stroke="${FIGURE_INK}" stroke-width="${FIGURE_LINE.tick}"/>`,
+      `<text x="${svgNumber(legendX + swatch + 0.6 * fs)}" y="${svgNumber(y + 0.82 * fs)}" font-size="${small}">every observation holds (${consistent.total} ${consistent.total === 1 ? 'row' : 'rows'})</text>`,
+    );
+    y += lineHeight;
+  }
   const height = Math.ceil(Math.max(legendBeside ? plotY + side + bottom : 0, y + 0.6 * fs));
 
   const body: string[] = [];
@@ -295,6 +342,13 @@ export function mapFigureSvg(map: FigureMap, options: MapFigureOptions = {}): st
     ...boundaryParts,
     '</g>',
   );
+  if (hatchParts.length > 0) {
+    body.push(
+      '<g id="consistent" clip-path="url(#plot-area)" fill="url(#consistent-hatch)">',
+      ...hatchParts,
+      '</g>',
+    );
+  }
   if (pathParts.length > 0) {
     body.push('<g id="tilt-path" clip-path="url(#plot-area)">', ...pathParts, '</g>');
   }
