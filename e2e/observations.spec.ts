@@ -132,6 +132,9 @@ test('the kept rows are fitted on the Map\u2019s workers: phase rows alone give 
     await page.mouse.move(px, py);
     await expect(page.getByTestId('readout-observations')).toHaveAttribute('data-held', held);
   }
+  // The fitted point becomes a Probe pin in one click.
+  await panel.getByTestId('fit-pin').click();
+  await expect(page.getByTestId('probe-pin-1')).toHaveCount(1);
   // A change of the setup makes the result out of date.
   await panel
     .getByTestId('observations-text')

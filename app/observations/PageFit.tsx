@@ -142,8 +142,25 @@ export function PageFit() {
 function FitTables({ problem, outcome }: { problem: FitProblem; outcome: FitOutcome }) {
   const json = fitToJson(problem, outcome) as { caution: string };
   const { fit } = outcome;
+  // The point the predictions are given at, in the Map's axis units.
+  const scale = problem.plane.scaledFromTesla ?? 1;
+  const [px, py] = [fit.point[0]! * scale, fit.point[1]! * scale];
   return (
     <>
+      <div className="observations-actions">
+        <button
+          type="button"
+          data-testid="fit-pin"
+          data-x={px}
+          data-y={py}
+          onClick={() => useFourfold.getState().addPin(px, py)}
+        >
+          Pin the fitted point
+        </button>
+        <span className="observations-note">
+          its Probe, and a Cut sweep at the pin, are then one click away
+        </span>
+      </div>
       <table className="observations-table" data-testid="fit-parameters">
         <caption>
           chi² {number(fit.chi2)} for {fit.dof} degrees of freedom
