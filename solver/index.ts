@@ -268,6 +268,7 @@ export {
 export { runFit, type FitOutcome, type FitProgress, type FitRunners } from './fitRun';
 export { localConditionStages, localFitRunners, rowsAt, sweepsAt } from './fitStages';
 export { fitCaution, fitToJson } from './fitJson';
+export { predictTilts, type TiltPrediction } from './tiltPrediction';
 export {
   fitOptionsFromJson,
   observationSetOfDocument,

@@ -13,6 +13,7 @@ import {
   parseMapInput,
   parseModel,
   predictRows,
+  predictTilts,
   parseObservationsCsv,
   predictedTilt,
   runFit,
@@ -116,6 +117,15 @@ describe('the ferromagnet / canted-antiferromagnet transition at E_Z = 4 |u_perp
       for (let i = 0; i < grid.nx; i++) expect(grid.held[j * grid.nx + i]).toBe(held[i]);
     }
     expect(new Set(held).size).toBeGreaterThan(1);
+    // Prediction at another field: the same tilt (Delta_V = 0), with the band of the weighted
+    // mean of the rows, 1 / sqrt(sum 1 / sigma^2), since theta_c depends on u_perp alone.
+    const predictions = await predictTilts(problem, fit, 12, localFitRunners.rows);
+    expect(predictions.map((p) => p.pair?.join('/') ?? null)).toEqual(['CAF/F', null]);
+    for (const p of predictions) {
+      expect(p.bPerpTesla).toBe(12);
+      expect(Math.abs(p.tiltDeg! - thetaC)).toBeLessThan(1e-6);
+      expect(p.sigmaDeg! * Math.sqrt(sigmas.reduce((s, v) => s + v ** -2, 0))).toBeCloseTo(1, 3);
+    }
   });
 });
 
