@@ -1,5 +1,7 @@
 import { readFileSync } from 'node:fs';
 import { expect, test } from '@playwright/test';
+import { scenarioToSetup } from '../app/scenario/scenario';
+import { scenarioHash } from '../app/scenario/urlState';
 import { BUSY_MACHINE_MS, failOnConsoleErrors, mapDone, pointAt } from './demoPage';
 
 failOnConsoleErrors();
@@ -142,4 +144,60 @@ test('the kept rows are fitted on the Map\u2019s workers: phase rows alone give 
   await panel.getByTestId('observations-keep').click();
   await expect(status).toHaveAttribute('data-phase', 'stale');
   await expect(layer).toHaveCount(0);
+});
+
+test('a transition row: the fit recovers u_perp and predicts the tilt at another field', async ({
+  page,
+}) => {
+  // A contact-model plane near the F/CAF transition, read per tesla, with one transition row.
+  const setup = scenarioToSetup({
+    filling: 0,
+    channels: {},
+    zeeman: 0.1,
+    valleyZeeman: 0,
+    plane: {
+      x: {
+        label: 'u_perp',
+        from: -0.12,
+        to: -0.02,
+        targets: { 'x0.fock': 1, 'y0.fock': 1, 'x0.hartree': 1, 'y0.hartree': 1 },
+      },
+      y: { label: 'u_z', from: 0.15, to: 0.4, targets: { 'z0.fock': 1, 'z0.hartree': 1 } },
+      resolution: [16, 16],
+    },
+    fourfold: {
+      observations: {
+        rows: [
+          {
+            bPerp_T: 2,
+            tilt_deg: null,
+            valleyZeeman_meV: null,
+            kind: 'transition_tilt',
+            value: 60,
+            sigma: 1,
+            pair: 'CAF/F',
+          },
+        ],
+      },
+    },
+  });
+  await page.goto(`/${scenarioHash(setup)}`);
+  await mapDone(page);
+  const panel = page.getByTestId('observations');
+  await panel.scrollIntoViewIfNeeded();
+  await panel.getByTestId('observations-fit').click();
+  await expect(panel.getByTestId('observations-fit-status')).toHaveAttribute('data-phase', 'done', {
+    timeout: BUSY_MACHINE_MS,
+  });
+  // u_perp per tesla = -g mu_B / (4 cos 60 deg) (Phys. Rev. B 85, 155439 (2012); mu_B CODATA
+  // 2018, E. Tiesinga et al., Rev. Mod. Phys. 93, 025010 (2021)).
+  const x = panel.getByTestId('fit-parameter-0');
+  const estimate = Number(await x.locator('td').nth(1).textContent());
+  expect(Math.abs(estimate - -(2 * 5.788381806e-2) / 2)).toBeLessThan(1e-4);
+  await panel.getByTestId('fit-predict-field').fill('9');
+  await panel.getByTestId('fit-predict').click();
+  const prediction = panel.getByTestId('fit-prediction-1');
+  await expect(prediction).toContainText('CAF to F at 9 T: 60');
+  await expect(prediction).toContainText('\u00b1');
+  expect(Math.abs(Number(await prediction.getAttribute('data-tilt')) - 60)).toBeLessThan(1e-6);
 });

@@ -5,9 +5,11 @@ import {
   ModelError,
   errorLine,
   fitToJson,
+  predictTilts,
   runFit,
   type FitOutcome,
   type FitProblem,
+  type TiltPrediction,
 } from '../../solver/index';
 import { useFourfold } from '../store/index';
 import { PAGE_FIT_SIDE, pageFitProblem, pageFitRunners, setupKey } from './browserFit';
@@ -216,9 +218,69 @@ function FitTables({ problem, outcome }: { problem: FitProblem; outcome: FitOutc
           })}
         </tbody>
       </table>
+      {problem.rows.some((row) => row.kind === 'transition_tilt') ? (
+        <TiltPredictions problem={problem} outcome={outcome} />
+      ) : null}
       <p className="observations-note" data-testid="fit-caution">
         {json.caution}
       </p>
     </>
+  );
+}
+
+/** The transition tilts the fit predicts at a field the user types, with their bands. */
+function TiltPredictions({ problem, outcome }: { problem: FitProblem; outcome: FitOutcome }) {
+  const [field, setField] = useState(() =>
+    String(Math.max(...problem.rows.map((row) => row.bPerpTesla))),
+  );
+  const [result, setResult] = useState<TiltPrediction[] | string | null>(null);
+  const predict = async () => {
+    const b = Number(field);
+    if (field.trim() === '' || !Number.isFinite(b) || b < 0.01 || b > 100) {
+      setResult(
+        `B\u22a5: expected a field from 0.01 to 100 T, got ${JSON.stringify(field.slice(0, 40))}`,
+      );
+      return;
+    }
+    setResult(null);
+    try {
+      setResult(await predictTilts(problem, outcome.fit, b, pageFitRunners.rows));
+    } catch (error) {
+      setResult(errorLine(error));
+    }
+  };
+  return (
+    <div className="observations-actions" data-testid="fit-predictions">
+      <label>
+        Transition tilt at B⊥ (T){' '}
+        <input
+          type="text"
+          inputMode="decimal"
+          size={6}
+          value={field}
+          data-testid="fit-predict-field"
+          onChange={(e) => setField(e.target.value)}
+        />
+      </label>
+      <button type="button" data-testid="fit-predict" onClick={() => void predict()}>
+        Predict
+      </button>
+      {typeof result === 'string' ? (
+        <p className="observations-message error" role="alert" data-testid="fit-predict-error">
+          {result}
+        </p>
+      ) : result !== null ? (
+        <ul className="observations-note" data-testid="fit-prediction-list">
+          {result.map((p, k) => (
+            <li key={k} data-testid={`fit-prediction-${k + 1}`} data-tilt={p.tiltDeg ?? 'null'}>
+              {p.pair?.join(' to ') ?? 'first transition'} at {p.bPerpTesla} T:{' '}
+              {p.tiltDeg === null
+                ? 'no such transition'
+                : `${number(p.tiltDeg)}\u00b0${p.sigmaDeg === null ? ' (band: depends on a parameter that is not constrained)' : ` \u00b1 ${number(p.sigmaDeg)}\u00b0`}`}
+            </li>
+          ))}
+        </ul>
+      ) : null}
+    </div>
   );
 }
