@@ -1,6 +1,13 @@
 import { describe, expect, test } from 'vitest';
 import { INTERFACES_EXAMPLE, errorOf, standardPlane } from './fixtures';
-import { SOFTWARE_VERSION, parseMapInput } from '../solver/index';
+import { readFileSync } from 'node:fs';
+import { join } from 'node:path';
+import {
+  SOFTWARE_VERSION,
+  parseFitPlane,
+  parseMapInput,
+  parseObservationsCsv,
+} from '../solver/index';
 import { DEMO_SETUP } from '../app/scenario/demo';
 import { scenarioToSetup, setupToScenario } from '../app/scenario/scenario';
 import {
@@ -371,6 +378,19 @@ describe('observations in the scenario file, the link and the autosave', () => {
     );
     expect(message).toBe(
       'scenario: fourfold.observations.rows row 2, column sigma: expected a positive uncertainty, got -1',
+    );
+  });
+
+  test('the invented example loads in the app with the rows of its CSV and the plane of the fit', () => {
+    const example = (name: string) => readFileSync(join('public', 'examples', name), 'utf8');
+    const scenario = JSON.parse(example('invented-fit-scenario.json'));
+    const setup = scenarioToSetup(scenario);
+    expect(setup.observations?.rows).toEqual(
+      parseObservationsCsv(example('invented-fit-observations.csv')),
+    );
+    expect(setup.name).toContain('Invented');
+    expect(parseFitPlane(scenario).document).toEqual(
+      parseFitPlane(JSON.parse(example('invented-fit-plane.json'))).document,
     );
   });
 });
