@@ -4,7 +4,6 @@ import {
   QUOTED_PATH_LENGTH,
   ModelError,
   computeCut,
-  computePhaseMap,
   isPlainObject,
   cutToCsv,
   fitToJson,
@@ -16,8 +15,6 @@ import {
   runFit as runObservationFit,
   cutToJson,
   errorLine,
-  mapCsvPieces,
-  mapJsonPieces,
   DEFAULT_WAVEVECTORS,
   MAX_WAVEVECTOR_COUNT,
   dispersionToCsv,
@@ -33,6 +30,13 @@ import {
   solveResultToJson,
   textChunks,
 } from './solver/index';
+import { CliError } from './cli/cliError';
+import { parseShard, runMapRows, shardPlace, type Shard, type StageRunner } from './cli/mapRun';
+import { mapFileSink, partSink, type MapFormat } from './cli/mapSinks';
+import { mergeParts, orderParts, readPartFile } from './cli/mergeParts';
+import { runSeries } from './cli/seriesRun';
+
+export { CliError };
 
 // The figure and Probe writers (d3 among them) and the worker threads are loaded only by the
 // commands that use them (dynamic imports: separate chunks of the bundle), so that `solve`
@@ -44,6 +48,18 @@ const USAGE = `usage:
                                          JSON, on stdout or into OUT.json
   fourfold map --model FILE --out OUT [--threads N] [--column C] [--title TEXT]
                                          Map of the model's plane; OUT ends in .json, .csv or .svg
+  fourfold map --model FILE --shard K/N --out PART.json [--threads N]
+                                         piece K of N of the Map (rows of it), for merge
+  fourfold merge --out OUT [--column C] [--title TEXT] PART.json ...
+                                         the Map from all N pieces, in any order: the file map
+                                         writes (OUT ends in .json, .csv or .svg)
+  fourfold series --model FILE --vary Q --values V --out DIR|FIGURE.svg [--shard K/N]
+                  [--threads N] [--column C] [--title TEXT]
+                                         one Map per value of Q (zeeman, valleyZeeman, CH.fock,
+                                         CH.hartree or ratio:CH, CH a channel such as x0; V as
+                                         v1,v2,... or from:to:n): each Map's JSON and a figure
+                                         of small multiples; a rerun keeps finished files;
+                                         with --shard, piece K of N of every Map
   fourfold cut --model FILE --from x,y --to x,y [--n N] --out OUT [--column C] [--title TEXT]
                                          Cut along a straight line of the model's plane (plane
                                          coordinates); N samples (default 200); OUT as for map
@@ -67,7 +83,8 @@ const USAGE = `usage:
                                          the maximum-likelihood estimate with uncertainties and
                                          each row's prediction, as JSON on stdout or in FIT.json
 options:
-  --threads N   worker threads for map and fit (default: all cores)
+  --threads N   worker threads for map, series and fit (default: all cores)
+  --shard K/N   piece K of N (K from 1) of a Map: its rows, written as a part for merge
   --observations OBS.csv
                 the fit's observations: header bPerp_T,tilt_deg,valleyZeeman_meV,kind,value,sigma
   --column single|double
@@ -79,16 +96,6 @@ options:
 Each option is given at most once. An option the command does not take (--threads for cut,
 --title for a .json or .csv output, ...) is refused, as is a repeated one: one line on stderr,
 exit code 2.`;
-
-/** A failure to report in one line, with the process exit code. */
-export class CliError extends Error {
-  constructor(
-    message: string,
-    readonly exitCode = 1,
-  ) {
-    super(message);
-  }
-}
 
 interface Args {
   command: Command;
@@ -105,14 +112,21 @@ interface Args {
   gate?: number;
   q?: { from: number; to: number; count: number };
   observations?: string;
+  shard?: Shard;
+  vary?: string;
+  values?: string;
+  /** merge: the part files. */
+  parts: string[];
 }
 
-type Command = 'solve' | 'map' | 'cut' | 'probe' | 'modes' | 'fit';
+type Command = 'solve' | 'map' | 'merge' | 'series' | 'cut' | 'probe' | 'modes' | 'fit';
 
 /** The options each command takes; any other is refused, so that none is silently ignored. */
 const COMMAND_OPTIONS: Readonly<Record<Command, readonly string[]>> = {
   solve: ['--model', '--out'],
-  map: ['--model', '--out', '--threads', '--column', '--title'],
+  map: ['--model', '--out', '--threads', '--column', '--title', '--shard'],
+  merge: ['--out', '--column', '--title'],
+  series: ['--model', '--vary', '--values', '--out', '--shard', '--threads', '--column', '--title'],
   cut: ['--model', '--from', '--to', '--n', '--out', '--column', '--title'],
   probe: ['--model', '--at', '--out'],
   modes: ['--model', '--coulomb', '--q', '--gate', '--out', '--column', '--title'],
@@ -176,16 +190,20 @@ function parseArgs(argv: readonly string[]): Args {
   }
   if (!isCommand(command)) {
     throw new CliError(
-      `unknown command ${quoteInput(command)}; use solve, map, cut, probe, modes or fit (--help for usage)`,
+      `unknown command ${quoteInput(command)}; use solve, map, merge, series, cut, probe, modes or fit`,
       2,
     );
   }
   if (rest.includes('--help')) throw new CliError(USAGE, 2);
-  const args: Args = { command };
+  const args: Args = { command, parts: [] };
   const seen = new Set<string>();
   for (let k = 0; k < rest.length; k++) {
     const flag = rest[k]!;
     if (!flag.startsWith('--')) {
+      if (command === 'merge') {
+        args.parts.push(flag);
+        continue;
+      }
       throw new CliError(`unexpected argument ${quoteInput(flag)} (--help for usage)`, 2);
     }
     if (!ALL_OPTIONS.has(flag)) {
@@ -242,9 +260,30 @@ function parseArgs(argv: readonly string[]): Args {
         );
       }
       args.n = n;
-    }
+    } else if (flag === '--shard') args.shard = parseShard(value, (t) => quoteInput(t));
+    else if (flag === '--vary') args.vary = value;
+    else if (flag === '--values') args.values = value;
   }
-  if (args.model === undefined) throw new CliError('--model: missing (give a model file)', 2);
+  if (command === 'merge') {
+    if (args.parts.length === 0) {
+      throw new CliError('merge: no parts given (list the part files after the options)', 2);
+    }
+  } else if (args.model === undefined) {
+    throw new CliError('--model: missing (give a model file)', 2);
+  }
+  if (command === 'series') {
+    if (args.vary === undefined) {
+      throw new CliError(
+        '--vary: missing (zeeman, valleyZeeman, CH.fock, CH.hartree or ratio:CH)',
+        2,
+      );
+    }
+    if (args.values === undefined) {
+      throw new CliError('--values: missing (v1,v2,... or from:to:n)', 2);
+    }
+    if (args.out === undefined)
+      throw new CliError('--out: missing (give a folder or FIGURE.svg)', 2);
+  }
   if (command === 'cut') {
     if (args.from === undefined) throw new CliError('--from: missing (give the start as x,y)', 2);
     if (args.to === undefined) throw new CliError('--to: missing (give the end as x,y)', 2);
@@ -273,12 +312,28 @@ function parseArgs(argv: readonly string[]): Args {
     }
   }
   if (command === 'modes' && args.out !== undefined) outputFormat(args.out);
-  if (command === 'map' || command === 'cut' || command === 'modes') {
+  if (command === 'map' || command === 'cut' || command === 'merge' || command === 'modes') {
     const data = args.out === undefined ? command === 'modes' : !/\.svg$/i.test(args.out);
     for (const flag of ['--column', '--title'] as const) {
       if (seen.has(flag) && data) {
         throw new CliError(`${flag}: only for a figure; it applies when --out ends in .svg`, 2);
       }
+    }
+  }
+  if (args.shard !== undefined) {
+    for (const flag of ['--column', '--title'] as const) {
+      if (seen.has(flag)) {
+        throw new CliError(
+          `${flag}: only for a figure, and --shard writes parts (merge draws the figure)`,
+          2,
+        );
+      }
+    }
+    if (command === 'map' && args.out !== undefined && !/\.json$/i.test(args.out)) {
+      throw new CliError(
+        `--out ${quoteInput(args.out, QUOTED_PATH_LENGTH)}: --shard writes a part as JSON; end it in .json`,
+        2,
+      );
     }
   }
   return args;
@@ -360,7 +415,7 @@ async function runProbe(json: unknown, args: Args): Promise<string> {
 }
 
 /** The output file and the format its ending names. */
-function outputFormat(out: string | undefined): { path: string; format: 'json' | 'csv' | 'svg' } {
+function outputFormat(out: string | undefined): { path: string; format: MapFormat } {
   if (out === undefined)
     throw new CliError('--out: missing (give OUT.json, OUT.csv or OUT.svg)', 2);
   const format = /\.(json|csv|svg)$/i.exec(out)?.[1]?.toLowerCase();
@@ -408,27 +463,67 @@ async function runCut(json: unknown, args: Args): Promise<void> {
   writeOutput(path, text);
 }
 
+/** The worker threads of a Map run (loaded only by the commands that compute Maps). */
+async function threadRunner(
+  threads: number | undefined,
+): Promise<StageRunner & { close(): Promise<void> }> {
+  const { ThreadPool } = await import('./workers/node/threadPool');
+  const pool = new ThreadPool(new URL('./mapThread.mjs', import.meta.url), threads);
+  return { stages: pool.stages, size: pool.size, close: () => pool.close() };
+}
+
+/** The Map's figure function, loaded with d3 only when a figure is written. */
+async function figureDrawer() {
+  const { mapFigureSvg } = await import('./app/figure/mapFigure');
+  return mapFigureSvg;
+}
+
+/**
+ * `map`: the whole Map into one file, streamed band by band (JSON through a spill file beside
+ * it, CSV a row at a time, SVG from the labels), or with `--shard K/N` piece K of N as a part.
+ */
 async function runMap(json: unknown, args: Args): Promise<void> {
-  const { path, format } = outputFormat(args.out);
   const input = parseMapInput(json);
-  const [{ ThreadPool }, { mapFigureSvg }] = await Promise.all([
-    import('./workers/node/threadPool'),
-    import('./app/figure/mapFigure'),
-  ]);
-  const pool = new ThreadPool(new URL('./mapThread.mjs', import.meta.url), args.threads);
-  try {
-    const map = await computePhaseMap(input, pool.stages, pool.size);
-    writeOutput(
-      path,
-      format === 'json'
-        ? mapJsonPieces(map)
-        : format === 'csv'
-          ? mapCsvPieces(map)
-          : mapFigureSvg(map, { column: args.column, title: args.title }),
-    );
-  } finally {
-    await pool.close();
+  if (args.shard !== undefined) {
+    if (args.out === undefined) throw new CliError('--out: missing (give PART.json)', 2);
+    const place = shardPlace(input, args.shard);
+    const runner = await threadRunner(args.threads);
+    try {
+      const sink = partSink(input, args.out, { shard: args.shard, rows: place.rows });
+      await runMapRows(input, runner, sink, place.cellRows);
+    } finally {
+      await runner.close();
+    }
+    return;
   }
+  const { path, format } = outputFormat(args.out);
+  const drawFigure = format === 'svg' ? await figureDrawer() : undefined;
+  const runner = await threadRunner(args.threads);
+  try {
+    const sink = mapFileSink(input, path, {
+      format,
+      figure: { column: args.column, title: args.title },
+      drawFigure,
+    });
+    await runMapRows(input, runner, sink);
+  } finally {
+    await runner.close();
+  }
+}
+
+/** `merge`: the whole Map's file from all its parts. */
+async function runMerge(args: Args): Promise<void> {
+  const { path, format } = outputFormat(args.out);
+  const parts = orderParts(args.parts.map(readPartFile));
+  const { input, series } = parts[0]!.header;
+  const drawFigure = format === 'svg' ? await figureDrawer() : undefined;
+  const sink = mapFileSink(input, path, {
+    format,
+    figure: { column: args.column, title: args.title },
+    drawFigure,
+    provenance: { series },
+  });
+  mergeParts(parts, sink);
 }
 
 /**
@@ -511,6 +606,10 @@ async function runFit(json: unknown, args: Args): Promise<void> {
 export async function main(argv: readonly string[]): Promise<number> {
   try {
     const args = parseArgs(argv);
+    if (args.command === 'merge') {
+      await runMerge(args);
+      return 0;
+    }
     const json = readJson(args.model!);
     if (args.command === 'solve') {
       const text = runSolve(json) + '\n';
@@ -520,7 +619,19 @@ export async function main(argv: readonly string[]): Promise<number> {
     else if (args.command === 'probe') process.stdout.write(await runProbe(json, args));
     else if (args.command === 'modes') await runModes(json, args);
     else if (args.command === 'fit') await runFit(json, args);
-    else await runMap(json, args);
+    else if (args.command === 'series') {
+      const runner = () => threadRunner(args.threads);
+      await runSeries(json, {
+        vary: args.vary!,
+        values: args.values!,
+        out: args.out!,
+        shard: args.shard,
+        column: args.column,
+        title: args.title,
+        runner,
+        figureDrawer,
+      });
+    } else await runMap(json, args);
     return 0;
   } catch (error) {
     if (error instanceof CliError && error.exitCode === 2 && error.message === USAGE) {

@@ -137,7 +137,63 @@ export {
 export { cutToCsv, cutToJson } from './cutExport';
 export { joinBoundaries, type Boundary } from './boundaries';
 export { computePhaseMap, localStages, splitRange, type MapStages } from './phaseMap';
-export { legendOf, mapCsvPieces, mapJsonPieces, mapToCsv, mapToJson } from './mapExport';
+export {
+  MapRunStopped,
+  cellRowCount,
+  cellRowPixels,
+  computeMapRows,
+  seamEdges,
+  shardCellRows,
+  type EdgeRow,
+  type MapRowBlock,
+  type MapRowsOptions,
+  type MapRowsResult,
+} from './mapBands';
+export {
+  MAP_QUANTITIES,
+  labelCounts,
+  legendOf,
+  legendOfCounts,
+  mapCsvHead,
+  mapCsvPieces,
+  mapCsvRow,
+  mapJsonEnding,
+  mapJsonPieces,
+  mapJsonProvenance,
+  mapRowsCsvPieces,
+  mapRowsJsonPieces,
+  mapToCsv,
+  mapToJson,
+  phaseMapRows,
+  type LegendEntry,
+  type MapProvenance,
+  type MapRows,
+} from './mapExport';
+export {
+  MAP_PART_FORMAT,
+  MAP_PART_KIND,
+  PART_PIXELS_OPEN,
+  partEndLines,
+  partHeader,
+  partRowLines,
+  readPartCrossing,
+  readPartHeader,
+  readPartRow,
+  readPartSeam,
+  type PartHeader,
+  type PartPlace,
+} from './mapPart';
+export {
+  MAX_SERIES_VALUES,
+  checkSeriesQuantity,
+  parseSeriesQuantity,
+  parseSeriesValues,
+  seriesDocument,
+  seriesProvenance,
+  seriesQuantityLabel,
+  seriesQuantityName,
+  type SeriesQuantity,
+} from './mapSeries';
 export { textChunks } from './textChunks';
 export { QUOTED_PATH_LENGTH, fieldKey, quoteInput } from './inputText';
 export {

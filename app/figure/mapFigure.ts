@@ -104,11 +104,143 @@ function meaningOf(label: string): string {
     .join(' + ');
 }
 
-function linearScale(from: number, to: number, r0: number, r1: number): AxisScale {
+/** A linear map from data (from..to) to figure coordinates (r0..r1), as axisSvg takes it. */
+export function linearScale(from: number, to: number, r0: number, r1: number): AxisScale {
   const f = ((v: number) => r0 + ((v - from) / (to - from)) * (r1 - r0)) as AxisScale;
   f.domain = () => [from, to];
   f.range = () => [r0, r1];
   return f;
+}
+
+/**
+ * The fill of each label, made on first use: its colour, or for a coexistence label a pattern
+ * of stripes in its parents' colours (`patterns`, for the figure's <defs>, numbered in order of
+ * first use).
+ */
+export class LabelFills {
+  readonly patterns: string[] = [];
+  private readonly fills = new Map<string, string>();
+
+  fillOf(label: string): string {
+    let fill = this.fills.get(label);
+    if (fill !== undefined) return fill;
+    const colours = label === '' ? [EMPTY_COLOUR] : labelColours(label);
+    if (colours.length === 1) fill = colours[0]!;
+    else {
+      const id = `stripes-${this.patterns.length + 1}`;
+      const period = STRIPE * colours.length;
+      this.patterns.push(
+        `<pattern id="${id}" patternUnits="userSpaceOnUse" width="${svgNumber(period)}" height="${svgNumber(period)}" patternTransform="rotate(45)">` +
+          colours
+            .map(
+              (c, n) =>
+                `<rect x="${svgNumber(STRIPE * n)}" y="0" width="${svgNumber(STRIPE)}" height="${svgNumber(period)}" fill="${c}"/>`,
+            )
+            .join('') +
+          '</pattern>',
+      );
+      fill = `url(#${id})`;
+    }
+    this.fills.set(label, fill);
+    return fill;
+  }
+}
+
+/**
+ * A Map's regions (filled paths that follow the located boundaries, ids `<idPrefix>region-N`)
+ * and its boundaries (continued to the frame and to triple points as the regions are; first
+ * order solid, continuous dashed), in the plot box of the scales `sx`, `sy`.
+ */
+export function mapRegionsSvg(
+  map: FigureMap,
+  sx: AxisScale,
+  sy: AxisScale,
+  fills: LabelFills,
+  idPrefix = '',
+): { regions: string[]; boundaries: string[] } {
+  const partition = regionOutlines({
+    plane: map.input.plane,
+    labels: map.labels,
+    boundaries: map.boundaries,
+  });
+  const pt = (p: PlanePoint): string => `${svgNumber(sx(p[0]))},${svgNumber(sy(p[1]))}`;
+  const regions: string[] = [];
+  partition.regions.forEach((region, n) => {
+    const d = region.loops
+      .map((loop) => `M${pt(loop[0]!)}L${loop.slice(1).map(pt).join(' ')}Z`)
+      .join('');
+    regions.push(
+      `<path id="${idPrefix}region-${n + 1}" d="${d}" fill="${fills.fillOf(region.label)}"><title>${xmlText(region.label || 'not computed')}</title></path>`,
+    );
+  });
+  const boundaries: string[] = [];
+  for (const b of map.boundaries) {
+    const points = partition.extend(b.points);
+    if (points.length < 2) continue;
+    const d = `M${pt(points[0]!)}L${points.slice(1).map(pt).join(' ')}`;
+    const dash = b.order === 'continuous' ? ` stroke-dasharray="${FIGURE_LINE.dash}"` : '';
+    boundaries.push(
+      `<path d="${d}"${dash}><title>${xmlText(`${b.between.join(' | ')}, ${b.order === 'first' ? 'first order' : 'continuous'}`)}</title></path>`,
+    );
+  }
+  return { regions, boundaries };
+}
+
+/**
+ * The legend from (x, top), `width` wide: a swatch, the label and its short meaning per entry,
+ * then the two boundary styles (one under the other when `stacked`, else side by side). Returns
+ * its parts and the y below it.
+ */
+export function mapLegendSvg(
+  labels: readonly string[],
+  x: number,
+  top: number,
+  width: number,
+  fills: LabelFills,
+  stacked: boolean,
+): { parts: string[]; bottom: number } {
+  const fs = FIGURE_FONT.size;
+  const small = FIGURE_FONT.small;
+  const labelColumn =
+    Math.max(...labels.map((l) => estimateTextWidth(l || '-', fs)), 2 * fs) + 0.8 * fs;
+  const swatch = 0.95 * fs;
+  const lineHeight = 1.3 * fs;
+  const parts: string[] = [];
+  let y = top;
+  for (const label of labels) {
+    const meaning = wrapWords(meaningOf(label), width - swatch - 0.6 * fs - labelColumn, small);
+    parts.push(
+      `<rect x="${svgNumber(x)}" y="${svgNumber(y)}" width="${svgNumber(swatch)}" height="${svgNumber(swatch)}" fill="${fills.fillOf(label)}" stroke="${FIGURE_INK}" stroke-width="${FIGURE_LINE.tick}"/>`,
+      `<text x="${svgNumber(x + swatch + 0.6 * fs)}" y="${svgNumber(y + 0.82 * fs)}">${xmlText(label || '-')}</text>`,
+    );
+    meaning.forEach((line, n) =>
+      parts.push(
+        `<text x="${svgNumber(x + swatch + 0.6 * fs + labelColumn)}" y="${svgNumber(y + 0.82 * fs + n * 1.15 * small)}" font-size="${small}">${xmlText(line)}</text>`,
+      ),
+    );
+    y += Math.max(lineHeight, 1.15 * small * meaning.length + 0.3 * fs);
+  }
+  y += 0.3 * fs;
+  const sample = 2.4 * fs;
+  const styles: [string, string][] = [
+    ['', 'first-order transition'],
+    [` stroke-dasharray="${FIGURE_LINE.dash}"`, 'continuous transition'],
+  ];
+  let sampleX = x;
+  styles.forEach(([dash, text], n) => {
+    if (stacked && n > 0) {
+      y += lineHeight;
+      sampleX = x;
+    }
+    const mid = svgNumber(y + 0.5 * swatch);
+    parts.push(
+      `<path d="M${svgNumber(sampleX)},${mid}h${svgNumber(sample)}" stroke="${FIGURE_INK}" stroke-width="${FIGURE_LINE.curve}" fill="none"${dash}/>`,
+      `<text x="${svgNumber(sampleX + sample + 0.5 * fs)}" y="${svgNumber(y + 0.82 * fs)}" font-size="${small}">${text}</text>`,
+    );
+    sampleX += sample + 0.5 * fs + estimateTextWidth(text, small) + 1.5 * fs;
+  });
+  y += lineHeight;
+  return { parts, bottom: y };
 }
 
 /**
@@ -144,59 +276,9 @@ export function mapFigureSvg(map: FigureMap, options: MapFigureOptions = {}): st
   const sx = linearScale(ax.from, ax.to, plotX, plotX + side);
   const sy = linearScale(ay.from, ay.to, plotY + side, plotY);
 
-  // Regions.
-  const partition = regionOutlines({
-    plane: map.input.plane,
-    labels: map.labels,
-    boundaries: map.boundaries,
-  });
-  const patterns: string[] = [];
-  const fills = new Map<string, string>();
-  const fillOf = (label: string): string => {
-    let fill = fills.get(label);
-    if (fill !== undefined) return fill;
-    const colours = label === '' ? [EMPTY_COLOUR] : labelColours(label);
-    if (colours.length === 1) fill = colours[0]!;
-    else {
-      const id = `stripes-${patterns.length + 1}`;
-      const period = STRIPE * colours.length;
-      patterns.push(
-        `<pattern id="${id}" patternUnits="userSpaceOnUse" width="${svgNumber(period)}" height="${svgNumber(period)}" patternTransform="rotate(45)">` +
-          colours
-            .map(
-              (c, n) =>
-                `<rect x="${svgNumber(STRIPE * n)}" y="0" width="${svgNumber(STRIPE)}" height="${svgNumber(period)}" fill="${c}"/>`,
-            )
-            .join('') +
-          '</pattern>',
-      );
-      fill = `url(#${id})`;
-    }
-    fills.set(label, fill);
-    return fill;
-  };
-  const pt = (p: PlanePoint): string => `${svgNumber(sx(p[0]))},${svgNumber(sy(p[1]))}`;
-  const regionParts: string[] = [];
-  partition.regions.forEach((region, n) => {
-    const d = region.loops
-      .map((loop) => `M${pt(loop[0]!)}L${loop.slice(1).map(pt).join(' ')}Z`)
-      .join('');
-    regionParts.push(
-      `<path id="region-${n + 1}" d="${d}" fill="${fillOf(region.label)}"><title>${xmlText(region.label || 'not computed')}</title></path>`,
-    );
-  });
-
-  // Boundaries, continued to the frame and to triple points as the regions are.
-  const boundaryParts: string[] = [];
-  for (const b of map.boundaries) {
-    const points = partition.extend(b.points);
-    if (points.length < 2) continue;
-    const d = `M${pt(points[0]!)}L${points.slice(1).map(pt).join(' ')}`;
-    const dash = b.order === 'continuous' ? ` stroke-dasharray="${FIGURE_LINE.dash}"` : '';
-    boundaryParts.push(
-      `<path d="${d}"${dash}><title>${xmlText(`${b.between.join(' | ')}, ${b.order === 'first' ? 'first order' : 'continuous'}`)}</title></path>`,
-    );
-  }
+  // Regions and boundaries.
+  const fills = new LabelFills();
+  const { regions: regionParts, boundaries: boundaryParts } = mapRegionsSvg(map, sx, sy, fills);
 
   // Pins: a ring and its number, set off by a white outline.
   const pinParts: string[] = [];
@@ -254,7 +336,7 @@ export function mapFigureSvg(map: FigureMap, options: MapFigureOptions = {}): st
         `<rect x="${svgNumber(cx - hx)}" y="${svgNumber(cy - hy)}" width="${svgNumber(2 * hx)}" height="${svgNumber(2 * hy)}"/>`,
       );
     }
-    patterns.push(
+    fills.patterns.push(
       `<pattern id="consistent-hatch" patternUnits="userSpaceOnUse" width="${HATCH}" height="${HATCH}" patternTransform="rotate(-45)">` +
         `<path d="M0,0V${HATCH}" stroke="${FIGURE_INK}" stroke-width="${FIGURE_LINE.tick}"/></pattern>`,
     );
@@ -272,57 +354,23 @@ export function mapFigureSvg(map: FigureMap, options: MapFigureOptions = {}): st
   // Legend: swatch, label, short meaning; then the two boundary styles.
   const legendX = legendBeside ? plotX + side + 2.2 * fs : plotX - 0.5 * fs;
   const legendTop = legendBeside ? plotY : plotY + side + bottom;
-  const legendWidth = width - legendX - right;
-  const entries = legendOf(map.labels);
-  const labelColumn =
-    Math.max(...entries.map((e) => estimateTextWidth(e.label || '-', fs)), 2 * fs) + 0.8 * fs;
-  const swatch = 0.95 * fs;
-  const lineHeight = 1.3 * fs;
-  const legendParts: string[] = [];
-  let y = legendTop;
-  for (const entry of entries) {
-    const meaning = wrapWords(
-      meaningOf(entry.label),
-      legendWidth - swatch - 0.6 * fs - labelColumn,
-      small,
-    );
-    legendParts.push(
-      `<rect x="${svgNumber(legendX)}" y="${svgNumber(y)}" width="${svgNumber(swatch)}" height="${svgNumber(swatch)}" fill="${fillOf(entry.label)}" stroke="${FIGURE_INK}" stroke-width="${FIGURE_LINE.tick}"/>`,
-      `<text x="${svgNumber(legendX + swatch + 0.6 * fs)}" y="${svgNumber(y + 0.82 * fs)}">${xmlText(entry.label || '-')}</text>`,
-    );
-    meaning.forEach((line, n) =>
-      legendParts.push(
-        `<text x="${svgNumber(legendX + swatch + 0.6 * fs + labelColumn)}" y="${svgNumber(y + 0.82 * fs + n * 1.15 * small)}" font-size="${small}">${xmlText(line)}</text>`,
-      ),
-    );
-    y += Math.max(lineHeight, 1.15 * small * meaning.length + 0.3 * fs);
-  }
-  y += 0.3 * fs;
-  const sample = 2.4 * fs;
-  const styles: [string, string][] = [
-    ['', 'first-order transition'],
-    [` stroke-dasharray="${FIGURE_LINE.dash}"`, 'continuous transition'],
-  ];
-  let sampleX = legendX;
-  styles.forEach(([dash, text], n) => {
-    if (legendBeside && n > 0) {
-      y += lineHeight;
-      sampleX = legendX;
-    }
-    const mid = svgNumber(y + 0.5 * swatch);
-    legendParts.push(
-      `<path d="M${svgNumber(sampleX)},${mid}h${svgNumber(sample)}" stroke="${FIGURE_INK}" stroke-width="${FIGURE_LINE.curve}" fill="none"${dash}/>`,
-      `<text x="${svgNumber(sampleX + sample + 0.5 * fs)}" y="${svgNumber(y + 0.82 * fs)}" font-size="${small}">${text}</text>`,
-    );
-    sampleX += sample + 0.5 * fs + estimateTextWidth(text, small) + 1.5 * fs;
-  });
-  y += lineHeight;
+  const legend = mapLegendSvg(
+    legendOf(map.labels).map((e) => e.label),
+    legendX,
+    legendTop,
+    width - legendX - right,
+    fills,
+    legendBeside,
+  );
+  const legendParts = legend.parts;
+  let y = legend.bottom;
   if (consistent) {
+    const swatch = 0.95 * fs;
     legendParts.push(
       `<rect x="${svgNumber(legendX)}" y="${svgNumber(y)}" width="${svgNumber(swatch)}" height="${svgNumber(swatch)}" fill="url(#consistent-hatch)" stroke="${FIGURE_INK}" stroke-width="${FIGURE_LINE.tick}"/>`,
       `<text x="${svgNumber(legendX + swatch + 0.6 * fs)}" y="${svgNumber(y + 0.82 * fs)}" font-size="${small}">every observation holds (${consistent.total} ${consistent.total === 1 ? 'row' : 'rows'})</text>`,
     );
-    y += lineHeight;
+    y += 1.3 * fs;
   }
   const height = Math.ceil(Math.max(legendBeside ? plotY + side + bottom : 0, y + 0.6 * fs));
 
@@ -330,7 +378,7 @@ export function mapFigureSvg(map: FigureMap, options: MapFigureOptions = {}): st
   body.push(
     '<defs>',
     `<clipPath id="plot-area"><rect x="${svgNumber(plotX)}" y="${svgNumber(plotY)}" width="${svgNumber(side)}" height="${svgNumber(side)}"/></clipPath>`,
-    ...patterns,
+    ...fills.patterns,
     '</defs>',
   );
   if (title !== '') {
