@@ -68,7 +68,7 @@ export interface MapRowsResult {
   readonly j1: number;
   /**
    * Crossings on every edge with both ends in those rows, ascending by edge (several on one edge
-   * in the order `locateCrossings` gives them).
+   * in the order `locateCrossings` gives them), as the whole-plane run lists them.
    */
   readonly crossings: Crossing[];
   /** The first and last pixel rows' states, for the edges across the seams to other runs. */
@@ -89,6 +89,8 @@ export interface MapRowsOptions {
   readonly stopped?: () => boolean;
   /** Bisection tolerance of the crossings, relative to the axis span (default: the CLI's 1e-9). */
   readonly relativeTolerance?: number;
+  /** Pixels per band at least (default BAND_PIXELS; whole rows of coarse cells). */
+  readonly bandPixels?: number;
 }
 
 /** The rejection of a run whose `stopped` said so. */
@@ -99,7 +101,7 @@ export class MapRunStopped extends Error {
 }
 
 /** Pixels per band at least (several rows of coarse cells make one band on small grids). */
-const BAND_PIXELS = 1 << 16;
+export const BAND_PIXELS = 1 << 16;
 /** Cell tasks per runner and band, for an even load. */
 const CELL_TASKS_PER_RUNNER = 4;
 /** Edges per crossing task at least. */
@@ -314,7 +316,9 @@ export async function computeMapRows(
   for (let b = b0; b < b1;) {
     let end = b + 1;
     let pixels = cellRowPixelCount(b);
-    while (end < b1 && pixels < BAND_PIXELS) pixels += cellRowPixelCount(end++);
+    while (end < b1 && pixels < (options.bandPixels ?? BAND_PIXELS)) {
+      pixels += cellRowPixelCount(end++);
+    }
     bands.push([b, end]);
     b = end;
   }
@@ -382,6 +386,8 @@ export async function computeMapRows(
     previous = lastRow(band, nx);
     options.progress?.((t + 1) / bands.length);
   }
-  const crossings = (await Promise.all(crossingTasks)).flat();
+  // Ascending by edge: a row's vertical edges were sent a band after its horizontal ones (the
+  // sort is stable, so the crossings of one edge keep their order).
+  const crossings = (await Promise.all(crossingTasks)).flat().sort((a, b) => a.edge - b.edge);
   return { j0, j1, crossings, first: first!, last: previous! };
 }

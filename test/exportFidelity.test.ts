@@ -139,6 +139,7 @@ describe('CSV writers: RFC 4180, formula-leading text neutralised, numbers untou
     expect(comments).toEqual([
       `# ${MEAN_FIELD_CAUTION}`,
       `# fourfold ${SOFTWARE_VERSION}; model ${JSON.stringify(modelToJson(hostileMap.input.model))}`,
+      csvComment(`plane ${JSON.stringify(hostileMap.input.plane)}`),
     ]);
     expect(header).toEqual([
       neutralised(HOSTILE_X),
@@ -209,6 +210,7 @@ function oneShotCsv(map: PhaseMap): string {
   const lines = [
     `# ${MEAN_FIELD_CAUTION}`,
     `# fourfold ${SOFTWARE_VERSION}; model ${JSON.stringify(modelToJson(map.input.model))}`,
+    `# plane ${JSON.stringify(map.input.plane)}`,
     [map.input.plane.x.label, map.input.plane.y.label, 'phase', 'energy', 'gap', ...CHANNELS].join(
       ',',
     ),
@@ -242,7 +244,8 @@ describe('streamed Map writers give the one-shot text, byte for byte', () => {
   test('CSV: the pieces joined are the one-shot CSV', () => {
     const [nx, ny] = plainMap.input.plane.resolution;
     const pieces = [...mapCsvPieces(plainMap)];
-    expect(pieces).toHaveLength(3 + nx * ny);
+    // The lines above the rows in one piece, then one piece per grid point.
+    expect(pieces).toHaveLength(1 + nx * ny);
     expect(pieces.join('')).toBe(oneShotCsv(plainMap));
     expect([...textChunks(mapCsvPieces(plainMap), 700)].join('')).toBe(oneShotCsv(plainMap));
   });

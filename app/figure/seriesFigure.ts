@@ -82,7 +82,12 @@ export function seriesFigureSvg(
   const right = 0.6 * fs;
   const top = title === '' ? 0.4 * fs : 2 * fs;
   const panelTitle = 1.3 * fs;
-  const hGap = 0.9 * fs;
+  // Room between panels for the tick numbers at the ends of neighbouring x axes.
+  const xFormat = tickLabelFormat(ax.from, ax.to, 4);
+  const widestX = Math.max(
+    ...linearTicks(ax.from, ax.to, 4).map((v) => estimateTextWidth(xFormat(v), small)),
+  );
+  const hGap = Math.max(0.9 * fs, widestX + 0.5 * fs);
   const vGap = Math.ceil(gap + 1.25 * small) + panelTitle;
   const bottom = Math.ceil(gap + 1.25 * small + fs + 0.6 * fs);
   const side = Math.floor((width - left - right - (cols - 1) * hGap) / cols);
