@@ -101,7 +101,7 @@ export function mapFileSink(input: MapInput, path: string, options: MapFileOptio
   if (options.format === 'csv') {
     try {
       csv = new OutputFile(path);
-      csv.write(mapCsvHead(input));
+      csv.write(mapCsvHead(input, options.provenance));
     } catch (error) {
       spill?.close();
       throw error;

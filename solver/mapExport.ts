@@ -203,14 +203,20 @@ export function mapJsonPieces(map: PhaseMap, provenance: MapProvenance = {}): Ge
   return mapRowsJsonPieces(phaseMapRows(map), provenance);
 }
 
-/** The `#` lines and the header above a Map's CSV rows. */
-export function mapCsvHead(input: MapInput): string {
+/**
+ * The `#` lines (the caution; version and model; plane; a series map's value) and the header
+ * above a Map's CSV rows.
+ */
+export function mapCsvHead(input: MapInput, provenance: MapProvenance = {}): string {
   const xName = csvText(input.plane.x.label || 'x');
   const yName = csvText(input.plane.y.label || 'y');
   return (
     `${csvComment(MEAN_FIELD_CAUTION)}\n` +
     `${csvComment(`fourfold ${SOFTWARE_VERSION}; model ${JSON.stringify(modelToJson(input.model))}`)}\n` +
     `${csvComment(`plane ${JSON.stringify(input.plane)}`)}\n` +
+    (provenance.series === undefined
+      ? ''
+      : `${csvComment(`series ${JSON.stringify(provenance.series)}`)}\n`) +
     `${[xName, yName, 'phase', 'energy', 'gap', ...CHANNELS].join(',')}\n`
   );
 }

@@ -59,6 +59,45 @@ export function genericModel(
   });
 }
 
+/** A random small Map: any filling, 2 to 15 channels, H != F, fields on the axes, 2 to 9 per side. */
+export function randomMapDocument(random: RandomSource): Record<string, unknown> {
+  const filling = [-1, 0, 1][Math.floor(3 * random())]!;
+  const names = [...CHANNELS]
+    .map((name) => ({ name, key: random() }))
+    .sort((a, b) => a.key - b.key)
+    .slice(0, 2 + Math.floor(14 * random()))
+    .map((c) => c.name);
+  const channels: Record<string, unknown> = {};
+  for (const name of names) {
+    const fock = 2 * random() - 1;
+    channels[name] = random() < 0.3 ? { fock } : { hartree: 2 * random() - 1, fock };
+  }
+  const pool = [...names.flatMap((n) => [`${n}.fock`, `${n}.hartree`]), 'zeeman', 'valleyZeeman'];
+  const axis = (): Record<string, unknown> => {
+    const targets: Record<string, number> = {};
+    for (let q = 1 + Math.floor(3 * random()); q > 0; q--) {
+      targets[pool[Math.floor(random() * pool.length)]!] =
+        Math.round((4 * random() - 2) * 10) / 10 || 1;
+    }
+    const from = Math.round((4 * random() - 2) * 4) / 4;
+    const to = Math.round((4 * random() - 2) * 4) / 4;
+    return { from, to: to === from ? from + 1 : to, targets };
+  };
+  // A Hartree target of a channel the model does not list needs a Fock part (the file rule).
+  const document = {
+    filling,
+    channels,
+    zeeman: random() < 0.5 ? 0 : Math.round(random() * 10) / 10,
+    valleyZeeman: random() < 0.5 ? 0 : Math.round((random() - 0.5) * 10) / 10,
+    plane: {
+      x: axis(),
+      y: axis(),
+      resolution: [2 + Math.floor(8 * random()), 2 + Math.floor(8 * random())],
+    },
+  };
+  return document;
+}
+
 /** The ModelError message thrown by `run`; fails the test when nothing or something else is thrown. */
 export function errorOf(run: () => unknown): string {
   try {

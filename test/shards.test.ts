@@ -1,6 +1,7 @@
 import { spawnSync } from 'node:child_process';
 import {
-  copyFileSync,
+  chmodSync,
+  mkdirSync,
   mkdtempSync,
   readFileSync,
   readdirSync,
@@ -12,6 +13,8 @@ import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
+import { CHANNELS, seededRandom } from '../solver/index';
+import { randomMapDocument } from './fixtures';
 import { parseXmlStrictly, textsOf } from './strictParsers';
 
 // Shards, merges and series through the command line, as README "Large Maps, shards and series"
@@ -36,6 +39,16 @@ function fourfold(...args: string[]): Run {
 function expectOk(run: Run): void {
   expect(run.stderr).toBe('');
   expect(run.status).toBe(0);
+}
+
+/** Runs a script of public/examples/ with `sh`, from the repository folder, with `env` added. */
+function example(script: string, env: Record<string, string>): Run {
+  const r = spawnSync('sh', [join('public/examples', script)], {
+    cwd: repoRoot,
+    encoding: 'utf8',
+    env: { ...process.env, ...env },
+  });
+  return { status: r.status, stdout: r.stdout, stderr: r.stderr };
 }
 
 /** One line on stderr naming the problem, the exit code given. */
@@ -100,7 +113,7 @@ describe('map --shard K/N and merge', () => {
       'sh',
       [
         '-c',
-        `printf '%s\\n' 1 2 3 | xargs -P 3 -I K "${process.execPath}" fourfold.mjs map --model "${path('model.json')}" --shard K/3 --threads 1 --out "${path('part-K.json')}"`,
+        `printf '%s\\n' 1 2 3 | xargs -P 3 -I {} "${process.execPath}" fourfold.mjs map --model "${path('model.json')}" --shard {}/3 --threads 1 --out "${path('part-{}.json')}"`,
       ],
       { cwd: repoRoot, encoding: 'utf8' },
     );
@@ -133,7 +146,62 @@ describe('map --shard K/N and merge', () => {
     }
     // Nothing half-written is left beside the outputs.
     expect(readdirSync(dir).filter((name) => name.startsWith('.'))).toEqual([]);
-  });
+  }, 300_000);
+
+  test('a random plane (seeded; both axes reversed, no fields, four phases), 5 shards: merged JSON and CSV are the single run, byte for byte', () => {
+    const random = seededRandom(20261216);
+    let document: ReturnType<typeof randomMapDocument> = {};
+    for (let k = 0; k < 24; k++) document = randomMapDocument(random);
+    (document.plane as { resolution: number[] }).resolution = [37, 29];
+    writeFileSync(path('random-model.json'), JSON.stringify(document));
+    for (const format of ['json', 'csv']) {
+      expectOk(
+        fourfold('map', '--model', path('random-model.json'), '--out', path(`random.${format}`)),
+      );
+    }
+    const run = spawnSync(
+      'sh',
+      [
+        '-c',
+        `printf '%s\\n' 5 4 3 2 1 | xargs -P 2 -I {} "${process.execPath}" fourfold.mjs map --model "${path('random-model.json')}" --shard {}/5 --threads 1 --out "${path('random-part-{}.json')}"`,
+      ],
+      { cwd: repoRoot, encoding: 'utf8' },
+    );
+    expect(run.stderr).toBe('');
+    expect(run.status).toBe(0);
+    const whole = JSON.parse(readFileSync(path('random.json'), 'utf8')) as {
+      y: number[];
+      phases: { label: string }[];
+      boundaries: { points: [number, number][] }[];
+    };
+    expect(whole.phases.length).toBeGreaterThanOrEqual(4);
+    // Seams between the parts' pixel rows; the F | CAF and CAF | AF boundaries run along two of
+    // them, so points of them lie on edges across a seam (between the centres of its two pixel
+    // rows), which only merge locates.
+    const seams = [2, 3, 4, 5].map(
+      (k) =>
+        (
+          JSON.parse(
+            readFileSync(path(`random-part-${k}.json`), 'utf8')
+              .split('\n')[0]!
+              .replace(/,$/, '}'),
+          ) as { rows: [number, number] }
+        ).rows[0],
+    );
+    expect(seams).toEqual([6, 12, 18, 24]);
+    const acrossSeam = (j: number) => {
+      const [below, above] = [whole.y[j - 1]!, whole.y[j]!].sort((a, b) => a - b);
+      return whole.boundaries.flatMap((b) => b.points.filter(([, y]) => y > below! && y < above!))
+        .length;
+    };
+    expect(acrossSeam(12)).toBeGreaterThan(20);
+    expect(acrossSeam(18)).toBeGreaterThan(20);
+    const parts = [1, 2, 3, 4, 5].map((k) => path(`random-part-${k}.json`));
+    for (const format of ['json', 'csv']) {
+      expectOk(fourfold('merge', '--out', path(`random-merged.${format}`), ...parts.reverse()));
+      expect(bytes(`random-merged.${format}`).equals(bytes(`random.${format}`))).toBe(true);
+    }
+  }, 300_000);
 
   test('merge refuses parts that do not make one Map, in one line each', () => {
     const merge = (...parts: string[]) =>
@@ -175,6 +243,40 @@ describe('map --shard K/N and merge', () => {
     expect(() => statSync(path('bad.json'))).toThrow();
   });
 
+  test('public/examples/map-parallel.sh (GNU parallel stood in for by a script that runs its jobs one by one): the single run', () => {
+    // The stand-in takes `parallel -j N COMMAND... ::: ARGS...` and runs COMMAND once per ARG
+    // with {} replaced by it, as GNU parallel does (its -j only limits how many run at once).
+    const bin = path('bin');
+    mkdirSync(bin);
+    writeFileSync(
+      join(bin, 'parallel'),
+      `#!${process.execPath}\n` +
+        "const { spawnSync } = require('node:child_process');\n" +
+        'const argv = process.argv.slice(2);\n' +
+        "if (argv[0] !== '-j') process.exit(9);\n" +
+        "const split = argv.indexOf(':::');\n" +
+        'const command = argv.slice(2, split);\n' +
+        'for (const arg of argv.slice(split + 1)) {\n' +
+        "  const words = command.map((w) => w.split('{}').join(arg));\n" +
+        "  const r = spawnSync(words[0], words.slice(1), { stdio: 'inherit' });\n" +
+        '  if (r.status !== 0) process.exit(r.status ?? 1);\n' +
+        '}\n',
+    );
+    chmodSync(join(bin, 'parallel'), 0o755);
+    const run = example('map-parallel.sh', {
+      PATH: `${bin}:${process.env.PATH ?? ''}`,
+      MODEL: path('model.json'),
+      PARTS: path('parallel-parts'),
+      OUT: path('parallel.json'),
+    });
+    expect(run.stderr).toBe('');
+    expect(run.status).toBe(0);
+    expect(readdirSync(path('parallel-parts')).sort()).toEqual(
+      [1, 2, 3, 4, 5, 6, 7, 8].map((k) => `part-${k}.json`).sort(),
+    );
+    expect(bytes('parallel.json').equals(bytes('single.json'))).toBe(true);
+  }, 300_000);
+
   test('the command line of shards and merges: every option used or refused (exit 2)', () => {
     const model = path('model.json');
     expectRefused(fourfold('map', '--model', model, '--shard', '0/3', '--out', path('p.json')), 2, [
@@ -185,9 +287,9 @@ describe('map --shard K/N and merge', () => {
       '--shard',
     ]);
     expectRefused(
-      fourfold('map', '--model', model, '--shard', '1/25', '--out', path('p.json')),
+      fourfold('map', '--model', model, '--shard', '1/13', '--out', path('p.json')),
       2,
-      ['has 24 rows of coarse cells'],
+      ['has 12 rows of coarse cells', 'at most 12 shards'],
     );
     expectRefused(fourfold('map', '--model', model, '--shard', '1/3', '--out', path('p.csv')), 2, [
       'end it in .json',
@@ -292,7 +394,7 @@ describe('series of Maps', () => {
     );
     expect(['map-01.json', 'map-02.json'].map(mtime)).toEqual(before.slice(0, 2));
     expect(readFileSync(path('series/map-03.json')).equals(whole)).toBe(true);
-  });
+  }, 300_000);
 
   test('sharded: every map in pieces, then one plain run merges them into the same files', () => {
     const args = ['--model', path('series-model.json'), '--vary', 'zeeman', '--values', values];
@@ -308,7 +410,49 @@ describe('series of Maps', () => {
       expect(bytes(`sharded/fig-0${k}.json`).equals(bytes(`series/map-0${k}.json`))).toBe(true);
     }
     expect(bytes('sharded/fig.svg').equals(bytes('series/series.svg'))).toBe(true);
-  });
+    // A series map's parts merged into CSV: its lines name the model, plane, version, caution
+    // and the series value.
+    expectOk(
+      fourfold(
+        'merge',
+        '--out',
+        path('sharded/fig-02.csv'),
+        path('sharded/fig-02.part-2-of-2.json'),
+        path('sharded/fig-02.part-1-of-2.json'),
+      ),
+    );
+    const head = readFileSync(path('sharded/fig-02.csv'), 'utf8').split('\n').slice(0, 5);
+    expect(head[0]).toContain('Mean-field');
+    expect(head[1]).toMatch(/^# fourfold \S+; model \{.*"zeeman":0\.5/);
+    expect(head[2]).toMatch(/^# plane \{/);
+    expect(head[3]).toBe('# series {"vary":"zeeman","value":0.5,"index":2,"of":3}');
+    expect(head[4]).toBe(['u_perp', 'u_z', 'phase', 'energy', 'gap', ...CHANNELS].join(','));
+  }, 300_000);
+
+  test('public/examples/series-array.sh as a Slurm job array of 2 tasks, then its merging job: the same files as one run', () => {
+    const series = {
+      MODEL: path('series-model.json'),
+      VARY: 'zeeman',
+      VALUES: values,
+      OUT: path('array'),
+    };
+    for (const task of ['2', '1']) {
+      const run = example('series-array.sh', {
+        ...series,
+        SLURM_ARRAY_TASK_ID: task,
+        SLURM_ARRAY_TASK_COUNT: '2',
+      });
+      expect(run.stderr).toBe('');
+      expect(run.status).toBe(0);
+    }
+    expect(readdirSync(path('array')).filter((name) => name.endsWith('.json'))).toHaveLength(6);
+    const merge = example('series-array.sh', series);
+    expect(merge.stderr).toBe('');
+    expect(merge.status).toBe(0);
+    for (const name of ['map-01.json', 'map-02.json', 'map-03.json', 'series.svg']) {
+      expect(bytes(`array/${name}`).equals(bytes(`series/${name}`))).toBe(true);
+    }
+  }, 300_000);
 
   test('the command line of series: bad quantities and values refused in one line', () => {
     const model = path('series-model.json');

@@ -10,9 +10,8 @@ import {
   parseModel,
   seededRandom,
   solve,
-  type RandomSource,
 } from '../solver/index';
-import { errorOf, standardPlane } from './fixtures';
+import { errorOf, randomMapDocument, standardPlane } from './fixtures';
 
 /**
  * Trust: every Map pixel is the single-point ground state, weak fields pick the state the closed
@@ -21,45 +20,6 @@ import { errorOf, standardPlane } from './fixtures';
  * public/notes.html#energy); the phase lines at E_Z -> 0+ are those of the anisotropic
  * contact-interaction model, Phys. Rev. B 85, 155439 (2012).
  */
-
-/** A random small Map: any filling, 2 to 15 channels, H != F, fields on the axes, 2 to 9 per side. */
-function randomMapDocument(random: RandomSource): Record<string, unknown> {
-  const filling = [-1, 0, 1][Math.floor(3 * random())]!;
-  const names = [...CHANNELS]
-    .map((name) => ({ name, key: random() }))
-    .sort((a, b) => a.key - b.key)
-    .slice(0, 2 + Math.floor(14 * random()))
-    .map((c) => c.name);
-  const channels: Record<string, unknown> = {};
-  for (const name of names) {
-    const fock = 2 * random() - 1;
-    channels[name] = random() < 0.3 ? { fock } : { hartree: 2 * random() - 1, fock };
-  }
-  const pool = [...names.flatMap((n) => [`${n}.fock`, `${n}.hartree`]), 'zeeman', 'valleyZeeman'];
-  const axis = (): Record<string, unknown> => {
-    const targets: Record<string, number> = {};
-    for (let q = 1 + Math.floor(3 * random()); q > 0; q--) {
-      targets[pool[Math.floor(random() * pool.length)]!] =
-        Math.round((4 * random() - 2) * 10) / 10 || 1;
-    }
-    const from = Math.round((4 * random() - 2) * 4) / 4;
-    const to = Math.round((4 * random() - 2) * 4) / 4;
-    return { from, to: to === from ? from + 1 : to, targets };
-  };
-  // A Hartree target of a channel the model does not list needs a Fock part (the file rule).
-  const document = {
-    filling,
-    channels,
-    zeeman: random() < 0.5 ? 0 : Math.round(random() * 10) / 10,
-    valleyZeeman: random() < 0.5 ? 0 : Math.round((random() - 0.5) * 10) / 10,
-    plane: {
-      x: axis(),
-      y: axis(),
-      resolution: [2 + Math.floor(8 * random()), 2 + Math.floor(8 * random())],
-    },
-  };
-  return document;
-}
 
 describe('every Map pixel is the single-point ground state', () => {
   test('300 seeded random small maps: each pixel equals `solve` there (energy to 1e-9 of the scale, label but for rare ties)', async () => {
