@@ -8,7 +8,7 @@ import { MEAN_FIELD_CAUTION, SOFTWARE_VERSION } from './version';
 /**
  * A part of a Map (`map --shard K/N`): one JSON document written a line at a time, so that a
  * part of any size is written and read back with little memory, each line a JSON value of its
- * own (README, "Shards"):
+ * own (README, "Large Maps, shards and series"):
  *
  *     {"fourfold":"map part","format":1,"shard":[K,N],"rows":[j0,j1],"model":...,"plane":...,
  *      "version":...,"caution":...,

@@ -5,9 +5,9 @@ import type { MapInput } from './plane';
 
 /**
  * A series of Maps: the same model and plane, one quantity set to each of a list of values
- * (README, "Series"). The quantity is E_Z (`zeeman`), Delta_V (`valleyZeeman`), one part of a
- * channel (`CH.fock`, `CH.hartree`) or the Hartree-to-Fock ratio of one or more channels
- * (`ratio:CH`, `ratio:x0+y0`).
+ * (README, "Large Maps, shards and series"). The quantity is E_Z (`zeeman`), Delta_V
+ * (`valleyZeeman`), one part of a channel (`CH.fock`, `CH.hartree`) or the Hartree-to-Fock ratio
+ * of one or more channels (`ratio:CH`, `ratio:x0+y0`).
  */
 export type SeriesQuantity =
   | { readonly kind: 'zeeman' }
