@@ -1,30 +1,13 @@
-import { spawnSync } from 'node:child_process';
 import { existsSync, mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
-import { join, resolve } from 'node:path';
-import { fileURLToPath } from 'node:url';
+import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
+import { fourfold, type Run } from './cliRun';
 import { INTERFACES_EXAMPLE, standardPlane } from './fixtures';
 import { CHANNELS, type SolveJson } from '../solver/index';
 
 // The CLI is driven exactly as the README (Command line) describes it, through fourfold.mjs in a
 // child process.
-
-const repoRoot = resolve(fileURLToPath(new URL('.', import.meta.url)), '..');
-
-interface Run {
-  status: number | null;
-  stdout: string;
-  stderr: string;
-}
-
-function fourfold(...args: string[]): Run {
-  const result = spawnSync(process.execPath, ['fourfold.mjs', ...args], {
-    cwd: repoRoot,
-    encoding: 'utf8',
-  });
-  return { status: result.status, stdout: result.stdout, stderr: result.stderr };
-}
 
 /** The standard (uPerp, uZ) plane, at 24 x 24. */
 const PLANE_24 = standardPlane(24, 24);

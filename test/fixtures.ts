@@ -42,6 +42,30 @@ export function standardPlane(
   };
 }
 
+/** The invented sample of public/examples/sample-map.json on a plane of the given size. */
+export function sampleMapDocument(nx: number, ny: number, zeeman = 0.5) {
+  return {
+    filling: 0,
+    channels: {
+      x0: { hartree: -0.8, fock: -1.0 },
+      y0: { hartree: -0.8, fock: -1.0 },
+      z0: { fock: 1.5 },
+    },
+    zeeman,
+    valleyZeeman: 0.1,
+    plane: {
+      x: {
+        label: 'u_perp',
+        from: -2,
+        to: 2,
+        targets: { 'x0.fock': 1, 'y0.fock': 1, 'x0.hartree': 0.8, 'y0.hartree': 0.8 },
+      },
+      y: { label: 'u_z', from: -2, to: 2, targets: { 'z0.fock': 1, 'z0.hartree': 1 } },
+      resolution: [nx, ny] as [number, number],
+    },
+  };
+}
+
 /** A generic model: all 15 channels, Hartree and Fock drawn independently in [-1, 1]. */
 export function genericModel(
   random: RandomSource,

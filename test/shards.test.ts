@@ -10,36 +10,15 @@ import {
   writeFileSync,
 } from 'node:fs';
 import { tmpdir } from 'node:os';
-import { join, resolve } from 'node:path';
-import { fileURLToPath } from 'node:url';
+import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
 import { CHANNELS, seededRandom } from '../solver/index';
-import { randomMapDocument } from './fixtures';
+import { fourfold, repoRoot, type Run } from './cliRun';
+import { randomMapDocument, sampleMapDocument } from './fixtures';
 import { parseXmlStrictly, textsOf } from './strictParsers';
 
 // Shards, merges and series through the command line, as README "Large Maps, shards and series"
 // describes them: child processes of fourfold.mjs, as a scheduler would start them.
-
-const repoRoot = resolve(fileURLToPath(new URL('.', import.meta.url)), '..');
-
-interface Run {
-  status: number | null;
-  stdout: string;
-  stderr: string;
-}
-
-function fourfold(...args: string[]): Run {
-  const r = spawnSync(process.execPath, ['fourfold.mjs', ...args], {
-    cwd: repoRoot,
-    encoding: 'utf8',
-  });
-  return { status: r.status, stdout: r.stdout, stderr: r.stderr };
-}
-
-function expectOk(run: Run): void {
-  expect(run.stderr).toBe('');
-  expect(run.status).toBe(0);
-}
 
 /** Runs a script of public/examples/ with `sh`, from the repository folder, with `env` added. */
 function example(script: string, env: Record<string, string>): Run {
@@ -51,6 +30,11 @@ function example(script: string, env: Record<string, string>): Run {
   return { status: r.status, stdout: r.stdout, stderr: r.stderr };
 }
 
+function expectOk(run: Run): void {
+  expect(run.stderr).toBe('');
+  expect(run.status).toBe(0);
+}
+
 /** One line on stderr naming the problem, the exit code given. */
 function expectRefused(run: Run, status: number, mentions: string[]): void {
   expect(run.status).toBe(status);
@@ -59,30 +43,6 @@ function expectRefused(run: Run, status: number, mentions: string[]): void {
   expect(lines).toHaveLength(1);
   expect(lines[0]!.startsWith('fourfold: ')).toBe(true);
   for (const word of mentions) expect(lines[0]).toContain(word);
-}
-
-/** The invented sample of public/examples/sample-map.json on a smaller plane. */
-function sample(nx: number, ny: number, zeeman = 0.5) {
-  return {
-    filling: 0,
-    channels: {
-      x0: { hartree: -0.8, fock: -1.0 },
-      y0: { hartree: -0.8, fock: -1.0 },
-      z0: { fock: 1.5 },
-    },
-    zeeman,
-    valleyZeeman: 0.1,
-    plane: {
-      x: {
-        label: 'u_perp',
-        from: -2,
-        to: 2,
-        targets: { 'x0.fock': 1, 'y0.fock': 1, 'x0.hartree': 0.8, 'y0.hartree': 0.8 },
-      },
-      y: { label: 'u_z', from: -2, to: 2, targets: { 'z0.fock': 1, 'z0.hartree': 1 } },
-      resolution: [nx, ny],
-    },
-  };
 }
 
 let dir = '';
@@ -102,7 +62,7 @@ describe('map --shard K/N and merge', () => {
   const formats = ['json', 'csv', 'svg'] as const;
 
   beforeAll(() => {
-    writeFileSync(path('model.json'), JSON.stringify(sample(64, 48)));
+    writeFileSync(path('model.json'), JSON.stringify(sampleMapDocument(64, 48)));
     for (const format of formats) {
       expectOk(fourfold('map', '--model', path('model.json'), '--out', path(`single.${format}`)));
     }
@@ -319,7 +279,7 @@ describe('series of Maps', () => {
   const values = '0.2,0.5,0.8';
 
   beforeAll(() => {
-    writeFileSync(path('series-model.json'), JSON.stringify(sample(16, 12)));
+    writeFileSync(path('series-model.json'), JSON.stringify(sampleMapDocument(16, 12)));
     expectOk(
       fourfold(
         'series',
@@ -353,7 +313,7 @@ describe('series of Maps', () => {
     expect(json.series).toEqual({ vary: 'zeeman', value: 0.5, index: 2, of: 3 });
     expect(json.caution).toContain('Mean-field');
     // Without its series value, the file is what `map` writes for that model.
-    writeFileSync(path('zeeman-0.5.json'), JSON.stringify(sample(16, 12, 0.5)));
+    writeFileSync(path('zeeman-0.5.json'), JSON.stringify(sampleMapDocument(16, 12, 0.5)));
     expectOk(
       fourfold('map', '--model', path('zeeman-0.5.json'), '--out', path('zeeman-0.5.map.json')),
     );
