@@ -277,22 +277,22 @@ describe('map --shard K/N and merge', () => {
 
 describe('series of Maps', () => {
   const values = '0.2,0.5,0.8';
+  /** `series` of the small sample over three Zeeman energies. */
+  const series = (...args: string[]) =>
+    fourfold(
+      'series',
+      '--model',
+      path('series-model.json'),
+      '--vary',
+      'zeeman',
+      '--values',
+      values,
+      ...args,
+    );
 
   beforeAll(() => {
     writeFileSync(path('series-model.json'), JSON.stringify(sampleMapDocument(16, 12)));
-    expectOk(
-      fourfold(
-        'series',
-        '--model',
-        path('series-model.json'),
-        '--vary',
-        'zeeman',
-        '--values',
-        values,
-        '--out',
-        path('series'),
-      ),
-    );
+    expectOk(series('--out', path('series')));
   }, 300_000);
 
   test('one JSON per value with its provenance, each the map of its model; one figure of small multiples', () => {
@@ -339,19 +339,7 @@ describe('series of Maps', () => {
     const before = ['map-01.json', 'map-02.json', 'map-03.json'].map(mtime);
     const whole = readFileSync(path('series/map-03.json'));
     writeFileSync(path('series/map-03.json'), whole.subarray(0, whole.length - 40));
-    expectOk(
-      fourfold(
-        'series',
-        '--model',
-        path('series-model.json'),
-        '--vary',
-        'zeeman',
-        '--values',
-        values,
-        '--out',
-        path('series'),
-      ),
-    );
+    expectOk(series('--out', path('series')));
     expect(['map-01.json', 'map-02.json'].map(mtime)).toEqual(before.slice(0, 2));
     expect(readFileSync(path('series/map-03.json')).equals(whole)).toBe(true);
   }, 300_000);
@@ -390,7 +378,7 @@ describe('series of Maps', () => {
   }, 300_000);
 
   test('public/examples/series-array.sh as a Slurm job array of 2 tasks, then its merging job: the same files as one run', () => {
-    const series = {
+    const job = {
       MODEL: path('series-model.json'),
       VARY: 'zeeman',
       VALUES: values,
@@ -398,7 +386,7 @@ describe('series of Maps', () => {
     };
     for (const task of ['2', '1']) {
       const run = example('series-array.sh', {
-        ...series,
+        ...job,
         SLURM_ARRAY_TASK_ID: task,
         SLURM_ARRAY_TASK_COUNT: '2',
       });
@@ -406,7 +394,7 @@ describe('series of Maps', () => {
       expect(run.status).toBe(0);
     }
     expect(readdirSync(path('array')).filter((name) => name.endsWith('.json'))).toHaveLength(6);
-    const merge = example('series-array.sh', series);
+    const merge = example('series-array.sh', job);
     expect(merge.stderr).toBe('');
     expect(merge.status).toBe(0);
     for (const name of ['map-01.json', 'map-02.json', 'map-03.json', 'series.svg']) {
@@ -415,20 +403,19 @@ describe('series of Maps', () => {
   }, 300_000);
 
   test('the command line of series: bad quantities and values refused in one line', () => {
-    const model = path('series-model.json');
-    const series = (...args: string[]) =>
-      fourfold('series', '--model', model, '--out', path('never'), ...args);
-    expectRefused(series('--vary', 'x0.fock', '--values', values), 2, [
+    const refusal = (...args: string[]) =>
+      fourfold('series', '--model', path('series-model.json'), '--out', path('never'), ...args);
+    expectRefused(refusal('--vary', 'x0.fock', '--values', values), 2, [
       'x axis sets x0.fock',
       'every map would be the same',
     ]);
-    expectRefused(series('--vary', 'qq.fock', '--values', values), 2, ['"qq"', 'not a channel']);
-    expectRefused(series('--vary', 'zeeman', '--values', '0.1,x'), 2, [
+    expectRefused(refusal('--vary', 'qq.fock', '--values', values), 2, ['"qq"', 'not a channel']);
+    expectRefused(refusal('--vary', 'zeeman', '--values', '0.1,x'), 2, [
       '"x"',
       'not a finite number',
     ]);
-    expectRefused(series('--vary', 'zeeman', '--values', '0:1:1'), 2, ['from:to:n']);
-    expectRefused(series('--values', values), 2, ['--vary', 'missing']);
+    expectRefused(refusal('--vary', 'zeeman', '--values', '0:1:1'), 2, ['from:to:n']);
+    expectRefused(refusal('--values', values), 2, ['--vary', 'missing']);
     expect(() => statSync(path('never'))).toThrow();
   });
 });
