@@ -14,6 +14,7 @@ import {
   axisSvg,
   estimateTextWidth,
   figureDocument,
+  figureTitleSvg,
   linearTicks,
   svgNumber,
   tickLabelFormat,
@@ -165,9 +166,7 @@ export function seriesFigureSvg(
 
   body.push('<defs>', ...clips, ...fills.patterns, '</defs>');
   if (title !== '') {
-    body.push(
-      `<text x="${svgNumber((gridLeft + gridRight) / 2)}" y="${svgNumber(1.3 * fs)}" text-anchor="middle" font-size="${fs + 1}">${typesetLabel(title, fs + 1).markup}</text>`,
-    );
+    body.push(figureTitleSvg(title, (gridLeft + gridRight) / 2, fs));
   }
   body.push('<g id="panels">', ...panelParts, '</g>', ...axisTitles);
   body.push('<g id="legend">', ...legend.parts, '</g>');
