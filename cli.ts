@@ -283,6 +283,13 @@ function parseArgs(argv: readonly string[]): Args {
     }
     if (args.out === undefined)
       throw new CliError('--out: missing (give a folder or FIGURE.svg)', 2);
+    // A file name of another kind is a slip, not a folder to fill with Maps.
+    if (/\.(json|csv|txt|png|pdf|eps|jpe?g)$/i.test(args.out)) {
+      throw new CliError(
+        `--out ${quoteInput(args.out, QUOTED_PATH_LENGTH)}: series writes a folder of Maps or a figure; give a folder or end it in .svg`,
+        2,
+      );
+    }
   }
   if (command === 'cut') {
     if (args.from === undefined) throw new CliError('--from: missing (give the start as x,y)', 2);
