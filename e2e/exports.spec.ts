@@ -97,7 +97,10 @@ test('Map exports (SVG, PNG, CSV, JSON) of a scenario with hostile axis names an
 
   const csv = await download(page, 'export-csv', 2 * BUSY_MACHINE_MS);
   const { header, rows, comments } = parseCsvStrictly(csv.bytes.toString('utf8'));
-  expect(comments).toHaveLength(2);
+  // The caution, the version and model, and the plane (its hostile axis names inside JSON, on
+  // one line).
+  expect(comments).toHaveLength(3);
+  expect(comments[2]).toMatch(/^# plane \{"x":\{"label":/);
   expect(header.slice(0, 3)).toEqual([neutralised(HOSTILE_X), neutralised(HOSTILE_Y), 'phase']);
   expect(rows).toHaveLength(40 * 40);
   for (const row of rows) {

@@ -95,10 +95,11 @@ test('PNG at the chosen resolution, CSV of every grid point and JSON with the mo
   expect(csv.name).toBe('fourfold-map.csv');
   const lines = csv.bytes.toString('utf8').trimEnd().split('\n');
   expect(lines[0]).toMatch(/^# Mean-field/);
-  const header = lines[2]!.split(',');
+  expect(lines[2]).toMatch(/^# plane \{/);
+  const header = lines[3]!.split(',');
   expect(header.slice(0, 5)).toEqual(['u_perp', 'u_z', 'phase', 'energy', 'gap']);
   expect(header).toHaveLength(20);
-  const rows = lines.slice(3);
+  const rows = lines.slice(4);
   expect(rows).toHaveLength(256 * 256);
   // Every pixel solved: no empty label, no NaN.
   for (const row of rows) {
