@@ -127,6 +127,7 @@ export {
   type LocatedTransition,
 } from './crossings';
 export {
+  CUT_DISTANCE_LABEL,
   MAX_CUT_POINTS,
   checkCut,
   computeCut,

@@ -7,7 +7,7 @@ import { PinLayer } from '../probe/PinLayer';
 import { useFourfold } from '../store/index';
 import { ConsistencyLayer } from '../observations/ConsistencyLayer';
 import { TiltTrajectoryLayer } from '../setup/TiltTrajectoryLayer';
-import { axisTitle } from './axisTitle';
+import { SvgLabel } from '../notation/SvgLabel';
 import { PLOT_MARGIN } from './plotFrame';
 
 type Scale = ScaleLinear<number, number>;
@@ -112,7 +112,7 @@ function Axes({ x, y, side }: { x: Scale; y: Scale; side: number }) {
   );
 }
 
-/** An axis title as SVG text: the symbol (italic when a single Latin letter), its subscript. */
+/** An axis title as SVG text in the app's notation, then the unit. */
 function AxisTitleText({
   label,
   unit,
@@ -125,17 +125,14 @@ function AxisTitleText({
   fallback: string;
   transform: string;
 }) {
-  const { symbol, subscript } = axisTitle(label, fallback);
-  const italic = /^[A-Za-z]$/.test(symbol);
   return (
     <text className="map-axis-title" transform={transform} textAnchor="middle">
-      <tspan fontStyle={italic ? 'italic' : undefined}>{symbol}</tspan>
-      {subscript !== '' && (
-        <tspan className="map-axis-subscript" dy="0.32em" fontSize="0.72em">
-          {subscript}
-        </tspan>
-      )}
-      {unit !== null && <tspan dy={subscript !== '' ? '-0.32em' : undefined}> ({unit})</tspan>}
+      {/* 15 px: the title's font size in map.css. */}
+      <SvgLabel
+        label={label || fallback}
+        fontSize={15}
+        suffix={unit === null ? undefined : ` (${unit})`}
+      />
     </text>
   );
 }
