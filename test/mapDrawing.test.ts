@@ -137,7 +137,7 @@ describe('legend entries', () => {
     expect(entries.map((e) => e.share)).toEqual([0.4, 0.2, 0.1]);
     expect(entries[1]!.colours).toEqual([TOKEN_COLOURS.CDW, TOKEN_COLOURS.SBxy]);
     expect(entries[1]!.meaning).toMatch(/^charge density wave.*; spin bond order perpendicular/);
-    expect(entries[2]!.meaning).toBe('no broken symmetry');
+    expect(entries[2]!.meaning).toBe('no broken symmetry: no group to name');
   });
 
   test('label counts agree with the solver legend, runs or not, ties by name', () => {
