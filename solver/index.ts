@@ -136,6 +136,7 @@ export {
   type CutTransition,
 } from './cut';
 export { cutToCsv, cutToJson } from './cutExport';
+export { csvComment, csvText } from './csvText';
 export { joinBoundaries, type Boundary } from './boundaries';
 export { computePhaseMap, localStages, splitRange, type MapStages } from './phaseMap';
 export { legendOf, mapCsvPieces, mapJsonPieces, mapToCsv, mapToJson } from './mapExport';
