@@ -31,8 +31,8 @@ export function TermTip() {
   const [tip, setTip] = useState<Tip | null>(null);
   useEffect(() => {
     let current: HTMLElement | SVGElement | null = null;
-    const show = (el: HTMLElement | SVGElement) => {
-      if (current === el) return;
+    const show = (el: HTMLElement | SVGElement, again = false) => {
+      if (current === el && !again) return;
       current?.removeAttribute('aria-describedby');
       current = el;
       el.setAttribute('aria-describedby', TERM_TIP_ID);
@@ -67,13 +67,19 @@ export function TermTip() {
     document.addEventListener('focusin', onOver);
     document.addEventListener('mouseout', onOut);
     document.addEventListener('focusout', onOut);
-    window.addEventListener('scroll', hide, true);
+    // A scroll moves the term: a focused one (Tab scrolls it into view) keeps its explanation,
+    // placed anew; one under the pointer loses it.
+    const onScroll = () => {
+      if (current !== null && current.contains(document.activeElement)) show(current, true);
+      else hide();
+    };
+    window.addEventListener('scroll', onScroll, true);
     return () => {
       document.removeEventListener('mouseover', onOver);
       document.removeEventListener('focusin', onOver);
       document.removeEventListener('mouseout', onOut);
       document.removeEventListener('focusout', onOut);
-      window.removeEventListener('scroll', hide, true);
+      window.removeEventListener('scroll', onScroll, true);
     };
   }, []);
   if (tip === null) return null;
