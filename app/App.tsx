@@ -1,6 +1,9 @@
 import { useEffect } from 'react';
+import { HistoryBar } from './history/HistoryBar';
 import { Legend } from './map/Legend';
+import { MapToolbar } from './map/MapToolbar';
 import { MapView } from './map/MapView';
+import { TermTip } from './notation/TermTip';
 import { MeanFieldCautions } from './probe/MeanFieldCautions';
 import { PinSummary } from './probe/PinSummary';
 import { ProbePanel } from './probe/ProbePanel';
@@ -16,6 +19,12 @@ import { useScenarioSync } from './scenario/useScenarioSync';
 import { SetupPanel } from './setup/SetupPanel';
 import { MapStatus } from './status/MapStatus';
 
+/**
+ * The page. On a screen 1280 x 800 or larger the first band holds the Setup (scrolling on its
+ * own, and staying in view), the Map (sized to the window's height, its status under it) and,
+ * beside it, the state under the pointer with the selected pin's essentials; the Map's legend
+ * and Figure follow under it, and the full Probe and the Cut come below the band.
+ */
 export function App() {
   useScenarioSync();
   useEffect(() => startProbeDriver(), []);
@@ -24,7 +33,9 @@ export function App() {
       <header className="masthead">
         <div className="title">
           <h1>Fourfold</h1>
-          <p>Hartree-Fock ground states of graphene&rsquo;s zero-energy Landau level</p>
+          <p className="tagline">
+            Hartree-Fock ground states of graphene&rsquo;s zero-energy Landau level
+          </p>
           <a
             className="notes-link"
             href="notes.html"
@@ -35,7 +46,10 @@ export function App() {
             Model notes
           </a>
         </div>
-        <ScenarioBar />
+        <div className="masthead-tools">
+          <HistoryBar />
+          <ScenarioBar />
+        </div>
       </header>
       <NoticeLine />
       <main className="workspace">
@@ -44,17 +58,20 @@ export function App() {
           <SetupPanel />
         </section>
         <section className="panel map-column" aria-labelledby="map-heading">
-          <h2 id="map-heading">Map</h2>
+          <div className="panel-head">
+            <h2 id="map-heading">Map</h2>
+            <MapToolbar />
+          </div>
           <MapView />
-          <DrawingNote />
           <MapStatus />
+          <DrawingNote />
           <Legend />
           <FigureBar />
         </section>
         <section className="panel readout-column" aria-labelledby="readout-heading">
+          <PinSummary />
           <h2 id="readout-heading">State under the pointer</h2>
           <Readout />
-          <PinSummary />
           <MeanFieldCautions />
         </section>
         <section className="panel probe-row" aria-labelledby="probe-heading">
@@ -70,6 +87,7 @@ export function App() {
           <ObservationsPanel />
         </section>
       </main>
+      <TermTip />
     </div>
   );
 }

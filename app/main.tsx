@@ -1,6 +1,7 @@
 import { StrictMode } from 'react';
 import { createRoot } from 'react-dom/client';
 import { App } from './App';
+import { startHistoryDriver } from './history/historyDriver';
 import { startMapDriver } from './mapDriver';
 import './styles.css';
 import { installTestHooks } from './testHooks';
@@ -19,6 +20,8 @@ function mapMode(): 'staged' | 'cold' {
 // first job waits for them and maps the setup as it is then (normally with a link's scenario
 // already applied by the first render's effects).
 startMapDriver(mapMode());
+// Every setup change from here on, the link's among them, is a step of the undo history.
+startHistoryDriver();
 
 createRoot(container).render(
   <StrictMode>

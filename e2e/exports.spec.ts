@@ -145,9 +145,10 @@ test('Cut exports (SVG, CSV, JSON) of a scenario with hostile axis names', async
   const { header, rows, comments } = parseCsvStrictly(csv.bytes.toString('utf8'));
   // Caution, model, path, then one line per transition: a newline in a name splits none.
   expect(comments).toHaveLength(3 + transitions);
+  // The horizontal quantity of a line on which both coordinates change is its distance.
   expect(header.slice(0, 5)).toEqual([
     't',
-    's',
+    'distance',
     neutralised(HOSTILE_X),
     neutralised(HOSTILE_Y),
     'phase',

@@ -11,7 +11,8 @@ import { DescentWorkspace } from './tangentSpace';
 
 /**
  * What a Cut follows through parameter space:
- * - `line`: a straight line in the plane's coordinates, from `from` to `to` (horizontal axis t);
+ * - `line`: a straight line in the plane's coordinates, from `from` to `to` (horizontal axis:
+ *   the swept axis value when one coordinate stays, else the distance from `from`);
  * - `x`, `y`: one plane axis value from `from` to `to` at the pinned point `at` (the other axis
  *   stays at the pin);
  * - `zeeman`, `valleyZeeman`: E_Z or Delta_V from `from` to `to` at the pinned point, replacing
@@ -50,7 +51,10 @@ export type CutPath =
 export interface CutTransition {
   /** Position along the cut, 0 at the start and 1 at the end. */
   readonly t: number;
-  /** The horizontal quantity there (t itself for a line, else the swept value). */
+  /**
+   * The horizontal quantity there: the swept value (an axis value, E_Z, Delta_V, the tilt in
+   * degrees), or along a line that changes both plane coordinates the distance from its start.
+   */
   readonly s: number;
   /** Plane coordinates (the pin for sweeps of E_Z, Delta_V or tilt). */
   readonly x: number;
@@ -63,7 +67,11 @@ export interface CutTransition {
 /** Profiles along a Cut, sample i at t = i / (n - 1); plain arrays, transferable. */
 export interface CutResult {
   readonly path: CutPath;
-  /** The horizontal quantity: its label (model-file style: `E_Z`, `u_perp`, `t`, `tilt`). */
+  /**
+   * The horizontal quantity: its label (model-file style: `E_Z`, `u_perp`, `theta` for the
+   * tilt, or CUT_DISTANCE_LABEL for the distance along a slanted line) and its values at t = 0
+   * and 1.
+   */
   readonly axis: {
     readonly label: string;
     readonly unit: string;
@@ -125,6 +133,27 @@ function pinnedTrack(input: MapInput, at: readonly [number, number], slot: 3 | 1
   };
 }
 
+/** Label of the horizontal axis of a line that changes both plane coordinates. */
+export const CUT_DISTANCE_LABEL = 'distance';
+
+/**
+ * The horizontal quantity of a straight line through the plane, from (x0, y0) to (x1, y1): the
+ * swept axis value when only one plane coordinate changes (a line at fixed u_z runs along u_perp,
+ * from x0 to x1), otherwise the distance from the start in the axes' own units,
+ * sqrt(dx^2 + dy^2), from 0 to the line's length.
+ */
+function physicalAxis(
+  plane: MapInput['plane'],
+  x0: number,
+  y0: number,
+  x1: number,
+  y1: number,
+): CutResult['axis'] {
+  if (y0 === y1) return { label: plane.x.label || 'x', unit: '', from: x0, to: x1 };
+  if (x0 === x1) return { label: plane.y.label || 'y', unit: '', from: y0, to: y1 };
+  return { label: CUT_DISTANCE_LABEL, unit: '', from: 0, to: Math.hypot(x1 - x0, y1 - y0) };
+}
+
 function trackOf(input: MapInput, path: CutPath): Track {
   const { plane } = input;
   if (path.kind === 'line' || path.kind === 'x' || path.kind === 'y') {
@@ -140,18 +169,15 @@ function trackOf(input: MapInput, path: CutPath): Track {
     // Each PlaneCouplings overwrites one result object: the end points keep their own.
     const start = new PlaneCouplings(input).at(x0, y0);
     const end = new PlaneCouplings(input).at(x1, y1);
-    const span = path.kind === 'line' ? 1 : path.to - path.from;
-    const axis =
-      path.kind === 'line'
-        ? { label: 't', unit: '', from: 0, to: 1 }
-        : { label: plane[path.kind].label || path.kind, unit: '', from: path.from, to: path.to };
+    const axis = physicalAxis(plane, x0, y0, x1, y1);
+    const span = axis.to - axis.from;
     return {
       // (1 - t) a + t b: exactly the end points at t = 0 and 1.
       at: (t) => planeCouplings.at((1 - t) * x0 + t * x1, (1 - t) * y0 + t * y1),
       point: (t) => [(1 - t) * x0 + t * x1, (1 - t) * y0 + t * y1],
-      s: (t) => (path.kind === 'line' ? t : (1 - t) * path.from + t * path.to),
-      // The couplings are linear in t, so at fixed P the energy is too: its slope is the
-      // difference of the end values.
+      s: (t) => (1 - t) * axis.from + t * axis.to,
+      // The couplings are linear in t, so at fixed P the energy is too: its slope along s is
+      // the difference of the end values over the span of s.
       slope: (_t, o) => (energyOfOrder(end, o) - energyOfOrder(start, o)) / span,
       axis,
     };
@@ -184,7 +210,7 @@ function trackOf(input: MapInput, path: CutPath): Track {
         const theta = value(t) * radians;
         return ((-o[3]! / 2) * zeemanPerp * Math.sin(theta) * radians) / Math.cos(theta) ** 2;
       },
-      axis: { label: 'tilt', unit: 'deg', from: path.from, to: path.to },
+      axis: { label: 'theta', unit: 'deg', from: path.from, to: path.to },
     };
   }
   const slot = path.kind === 'zeeman' ? 3 : 12;

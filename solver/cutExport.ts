@@ -13,10 +13,10 @@ function finiteOrNull(v: number): number | null {
 }
 
 /**
- * The `cut` output document: the samples (t from 0 to 1, the horizontal quantity s, plane
- * coordinates), labels, energy, dE/ds, gap, canting angle in degrees, the magnitude of every
- * order-parameter group, the located transitions, plus the model, the plane, the path, the
- * version and the mean-field caution.
+ * The `cut` output document: the samples (t from 0 to 1; the horizontal quantity s, the swept
+ * value or the distance along a slanted line; plane coordinates), labels, energy, dE/ds, gap,
+ * canting angle in degrees, the magnitude of every order-parameter group, the located
+ * transitions, plus the model, the plane, the path, the version and the mean-field caution.
  */
 export function cutToJson(cut: CutResult, input: MapInput): Record<string, unknown> {
   const n = cut.t.length;
@@ -54,7 +54,7 @@ export function cutToJson(cut: CutResult, input: MapInput): Record<string, unkno
 export function cutToCsv(cut: CutResult, input: MapInput): string {
   const x = input.plane.x.label || 'x';
   const y = input.plane.y.label || 'y';
-  const s = cut.axis.label === 't' ? 's' : cut.axis.label;
+  const s = cut.axis.label || 's';
   const lines = [
     csvComment(MEAN_FIELD_CAUTION),
     csvComment(`fourfold ${SOFTWARE_VERSION}; model ${JSON.stringify(modelToJson(input.model))}`),

@@ -127,6 +127,7 @@ export {
   type LocatedTransition,
 } from './crossings';
 export {
+  CUT_DISTANCE_LABEL,
   MAX_CUT_POINTS,
   checkCut,
   computeCut,
@@ -135,6 +136,7 @@ export {
   type CutTransition,
 } from './cut';
 export { cutToCsv, cutToJson } from './cutExport';
+export { csvComment, csvText } from './csvText';
 export { joinBoundaries, type Boundary } from './boundaries';
 export { computePhaseMap, localStages, splitRange, type MapStages } from './phaseMap';
 export {

@@ -387,7 +387,9 @@ describe('fourfold cut (a straight line of the plane)', () => {
 
   test('.json: samples, profiles and transitions on the closed-form lines', () => {
     const cut = JSON.parse(runCut('cut.json')) as {
+      axis: { label: string; from: number; to: number };
       t: number[];
+      s: number[];
       x: number[];
       y: number[];
       phase: string[];
@@ -395,7 +397,14 @@ describe('fourfold cut (a straight line of the plane)', () => {
       slope: number[];
       cantingDeg: (number | null)[];
       groups: Record<string, number[]>;
-      transitions: { t: number; x: number; y: number; between: string[]; order: string }[];
+      transitions: {
+        t: number;
+        s: number;
+        x: number;
+        y: number;
+        between: string[];
+        order: string;
+      }[];
       caution: string;
     };
     expect(cut.t).toHaveLength(120);
@@ -411,9 +420,15 @@ describe('fourfold cut (a straight line of the plane)', () => {
     expect(cut.cantingDeg[0]).toBeNull();
     expect(cut.phase[119]).toBe('F');
     expect(cut.energy[119]).toBeCloseTo(-3.8 + 1.4 - 0.4, 12);
-    // dE/dt along the line: KD changes by d(uPerp)/dt = 3.8, F by -2 (3.8) - (-2.6) = -5.
-    expect(cut.slope[0]).toBeCloseTo(3.8, 12);
-    expect(cut.slope[119]).toBeCloseTo(-5, 12);
+    // Both couplings change along the line: the horizontal axis is the distance s from the
+    // start, up to the length sqrt(3.8^2 + 2.6^2).
+    const length = Math.hypot(3.8, 2.6);
+    expect(cut.axis.label).toBe('distance');
+    expect(cut.axis.to).toBeCloseTo(length, 12);
+    expect(cut.s[119]).toBeCloseTo(length, 12);
+    // dE/ds: KD changes by d(uPerp)/dt = 3.8 per unit t, F by -2 (3.8) - (-2.6) = -5.
+    expect(cut.slope[0]).toBeCloseTo(3.8 / length, 12);
+    expect(cut.slope[119]).toBeCloseTo(-5 / length, 12);
     // KD -> CAF (first order), then CAF -> F (continuous) at uPerp = -E_Z / 4 = -0.1
     // (public/notes.html#closed-forms; Phys. Rev. B 85, 155439 (2012)).
     expect(cut.transitions.map((t) => [...t.between, t.order])).toEqual([
@@ -423,6 +438,7 @@ describe('fourfold cut (a straight line of the plane)', () => {
     const continuous = cut.transitions[1]!;
     expect(Math.abs(continuous.x - -0.1)).toBeLessThan(3.8e-9);
     expect(continuous.y).toBeCloseTo(1.2 - 2.6 * continuous.t, 12);
+    expect(continuous.s).toBeCloseTo(length * continuous.t, 12);
   });
 
   test('.csv: comment lines, a header and one row per sample', () => {
@@ -432,7 +448,7 @@ describe('fourfold cut (a straight line of the plane)', () => {
     const table = lines.filter((l) => !l.startsWith('#'));
     expect(table[0]!.split(',').slice(0, 9)).toEqual([
       't',
-      's',
+      'distance',
       'u_perp',
       'u_z',
       'phase',

@@ -4,6 +4,7 @@ import {
   BISECTION_TOLERANCE,
   MAX_CUT_POINTS,
   ORDER_GROUPS,
+  CUT_DISTANCE_LABEL,
   computeCut,
   parseMapInput,
   type CutResult,
@@ -112,9 +113,13 @@ describe('Cut: line cuts across first-order boundaries (public/notes.html#checks
     expect(Math.abs(cdwKd!.y - -1.5)).toBeLessThanOrEqual(BISECTION_TOLERANCE * 3.6);
     expect(Math.abs(kdCaf!.y - (1.5 - 0.16 / 12))).toBeLessThanOrEqual(BISECTION_TOLERANCE * 3.6);
     expect(cdwKd!.x).toBe(-1.5);
-    // dE/dt along t: CDW has E = uZ, so 3.6 per unit t; KD has E = uPerp, constant here.
+    // The line changes u_z only: the horizontal axis is u_z itself, s = y from -1.8 to 1.8.
+    expect(cut.axis).toEqual({ label: 'u_z', unit: '', from: -1.8, to: 1.8 });
+    cut.s.forEach((s, i) => expect(s).toBe(cut.y[i]));
+    expect(cdwKd!.s).toBe(cdwKd!.y);
+    // dE/du_z: CDW has E = uZ, so 1; KD has E = uPerp, constant here.
     for (let i = 0; i < cut.t.length; i++) {
-      if (cut.labels[i] === 'CDW') expect(cut.slope[i]).toBeCloseTo(3.6, 12);
+      if (cut.labels[i] === 'CDW') expect(cut.slope[i]).toBeCloseTo(1, 12);
       if (cut.labels[i] === 'KD') expect(Math.abs(cut.slope[i]!)).toBeLessThan(1e-12);
     }
   });
@@ -133,18 +138,26 @@ describe('Cut: line cuts across first-order boundaries (public/notes.html#checks
     expect(Math.abs(transition!.y - (-transition!.x - 0.2))).toBeLessThan(1e-8);
   });
 
-  test('dE/dt matches a central difference of the energy where no transition intervenes', () => {
+  test('dE/ds matches a central difference of the energy where no transition intervenes', () => {
     const cut = computeCut(
       standardInput(0.4),
       { kind: 'line', from: [-1.9, 1.2], to: [1.9, -1.4] },
       150,
     );
+    // Both coordinates change: s is the distance from the start, up to the line's length.
+    const length = Math.hypot(3.8, 2.6);
+    expect(cut.axis).toMatchObject({ label: CUT_DISTANCE_LABEL, unit: '', from: 0 });
+    expect(cut.axis.to).toBeCloseTo(length, 14);
+    cut.s.forEach((s, i) =>
+      expect(s).toBeCloseTo(Math.hypot(cut.x[i]! + 1.9, cut.y[i]! - 1.2), 12),
+    );
+    cut.transitions.forEach((tr) => expect(tr.s).toBeCloseTo(tr.t * length, 12));
     expect(cut.transitions.length).toBeGreaterThan(1);
     let checked = 0;
     for (let i = 1; i + 1 < cut.t.length; i++) {
       if (cut.labels[i - 1] !== cut.labels[i + 1]) continue;
       const difference =
-        (cut.energy[i + 1]! - cut.energy[i - 1]!) / (cut.t[i + 1]! - cut.t[i - 1]!);
+        (cut.energy[i + 1]! - cut.energy[i - 1]!) / (cut.s[i + 1]! - cut.s[i - 1]!);
       expect(Math.abs(cut.slope[i]! - difference)).toBeLessThan(1e-6);
       checked++;
     }

@@ -183,7 +183,7 @@ describe('CSV writers: RFC 4180, formula-leading text neutralised, numbers untou
       );
       expect(header).toEqual([
         't',
-        cut === lineCut ? 's' : neutralised(HOSTILE_X),
+        cut === lineCut ? 'distance' : neutralised(HOSTILE_X),
         neutralised(HOSTILE_X),
         neutralised(HOSTILE_Y),
         'phase',

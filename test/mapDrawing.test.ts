@@ -5,7 +5,6 @@ import {
   UNKNOWN_TOKEN_COLOUR,
   labelColours,
 } from '../app/figure/palette';
-import { axisTitle } from '../app/map/axisTitle';
 import { drawRegions, type RegionGrid } from '../app/map/drawRegions';
 import { formatShare, labelCounts, legendEntries } from '../app/map/legendEntries';
 import { PLOT_MARGIN, PLOT_MAX, PLOT_MIN, plotSide } from '../app/map/plotFrame';
@@ -128,17 +127,6 @@ describe('plot geometry', () => {
     expect(plotSide(3000)).toBe(PLOT_MAX);
     expect(plotSide(500.7 + margins)).toBe(500);
   });
-
-  test('axis labels are typeset as a symbol with a subscript', () => {
-    expect(axisTitle('u_perp', 'x')).toEqual({ symbol: 'u', subscript: '\u22a5' });
-    expect(axisTitle('u_z', 'x')).toEqual({ symbol: 'u', subscript: 'z' });
-    expect(axisTitle('E_Z', 'x')).toEqual({ symbol: 'E', subscript: 'Z' });
-    expect(axisTitle('Delta_V', 'x')).toEqual({ symbol: '\u0394', subscript: 'V' });
-    expect(axisTitle('u_xy', 'x')).toEqual({ symbol: 'u', subscript: 'xy' });
-    expect(axisTitle('u_0z', 'x')).toEqual({ symbol: 'u', subscript: '0z' });
-    expect(axisTitle('tilt (deg)', 'x')).toEqual({ symbol: 'tilt (deg)', subscript: '' });
-    expect(axisTitle('', 'y')).toEqual({ symbol: 'y', subscript: '' });
-  });
 });
 
 describe('legend entries', () => {
@@ -149,7 +137,7 @@ describe('legend entries', () => {
     expect(entries.map((e) => e.share)).toEqual([0.4, 0.2, 0.1]);
     expect(entries[1]!.colours).toEqual([TOKEN_COLOURS.CDW, TOKEN_COLOURS.SBxy]);
     expect(entries[1]!.meaning).toMatch(/^charge density wave.*; spin bond order perpendicular/);
-    expect(entries[2]!.meaning).toBe('no broken symmetry');
+    expect(entries[2]!.meaning).toBe('no broken symmetry: no group to name');
   });
 
   test('label counts agree with the solver legend, runs or not, ties by name', () => {

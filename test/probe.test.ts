@@ -273,5 +273,14 @@ describe('the Probe of a plane point', () => {
     expect(svg).not.toMatch(/<image|data:image/);
     // CAF spins: arrows across the field on every site, and a dot (along the field) on each.
     expect((svg.match(/<path d="M[^"]*Z" fill="#1d2126"/g) ?? []).length).toBeGreaterThan(20);
+    // The key: each sublattice's site colour as its sites have it, and the dashed cell.
+    const siteFill = (sub: string) =>
+      new RegExp(`<circle [^>]*fill="([^"]+)"[^>]*data-sublattice="${sub}"`).exec(svg)![1];
+    const keyFill = (sub: string) =>
+      new RegExp(`<circle [^>]*fill="([^"]+)" data-key="${sub}"`).exec(svg)![1];
+    expect(keyFill('A')).toBe(siteFill('A'));
+    expect(keyFill('B')).toBe(siteFill('B'));
+    expect(keyFill('A')).not.toBe(keyFill('B'));
+    expect(svg).toMatch(/<path [^>]*stroke-dasharray="4 3" data-key="cell"\/><text[^>]*>Dashed: /);
   });
 });

@@ -1,8 +1,11 @@
 import { axisBottom, axisLeft, line, scaleLinear, select, type ScaleLinear } from 'd3';
 import { memo, useCallback, useEffect, useMemo, useRef, type PointerEvent } from 'react';
-import type { CutResult } from '../../solver/index';
+import { CUT_DISTANCE_LABEL, type CutResult } from '../../solver/index';
+import { labelText } from '../notation/labelPieces';
+import { SvgLabel } from '../notation/SvgLabel';
 import {
   curveRuns,
+  cutAxisSymbol,
   cutAxisTitle,
   cutPanels,
   panelExtent,
@@ -21,17 +24,17 @@ const STRIP = 20;
 const PANEL = 92;
 const GAP = 20;
 
-/** Panel captions as the app shows them (the figure typesets the axis titles instead). */
+/** Panel captions as the app shows them, plain text (the figure typesets the axis titles). */
 function panelName(panel: CutChartPanel): string {
   switch (panel.key) {
     case 'energy':
       return 'energy E';
     case 'slope':
-      return panel.title.replace('dtheta', 'd\u03b8');
+      return labelText(panel.title);
     case 'groups':
       return 'order parameters |o|';
     case 'canting':
-      return 'canting angle \u03b8c (degrees)';
+      return `canting angle ${labelText('theta_c')} (degrees)`;
     default:
       return 'quasiparticle gap';
   }
@@ -224,7 +227,7 @@ export function CutCharts({ cut, width }: { cut: CutResult; width: number }) {
             y={plotsBottom + MARGIN.bottom - 6}
             textAnchor="middle"
           >
-            {cutAxisTitle(cut)}
+            <SvgLabel label={cutAxisTitle(cut)} fontSize={12} />
           </text>
           <rect
             className="cut-hover-target"
@@ -263,9 +266,14 @@ export function CutCharts({ cut, width }: { cut: CutResult; width: number }) {
         </ul>
       )}
       <CutReadout cut={cut} sample={hover} />
-      <p className="cut-axis-note">
-        Horizontal axis: <AxisName label={cutAxisTitle(cut)} />
-        {cut.path.kind === 'line' ? ' (0 at the start, 1 at the end of the line)' : ''}.
+      <p className="cut-axis-note" data-testid="cut-axis-note" data-label={cut.axis.label}>
+        Horizontal axis: <AxisName label={cutAxisTitle(cut)} explain />
+        {cut.axis.label === CUT_DISTANCE_LABEL
+          ? ', from the start of the line, in the units of the Map’s axes (both change along it)'
+          : cut.path.kind === 'line'
+            ? ', the one axis that changes along the line'
+            : ''}
+        .
       </p>
     </div>
   );
@@ -286,7 +294,7 @@ function CutReadout({ cut, sample }: { cut: CutResult; sample: number | null }) 
     <dl className="cut-readout" data-testid="cut-readout" data-sample={sample}>
       <div>
         <dt>
-          <AxisName label={cutAxisTitle(cut)} />
+          <AxisName label={cutAxisSymbol(cut)} />
         </dt>
         <dd>{fmt(cut.s[sample]!)}</dd>
       </div>

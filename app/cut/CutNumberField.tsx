@@ -1,4 +1,5 @@
 import { useId } from 'react';
+import { AxisName } from '../readout/AxisName';
 import { NumberField } from '../setup/NumberField';
 import type { EntryRule } from '../setup/numberEntry';
 
@@ -14,7 +15,8 @@ export interface CutNumberFieldProps {
 /**
  * A number typed for the Cut: the Setup's numeric entry (an accepted number is committed on each
  * keystroke, anything else flagged beside the field and not committed, so the last Cut stays;
- * Escape puts back the stored value), with its label above it.
+ * Escape puts back the stored value), with its label above it, typeset as the app's other
+ * symbols (u_perp as u⊥; a plain word stays as it is).
  */
 export function CutNumberField({ label, value, rule, onCommit, testId }: CutNumberFieldProps) {
   const id = useId();
@@ -23,7 +25,11 @@ export function CutNumberField({ label, value, rule, onCommit, testId }: CutNumb
       <NumberField
         id={id}
         name={label}
-        label={<span className="cut-field-label">{label}</span>}
+        label={
+          <span className="cut-field-label">
+            <AxisName label={label} />
+          </span>
+        }
         value={value}
         rule={rule}
         onCommit={onCommit}

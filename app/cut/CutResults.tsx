@@ -1,4 +1,5 @@
-import { cutToCsv, cutToJson, parseMapInput } from '../../solver/index';
+import { CUT_DISTANCE_LABEL, cutToCsv, cutToJson, parseMapInput } from '../../solver/index';
+import { cutAxisSymbol } from '../figure/cutSeries';
 import { downloadText } from '../download';
 import { cutFigureSvg } from '../figure/cutFigure';
 import { AxisName } from '../readout/AxisName';
@@ -29,17 +30,12 @@ export function Transitions() {
             {tr.between[0]} → {tr.between[1]}
           </strong>{' '}
           {tr.order === 'first' ? 'first order' : 'continuous'} at{' '}
-          {result.path.kind === 'line' ? (
+          <AxisName label={cutAxisSymbol(result)} /> = {tr.s.toPrecision(10)}
+          {result.axis.unit === 'deg' ? '°' : ''}
+          {result.path.kind === 'line' && result.axis.label === CUT_DISTANCE_LABEL && (
             <>
-              t = {tr.t.toFixed(9)}: <AxisName label={plane?.x.label ?? 'x'} /> ={' '}
-              {tr.x.toPrecision(10)}, <AxisName label={plane?.y.label ?? 'y'} /> ={' '}
-              {tr.y.toPrecision(10)}
-            </>
-          ) : (
-            <>
-              {result.axis.label === 'tilt' ? 'θ' : <AxisName label={result.axis.label} />} ={' '}
-              {tr.s.toPrecision(10)}
-              {result.axis.label === 'tilt' ? '°' : ''}
+              : <AxisName label={plane?.x.label ?? 'x'} /> = {tr.x.toPrecision(10)},{' '}
+              <AxisName label={plane?.y.label ?? 'y'} /> = {tr.y.toPrecision(10)}
             </>
           )}
         </li>

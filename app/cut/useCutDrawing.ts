@@ -1,4 +1,6 @@
 import { useCallback, useMemo, useRef, type PointerEvent } from 'react';
+import { pointAt } from '../map/planeExtent';
+import { shownExtent } from '../map/shownExtent';
 import { useFourfold } from '../store/index';
 
 /** A drag shorter than this (CSS pixels) is a click, not a cut. */
@@ -8,16 +10,14 @@ type Pair = [number, number];
 
 /** Plane coordinates of a pointer over the plot canvas, clamped to the plot, 6 digits. */
 function planePoint(event: PointerEvent<HTMLCanvasElement>): Pair | null {
-  const plane = useFourfold.getState().map.grid?.input.plane;
-  if (!plane) return null;
+  const extent = shownExtent(useFourfold.getState());
+  if (extent === null) return null;
   const box = event.currentTarget.getBoundingClientRect();
   const fx = Math.min(1, Math.max(0, (event.clientX - box.left) / box.width));
   const fy = Math.min(1, Math.max(0, (event.clientY - box.top) / box.height));
   const round = (v: number): number => Number(v.toPrecision(6));
-  return [
-    round(plane.x.from + fx * (plane.x.to - plane.x.from)),
-    round(plane.y.to + fy * (plane.y.from - plane.y.to)),
-  ];
+  const [x, y] = pointAt(extent, { fx, fy });
+  return [round(x), round(y)];
 }
 
 /**

@@ -1,5 +1,10 @@
 import { lab } from 'd3';
-import { ORDER_GROUPS, ORDER_TOLERANCE, type CutResult } from '../../solver/index';
+import {
+  CUT_DISTANCE_LABEL,
+  ORDER_GROUPS,
+  ORDER_TOLERANCE,
+  type CutResult,
+} from '../../solver/index';
 import { TOKEN_COLOURS, UNKNOWN_TOKEN_COLOUR } from './palette';
 
 /**
@@ -18,7 +23,7 @@ export interface CutSeries {
 
 export interface CutChartPanel {
   readonly key: 'energy' | 'slope' | 'groups' | 'canting' | 'gap';
-  /** Vertical axis title, typeset ('E', 'dE/dE_Z', 'theta (deg)'). */
+  /** Vertical axis title, typeset ('E', 'dE/dE_Z', 'theta_c (deg)'). */
   readonly title: string;
   readonly series: readonly CutSeries[];
   /** Order-parameter groups that stay zero along the whole cut (named under the panel). */
@@ -37,16 +42,26 @@ const GROUP_DASHES = ['', '4 2', '1 1.5', '6 2 1 2', '2 2', '8 2', '1 3', '4 1 1
 
 const INK = '#1a1a1a';
 
-/** Title of the horizontal axis: t, the swept quantity, or the tilt angle in degrees. */
+/**
+ * Title of the horizontal axis, in the notation of `labelPieces`: the swept quantity ('u_perp',
+ * 'E_Z'), the tilt angle theta in degrees, or the distance s along a slanted line.
+ */
 export function cutAxisTitle(cut: Pick<CutResult, 'axis'>): string {
-  if (cut.axis.label === 'tilt') return 'theta (deg)';
-  return cut.axis.label === 't' ? 't' : cut.axis.label;
+  if (cut.axis.label === 'theta') return 'theta (deg)';
+  if (cut.axis.label === CUT_DISTANCE_LABEL) return 's, distance along the cut';
+  return cut.axis.label;
+}
+
+/** The horizontal quantity's symbol alone ('u_perp', 'theta', 's' for the distance). */
+export function cutAxisSymbol(cut: Pick<CutResult, 'axis'>): string {
+  return cut.axis.label === CUT_DISTANCE_LABEL ? 's' : cut.axis.label;
 }
 
 /** The quantity dE is taken against, for the slope panel's title. */
 function slopeTitle(cut: Pick<CutResult, 'axis'>): string {
-  if (cut.axis.label === 'tilt') return 'dE/dtheta (per deg)';
-  return `dE/d${cut.axis.label === 't' ? 't' : cut.axis.label}`;
+  if (cut.axis.label === 'theta') return 'dE/d\u03b8 (per deg)';
+  if (cut.axis.label === CUT_DISTANCE_LABEL) return 'dE/ds';
+  return `dE/d${cut.axis.label}`;
 }
 
 /**

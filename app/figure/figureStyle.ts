@@ -1,4 +1,5 @@
 import { tickFormat, ticks } from 'd3';
+import { labelPieces, type LabelLevel } from '../notation/labelPieces';
 import { xmlText } from './xmlText';
 
 /**
@@ -244,40 +245,6 @@ export function axisSvg(
   return parts.join('');
 }
 
-/** Greek letters and symbols written by name in labels ('Delta_V', 'theta', 'u_perp'). */
-const NAMED_SYMBOLS: Readonly<Record<string, string>> = {
-  alpha: '\u03b1',
-  beta: '\u03b2',
-  gamma: '\u03b3',
-  delta: '\u03b4',
-  epsilon: '\u03b5',
-  eta: '\u03b7',
-  theta: '\u03b8',
-  kappa: '\u03ba',
-  lambda: '\u03bb',
-  mu: '\u03bc',
-  nu: '\u03bd',
-  pi: '\u03c0',
-  rho: '\u03c1',
-  sigma: '\u03c3',
-  tau: '\u03c4',
-  phi: '\u03c6',
-  chi: '\u03c7',
-  psi: '\u03c8',
-  omega: '\u03c9',
-  Gamma: '\u0393',
-  Delta: '\u0394',
-  Theta: '\u0398',
-  Lambda: '\u039b',
-  Pi: '\u03a0',
-  Sigma: '\u03a3',
-  Phi: '\u03a6',
-  Psi: '\u03a8',
-  Omega: '\u03a9',
-  perp: '\u22a5',
-  par: '\u2225',
-};
-
 /** A typeset label: SVG text content (tspans), its plain characters and an estimated width. */
 export interface TypesetLabel {
   /** Content for an SVG <text> element: escaped text and <tspan>s. */
@@ -288,59 +255,17 @@ export interface TypesetLabel {
   readonly width: number;
 }
 
-type Level = 0 | -1 | 1;
-
-interface Piece {
-  text: string;
-  italic: boolean;
-  level: Level;
-}
-
 /**
- * Typesets a plain-text label as SVG text: `_x` or `_{...}` makes a subscript, `^x` or `^{...}` a
- * superscript; Greek names ('Delta', 'theta') and 'perp' become their symbols; a single Latin
- * letter outside parentheses that carries a sub- or superscript, or is the whole label, is set
- * in italic (a variable), everything else upright.
- * 'u_perp' gives u with subscript ⊥, 'E_Z' E with subscript Z, 'B_tot (T)' B with subscript tot
- * then ' (T)'. Sub- and superscripts shift with `dy` and come back for text that follows; the
- * markup is meant as the whole content of one <text>.
+ * Typesets a plain-text label as SVG text, with the notation of `labelPieces` (the app's panels
+ * read labels the same way): 'u_perp' gives u with subscript ⊥, 'E_Z' E with subscript Z,
+ * 'B_tot (T)' B with subscript tot then ' (T)'. Sub- and superscripts shift with `dy` and come
+ * back for text that follows; the markup is meant as the whole content of one <text>.
  */
 export function typesetLabel(label: string, fontSize: number = FIGURE_FONT.size): TypesetLabel {
-  const pieces: Piece[] = [];
-  let depth = 0;
-  const push = (text: string, italic: boolean, level: Level) => {
-    const last = pieces[pieces.length - 1];
-    if (last && last.italic === italic && last.level === level) last.text += text;
-    else pieces.push({ text, italic, level });
-  };
-  const word = (w: string, level: Level, variable = false) => {
-    const named = NAMED_SYMBOLS[w];
-    if (named !== undefined) push(named, false, level);
-    else push(w, variable && depth === 0 && /^[A-Za-z]$/.test(w), level);
-  };
-  const tokens = label.match(/[A-Za-z]+|[0-9.]+|[_^]\{[^}]*\}|[_^][A-Za-z0-9]+|./gu) ?? [];
-  for (let k = 0; k < tokens.length; k++) {
-    const t = tokens[k]!;
-    if (t.startsWith('_') || t.startsWith('^')) {
-      const level: Level = t[0] === '_' ? -1 : 1;
-      const body = t[1] === '{' ? t.slice(2, -1) : t.slice(1);
-      for (const part of body.match(/[A-Za-z]+|[^A-Za-z]+/g) ?? []) {
-        if (/^[A-Za-z]+$/.test(part)) word(part, level);
-        else push(part, false, level);
-      }
-      continue;
-    }
-    if (t === '(') depth++;
-    if (t === ')') depth = Math.max(0, depth - 1);
-    // A lone letter is a variable when scripted or when it is the whole label ('x'); 'Sample A'
-    // and the unit in '9 T' stay upright.
-    const scripted = /^[_^]/.test(tokens[k + 1] ?? '');
-    if (/^[A-Za-z]+$/.test(t)) word(t, 0, scripted || tokens.length === 1);
-    else push(t, false, 0);
-  }
-  const shift = (level: Level) => (level === -1 ? 0.25 : level === 1 ? -0.38 : 0) * fontSize;
+  const pieces = labelPieces(label);
+  const shift = (level: LabelLevel) => (level === -1 ? 0.25 : level === 1 ? -0.38 : 0) * fontSize;
   let markup = '';
-  let current: Level = 0;
+  let current: LabelLevel = 0;
   let width = 0;
   for (const piece of pieces) {
     const attrs: string[] = [];

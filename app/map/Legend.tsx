@@ -1,4 +1,5 @@
 import { memo, useEffect, useMemo, useState } from 'react';
+import { PhaseLabel } from '../notation/PhaseLabel';
 import { useFourfold } from '../store/index';
 import { formatShare, legendEntries } from './legendEntries';
 import { Swatch } from './Swatch';
@@ -73,7 +74,9 @@ const LegendRow = memo(function LegendRow({
   return (
     <li className="legend-entry" data-testid="legend-entry" data-label={label}>
       <Swatch colours={colours.split(' ')} />
-      <span className="legend-label">{label}</span>
+      <span className="legend-label">
+        <PhaseLabel label={label} />
+      </span>
       <span className="legend-share">{share}</span>
       <span className="legend-meaning">{meaning}</span>
     </li>

@@ -7,8 +7,9 @@ import { PinLayer } from '../probe/PinLayer';
 import { useFourfold } from '../store/index';
 import { ConsistencyLayer } from '../observations/ConsistencyLayer';
 import { TiltTrajectoryLayer } from '../setup/TiltTrajectoryLayer';
-import { axisTitle } from './axisTitle';
+import { SvgLabel } from '../notation/SvgLabel';
 import { PLOT_MARGIN } from './plotFrame';
+import { useShownExtent } from './shownExtent';
 
 type Scale = ScaleLinear<number, number>;
 
@@ -34,17 +35,23 @@ function planeScales(plane: { x: AxisRange; y: AxisRange }, side: number): { x: 
  */
 export function Overlay({ side }: OverlayProps) {
   const plane = useFourfold((s) => s.map.grid?.input.plane ?? null);
-  // Every job brings a new plane object (a slider drag: dozens a second) for the same axes: the
-  // scales, and so the axes, the boundaries' path function and every layer, change only when
-  // the axes' ranges do.
-  const { from: x0, to: x1 } = plane?.x ?? {};
-  const { from: y0, to: y1 } = plane?.y ?? {};
+  // The scales follow the extent shown (the setup's, or a navigation's preview, while its map
+  // is computed): everything drawn in axis coordinates lands where it belongs in it. They
+  // change only when an end of the extent does (a slider drag brings a new plane object on
+  // every job, for the same axes).
+  const extent = useShownExtent();
   const scales = useMemo(
     () =>
-      x0 === undefined || x1 === undefined || y0 === undefined || y1 === undefined
+      extent === null
         ? null
-        : planeScales({ x: { from: x0, to: x1 }, y: { from: y0, to: y1 } }, side),
-    [x0, x1, y0, y1, side],
+        : planeScales(
+            {
+              x: { from: extent.x[0], to: extent.x[1] },
+              y: { from: extent.y[0], to: extent.y[1] },
+            },
+            side,
+          ),
+    [extent, side],
   );
   // Every axis of a physical setup is an energy in meV (couplings at the sample's field, E_Z,
   // Delta_V).
@@ -68,6 +75,7 @@ export function Overlay({ side }: OverlayProps) {
           <Crosshair x={scales.x} y={scales.y} side={side} />
           <CutLayer x={scales.x} y={scales.y} />
           <PinLayer x={scales.x} y={scales.y} />
+          <ZoomBox side={side} />
         </g>
         <rect className="map-frame" width={side} height={side} />
         <Axes x={scales.x} y={scales.y} side={side} />
@@ -112,7 +120,7 @@ function Axes({ x, y, side }: { x: Scale; y: Scale; side: number }) {
   );
 }
 
-/** An axis title as SVG text: the symbol (italic when a single Latin letter), its subscript. */
+/** An axis title as SVG text in the app's notation, then the unit. */
 function AxisTitleText({
   label,
   unit,
@@ -125,17 +133,14 @@ function AxisTitleText({
   fallback: string;
   transform: string;
 }) {
-  const { symbol, subscript } = axisTitle(label, fallback);
-  const italic = /^[A-Za-z]$/.test(symbol);
   return (
     <text className="map-axis-title" transform={transform} textAnchor="middle">
-      <tspan fontStyle={italic ? 'italic' : undefined}>{symbol}</tspan>
-      {subscript !== '' && (
-        <tspan className="map-axis-subscript" dy="0.32em" fontSize="0.72em">
-          {subscript}
-        </tspan>
-      )}
-      {unit !== null && <tspan dy={subscript !== '' ? '-0.32em' : undefined}> ({unit})</tspan>}
+      {/* 15 px: the title's font size in map.css. */}
+      <SvgLabel
+        label={label || fallback}
+        fontSize={15}
+        suffix={unit === null ? undefined : ` (${unit})`}
+      />
     </text>
   );
 }
@@ -166,6 +171,22 @@ const Boundaries = memo(function Boundaries({ x, y }: { x: Scale; y: Scale }) {
     </g>
   );
 });
+
+/** The box being dragged to zoom to (plot fractions), dashed. */
+function ZoomBox({ side }: { side: number }) {
+  const box = useFourfold((s) => s.view.zoomBox);
+  if (box === null) return null;
+  const x = Math.min(box.from.fx, box.to.fx) * side;
+  const y = Math.min(box.from.fy, box.to.fy) * side;
+  const w = Math.abs(box.to.fx - box.from.fx) * side;
+  const h = Math.abs(box.to.fy - box.from.fy) * side;
+  return (
+    <g className="map-zoom-box" data-testid="map-zoom-box">
+      <rect className="map-zoom-box-halo" x={x} y={y} width={w} height={h} />
+      <rect className="map-zoom-box-line" x={x} y={y} width={w} height={h} />
+    </g>
+  );
+}
 
 /** Thin lines through the centre of the hovered pixel, and the pixel's outline. */
 function Crosshair({ x, y, side }: { x: Scale; y: Scale; side: number }) {

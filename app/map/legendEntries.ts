@@ -1,5 +1,5 @@
-import { TOKEN_MEANINGS } from '../../solver/index';
 import { labelColours } from '../figure/palette';
+import { tokenExplanation } from '../notation/explanations';
 
 export interface LegendEntry {
   readonly label: string;
@@ -9,11 +9,6 @@ export interface LegendEntry {
   readonly meaning: string;
   /** Fraction of all grid pixels (pixels not computed yet count in the total). */
   readonly share: number;
-}
-
-/** The solver names a state with no broken symmetry 'sym'; it has no TOKEN_MEANINGS entry. */
-function tokenMeaning(token: string): string {
-  return token === 'sym' ? 'no broken symmetry' : (TOKEN_MEANINGS[token] ?? token);
 }
 
 /**
@@ -48,7 +43,7 @@ export function legendEntries(labels: readonly string[]): LegendEntry[] {
     .map((entry) => ({
       label: entry.label,
       colours: labelColours(entry.label),
-      meaning: entry.label.split('+').map(tokenMeaning).join('; '),
+      meaning: entry.label.split('+').map(tokenExplanation).join('; '),
       share: total > 0 ? entry.pixels / total : 0,
     }));
 }

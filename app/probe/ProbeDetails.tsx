@@ -1,11 +1,14 @@
 import { useMemo } from 'react';
-import { TOKEN_MEANINGS, type ProbeReport } from '../../solver/index';
+import type { ProbeReport } from '../../solver/index';
 import { downloadText } from '../download';
 import { formatFixed } from '../format';
+import { tokenExplanation } from '../notation/explanations';
+import { PhaseLabel } from '../notation/PhaseLabel';
 import { useFourfold } from '../store/index';
 import type { Pin } from '../store/probeSlice';
 import { LevelDiagram } from './LevelDiagram';
 import { latticeSvg } from './latticeSvg';
+import { currentComparison } from './PinComparison';
 import { probeDocument } from './probeDocument';
 import { DispersionPanel } from './DispersionPanel';
 import { ModeList } from './ModeList';
@@ -17,10 +20,7 @@ export function ProbeDetails({ pin, report }: { pin: Pin; report: ProbeReport })
   const state = report.state;
   const unit = useFourfold((s) => (s.setup.physical ? ' (meV)' : ''));
   const lattice = useMemo(() => latticeSvg(report, `Pin ${pin.id}`), [report, pin.id]);
-  const meaning = state.phase
-    .split('+')
-    .map((t) => TOKEN_MEANINGS[t] ?? (t === 'sym' ? 'no broken symmetry' : t))
-    .join('; ');
+  const meaning = state.phase.split('+').map(tokenExplanation).join('; ');
   return (
     <div
       className="probe-details"
@@ -33,7 +33,9 @@ export function ProbeDetails({ pin, report }: { pin: Pin; report: ProbeReport })
       <section className="probe-card probe-state">
         <h3>Ground state</h3>
         <p className="probe-label">
-          <strong data-testid="probe-phase">{state.phase}</strong>
+          <strong data-testid="probe-phase">
+            <PhaseLabel label={state.phase} />
+          </strong>
           <span>{meaning}</span>
         </p>
         <dl className="probe-figures">
@@ -113,7 +115,7 @@ export function ProbeDetails({ pin, report }: { pin: Pin; report: ProbeReport })
             {report.competitors.map((c, k) => (
               <tr key={k} data-phase={c.phase} data-above={c.above} data-unstable={c.unstable}>
                 <td>
-                  {c.phase}
+                  <PhaseLabel label={c.phase} whole />
                   {c.note !== '' && <span className="probe-family"> ({c.note})</span>}
                   {c.count > 1 && <span className="probe-family"> degenerate family</span>}
                 </td>
@@ -146,7 +148,7 @@ export function ProbeDetails({ pin, report }: { pin: Pin; report: ProbeReport })
           onClick={() =>
             downloadText(
               `fourfold-probe-${pin.id}.json`,
-              probeDocument(report, { x: pin.x, y: pin.y }),
+              probeDocument(report, { x: pin.x, y: pin.y }, currentComparison()),
               'application/json',
             )
           }

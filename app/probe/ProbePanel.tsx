@@ -1,9 +1,10 @@
-import { TOKEN_MEANINGS } from '../../solver/index';
 import { formatFixed } from '../format';
+import { phaseExplanation } from '../notation/explanations';
 import { AxisName } from '../readout/AxisName';
 import { useFourfold } from '../store/index';
 import type { Pin } from '../store/probeSlice';
 import './probe.css';
+import { PinComparison } from './PinComparison';
 import { PinEntry } from './PinEntry';
 import { ProbeDetails } from './ProbeDetails';
 
@@ -26,6 +27,7 @@ export function ProbePanel() {
       ) : (
         <PinList pins={pins} selected={selected} />
       )}
+      <PinComparison />
       {pin !== undefined &&
         (entry === undefined || entry.status === 'pending' ? (
           <p className="placeholder-note" data-testid="probe-pending">
@@ -51,10 +53,7 @@ function PinList({ pins, selected }: { pins: readonly Pin[]; selected: number | 
       {pins.map((pin) => {
         const entry = results[pin.id];
         const label = entry?.status === 'ready' ? entry.report.state.phase : '…';
-        const meaning = label
-          .split('+')
-          .map((t) => TOKEN_MEANINGS[t] ?? t)
-          .join('; ');
+        const meaning = entry?.status === 'ready' ? phaseExplanation(label) : undefined;
         return (
           <li
             key={pin.id}

@@ -106,6 +106,22 @@ function siteSvg(s: LatticeSite, nf: number, px: Px): string {
   return parts.join('');
 }
 
+type KeyMark = 'A' | 'B' | 'cell';
+
+/** Width taken by a key line's mark before its text. */
+const KEY_MARK_WIDTH = 16;
+
+/** One line of the key at baseline `y`, with its mark (a site's colour, the cell's dash). */
+function keyLine(line: string | { text: string; mark: KeyMark }, y: number): string {
+  if (typeof line === 'string') return `<text x="${MARGIN}" y="${n(y)}">${xmlText(line)}</text>`;
+  const middle = y - 4;
+  const mark =
+    line.mark === 'cell'
+      ? `<path d="M${MARGIN},${n(middle)}h12" stroke="${LATTICE_COLOURS.cell}" stroke-width="1" stroke-dasharray="4 3" data-key="cell"/>`
+      : `<circle cx="${MARGIN + 5}" cy="${n(middle)}" r="4.5" fill="${line.mark === 'A' ? LATTICE_COLOURS.siteA : LATTICE_COLOURS.siteB}" data-key="${line.mark}"/>`;
+  return `${mark}<text x="${MARGIN + KEY_MARK_WIDTH}" y="${n(y)}">${xmlText(line.text)}</text>`;
+}
+
 /**
  * The Probe's lattice picture as a standalone SVG 1.1 document: sites sized by their charge,
  * bonds drawn by their Kekule modulation (two strokes, one per spin along the field, where spin
@@ -127,10 +143,16 @@ export function latticeSvg(report: ProbeReport, title?: string): string {
   const { a, b } = report.sublattices;
   const vec = (v: readonly number[]) => `(${v.map((x) => fixed(x)).join(', ')})`;
   const strengths = report.bonds.strengths.map((s) => fixed(s)).join(', ');
-  const legend = [
+  // Lines of the key, some with a mark drawn before them: a site of sublattice A or B in its
+  // colour, or a piece of the dashed cell outline.
+  const legend: (string | { text: string; mark: KeyMark })[] = [
     `${title ? `${title}: ` : ''}${report.state.phase}`,
-    `A (K): charge ${fixed(a.charge)}, spin ⟨σ⟩ ${vec(a.spin)}`,
-    `B (K'): charge ${fixed(b.charge)}, spin ⟨σ⟩ ${vec(b.spin)}`,
+    { text: `A (K): charge ${fixed(a.charge)}, spin ⟨σ⟩ ${vec(a.spin)}`, mark: 'A' },
+    { text: `B (K'): charge ${fixed(b.charge)}, spin ⟨σ⟩ ${vec(b.spin)}`, mark: 'B' },
+    {
+      text: 'Dashed: one cell of the Kekule order (three graphene cells, six sites)',
+      mark: 'cell',
+    },
     ...(pic.maxModulation > 1e-9
       ? [
           `Bond classes 0, 1, 2: ${strengths}` +
@@ -163,10 +185,7 @@ export function latticeSvg(report: ProbeReport, title?: string): string {
     `<path d="${cellPath}" fill="none" stroke="${LATTICE_COLOURS.cell}" stroke-width="1" stroke-dasharray="4 3"/>`,
     `<g class="sites">${pic.sites.map((s) => siteSvg(s, pic.nf, px)).join('')}</g>`,
     `<g font-family="Helvetica, Arial, sans-serif" font-size="11" fill="#24272b">${legend
-      .map(
-        (line, k) =>
-          `<text x="${MARGIN}" y="${n(plotHeight + 4 + (k + 0.8) * LEGEND_LINE)}">${xmlText(line)}</text>`,
-      )
+      .map((line, k) => keyLine(line, plotHeight + 4 + (k + 0.8) * LEGEND_LINE))
       .join('')}</g>`,
   ];
   return (

@@ -6,12 +6,14 @@ import {
   isSymmetry,
   modelAtPoint,
   PIXEL_SOLVED,
-  TOKEN_MEANINGS,
   groupMagnitudes,
   orderAngles,
 } from '../../solver/index';
 import { formatDegrees, formatFixed } from '../format';
 import { useFourfold } from '../store/index';
+import { channelExplanation, groupExplanation, tokenExplanation } from '../notation/explanations';
+import { PhaseLabel } from '../notation/PhaseLabel';
+import { Term } from '../notation/Term';
 import { AxisName } from './AxisName';
 import { ObservationsHere } from '../observations/ObservationsHere';
 
@@ -57,7 +59,7 @@ export function Readout() {
       <dl className="readout-position">
         <div>
           <dt>
-            <AxisName label={ax.label} />
+            <AxisName label={ax.label} explain />
           </dt>
           <dd data-testid="readout-x" data-value={grid.x[hover.i]}>
             {formatFixed(grid.x[hover.i]!, 4)}
@@ -65,7 +67,7 @@ export function Readout() {
         </div>
         <div>
           <dt>
-            <AxisName label={ay.label} />
+            <AxisName label={ay.label} explain />
           </dt>
           <dd data-testid="readout-y" data-value={grid.y[hover.j]}>
             {formatFixed(grid.y[hover.j]!, 4)}
@@ -73,12 +75,11 @@ export function Readout() {
         </div>
       </dl>
       <p className="readout-phase">
-        <strong data-testid="readout-phase">{label || '…'}</strong>
+        <strong data-testid="readout-phase">
+          <PhaseLabel label={label} />
+        </strong>
         <span className="readout-meaning">
-          {label
-            .split('+')
-            .map((t) => TOKEN_MEANINGS[t] ?? (t === 'sym' ? 'no broken symmetry' : t))
-            .join('; ')}
+          {label === '' ? '' : label.split('+').map(tokenExplanation).join('; ')}
         </span>
       </p>
       <ObservationsHere x={grid.x[hover.i]!} y={grid.y[hover.j]!} />
@@ -114,9 +115,11 @@ export function Readout() {
             </div>
             {neelInPlane > ORDER_TOLERANCE && (
               <div>
-                <dt>Canting angle θ from the field</dt>
+                <dt>
+                  Canting angle <AxisName label="theta_c" explain /> from the field
+                </dt>
                 <dd data-testid="readout-canting">
-                  {formatFixed(angles.canting * DEGREES, 2)}° (cos θ ={' '}
+                  {formatFixed(angles.canting * DEGREES, 2)}° (cos <AxisName label="theta_c" /> ={' '}
                   {formatFixed(Math.cos(angles.canting), 4)})
                 </dd>
               </div>
@@ -147,26 +150,25 @@ export function Readout() {
                 return (
                   <tr key={g.key} className={present ? 'present' : undefined}>
                     <th scope="row">
-                      {g.title} <span className="token">{g.token}</span>
+                      <Term explain={groupExplanation(g.key)}>{g.title}</Term>{' '}
+                      <span className="token">{g.token}</span>
                     </th>
                     <td data-testid={`readout-group-${g.key}`}>{formatFixed(magnitudes[k]!, 4)}</td>
-                    <td className="components">
-                      {g.channels
-                        .map((ch) => `${ch} ${formatFixed(order[CHANNELS.indexOf(ch) + 1]!, 4)}`)
-                        .join(', ')}
-                    </td>
                   </tr>
                 );
               })}
             </tbody>
           </table>
-          <ul className="raw-order" aria-label="All 15 expectation values">
-            {CHANNELS.map((ch, k) => (
-              <li key={ch} data-testid={`readout-order-${ch}`} data-value={order[k + 1]}>
-                {ch} {formatFixed(order[k + 1]!, 6)}
-              </li>
-            ))}
-          </ul>
+          <details className="raw-order-details">
+            <summary>All 15 expectation values</summary>
+            <ul className="raw-order" aria-label="All 15 expectation values">
+              {CHANNELS.map((ch, k) => (
+                <li key={ch} data-testid={`readout-order-${ch}`} data-value={order[k + 1]}>
+                  <Term explain={channelExplanation(ch)}>{ch}</Term> {formatFixed(order[k + 1]!, 6)}
+                </li>
+              ))}
+            </ul>
+          </details>
           <p className="footnote">
             * The quasiparticle gap is a mean-field upper estimate; transport gaps are smaller.
           </p>

@@ -12,6 +12,7 @@ export function NoticeLine() {
       role={notice.kind === 'error' ? 'alert' : 'status'}
       data-testid="notice"
       data-kind={notice.kind}
+      data-fit-ignore
     >
       <span className="notice-text">{notice.text}</span>
       <button

@@ -1,5 +1,6 @@
 import type { ChangeEvent } from 'react';
 import { ModelError, QUOTED_PATH_LENGTH, errorLine, quoteInput } from '../../solver/index';
+import { nameNextStep } from '../history/historyDriver';
 import { useFourfold } from '../store/index';
 import { DEMO_SETUP } from './demo';
 import {
@@ -31,6 +32,7 @@ async function loadScenarioFile(file: File): Promise<void> {
   }
   try {
     const loaded = readScenario(scenarioJson(text, name), name);
+    nameNextStep({ label: `Loaded ${name}`, kind: 'load' });
     replaceSetup(loaded.setup);
     if (loaded.pins !== null) replacePins(loaded.pins);
     setNotice({
@@ -101,6 +103,7 @@ export function ScenarioBar() {
         data-testid="scenario-demo"
         onClick={() => {
           const { replaceSetup, setNotice } = useFourfold.getState();
+          nameNextStep({ label: 'Back to the demo', kind: 'demo' });
           replaceSetup(DEMO_SETUP);
           setNotice({
             kind: 'info',

@@ -1,5 +1,6 @@
 import { useEffect } from 'react';
 import { ModelError, errorLine } from '../../solver/index';
+import { nameNextStep } from '../history/historyDriver';
 import { useFourfold } from '../store/index';
 import type { Pin } from '../store/probeSlice';
 import type { ViewSlice } from '../store/viewSlice';
@@ -156,6 +157,7 @@ export function useScenarioSync(): void {
       if (link === null) return true;
       // A reload shows the same setup in the hash and the autosave: keep it (and its Map).
       if (!sameScenario(link.setup, store.getState().setup)) {
+        nameNextStep({ label: 'Setup from the link', kind: 'link' });
         store.getState().replaceSetup(link.setup);
       }
       // Pins of the link (a reload shows the autosaved ones again: keep those and their Probes).

@@ -1,4 +1,6 @@
 import { CHANNELS } from '../../solver/index';
+import { nameNextStep } from '../history/historyDriver';
+import type { StepName } from '../history/setupHistory';
 import { derivedSetup } from '../scenario/physical';
 import { isListed } from '../scenario/scenario';
 import { checkSetup } from '../scenario/setupCheck';
@@ -30,9 +32,10 @@ function keepListed(before: Setup, next: Setup): Setup {
  * Writes a change to the store only if the whole resulting setup can be mapped (checkSetup);
  * otherwise changes nothing, so the last valid Map stays. Derived values (E_Z from the field in
  * physical units, channels from interaction ranges) are brought in step first. Returns the refusal (one line that
- * names the field) or null. A functional patch sees the setup as it is at commit time.
+ * names the field) or null. A functional patch sees the setup as it is at commit time. The
+ * change is a step of the undo history, named `step` when given (else by what changed).
  */
-export function commitSetup(patch: SetupPatch): string | null {
+export function commitSetup(patch: SetupPatch, step?: StepName): string | null {
   const { setup, replaceSetup } = useFourfold.getState();
   const change = typeof patch === 'function' ? patch(setup) : patch;
   const keys = Object.keys(change) as (keyof Setup)[];
@@ -41,6 +44,7 @@ export function commitSetup(patch: SetupPatch): string | null {
   const next = keepListed(setup, derivedSetup({ ...setup, ...change }));
   const problem = checkSetup(next);
   if (problem !== null) return problem;
+  if (step !== undefined) nameNextStep(step);
   replaceSetup(next);
   return null;
 }

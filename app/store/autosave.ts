@@ -62,6 +62,9 @@ function fromVersion1(state: Record<string, unknown>): Record<string, unknown> {
  */
 export function autosaveStorage(): PersistStorage<unknown> {
   let last: string | null = null;
+  // The parts last written: the persisted parts are made once per change of what they save
+  // (PERSISTED in ./index.ts), so the same objects mean nothing to write, not even to serialise.
+  let lastParts: Record<string, unknown> | null = null;
   return {
     getItem: (name): StorageValue<unknown> | null => {
       let text: string | null;
@@ -74,6 +77,7 @@ export function autosaveStorage(): PersistStorage<unknown> {
       // What the storage holds now is what was read (or, once kept aside, nothing), whatever
       // was written last.
       last = null;
+      lastParts = null;
       if (text === null) return null;
       let json: unknown;
       try {
@@ -103,6 +107,17 @@ export function autosaveStorage(): PersistStorage<unknown> {
       return { state: json.state, version };
     },
     setItem: (name, value) => {
+      const parts = isPlainObject(value.state) ? value.state : null;
+      if (
+        parts !== null &&
+        lastParts !== null &&
+        last !== null &&
+        Object.keys(parts).length === Object.keys(lastParts).length &&
+        Object.keys(parts).every((key) => parts[key] === lastParts![key])
+      ) {
+        return;
+      }
+      lastParts = parts;
       const text = JSON.stringify(value);
       if (text === last) return;
       last = text;

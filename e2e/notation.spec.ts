@@ -1,0 +1,93 @@
+import { expect, test, type Page } from '@playwright/test';
+import { BUSY_MACHINE_MS, failOnConsoleErrors, mapDone, pointAt } from './demoPage';
+
+failOnConsoleErrors();
+
+async function cutDone(page: Page): Promise<void> {
+  await expect(page.getByTestId('cut-status')).toHaveAttribute('data-status', 'done', {
+    timeout: BUSY_MACHINE_MS,
+  });
+}
+
+/**
+ * Spellings the app's one notation replaces: u⊥, u_z, E_Z, Delta_V are typeset (a subscript
+ * reads as plain letters in innerText: u_z as "uz").
+ */
+const OTHER_SPELLINGS = /u_perp|uPerp|u ⊥|u_z|E_Z|Delta_V|u_\{/;
+
+test('one notation: the Cut runs along the swept coupling, every symbol is typeset alike, and names explain themselves on hover and focus', async ({
+  page,
+}) => {
+  await page.goto('/');
+  await mapDone(page);
+
+  // A line at fixed u_z: its horizontal axis is u⊥ from -1 to 1, not t from 0 to 1.
+  const cut = page.getByTestId('cut');
+  await cut.getByTestId('cut-from-x').fill('-1');
+  await cut.getByTestId('cut-from-y').fill('1.5');
+  await cut.getByTestId('cut-to-x').fill('1');
+  await cut.getByTestId('cut-to-y').fill('1.5');
+  await cutDone(page);
+  const note = cut.getByTestId('cut-axis-note');
+  await expect(note).toHaveAttribute('data-label', 'u_perp');
+  await expect(note).toContainText('u⊥');
+  const ticks = await cut
+    .locator('g.cut-axis[transform] .tick text')
+    .evaluateAll((ts) => ts.map((t) => t.textContent ?? '').filter((s) => s !== ''));
+  const values = ticks.map((t) => Number(t.replace('−', '-')));
+  expect(Math.min(...values)).toBeCloseTo(-1, 9);
+  expect(Math.max(...values)).toBeCloseTo(1, 9);
+  // Both coordinates change: the distance along the line, in coupling units.
+  await cut.getByTestId('cut-to-y').fill('0.5');
+  await cutDone(page);
+  await expect(note).toHaveAttribute('data-label', 'distance');
+
+  // The state under the pointer, the legend, the Map's axes and the Cut use one spelling.
+  await page.getByTestId('map-plot').scrollIntoViewIfNeeded();
+  const [hx, hy] = await pointAt(page, -0.5, 1.5);
+  await page.mouse.move(hx, hy);
+  await expect(page.getByTestId('readout-phase')).toHaveText('CAF');
+  const panels = {
+    readout: page.getByTestId('readout'),
+    legend: page.getByTestId('legend'),
+    map: page.getByTestId('map'),
+    cut: page.getByTestId('cut'),
+    setup: page.locator('.setup-column'),
+  };
+  for (const [id, panel] of Object.entries(panels)) {
+    // The text as typeset, without the choices of a select (plain text by nature, where u_z
+    // and E_Z are the plain-text forms).
+    const text = await panel.evaluate((el) => {
+      const copy = el.cloneNode(true) as Element;
+      copy.querySelectorAll('select').forEach((s) => s.remove());
+      return copy.textContent ?? '';
+    });
+    expect(text, `${id} spells a symbol otherwise`).not.toMatch(OTHER_SPELLINGS);
+  }
+  // The readout's axis names: u with the subscripts ⊥ and z.
+  const subscripts = await page
+    .getByTestId('readout')
+    .locator('.readout-position dt sub')
+    .allTextContents();
+  expect(subscripts).toEqual(['⊥', 'z']);
+
+  // Every order-parameter group of the readout carries its explanation.
+  const groups = page.getByTestId('readout').locator('th .term');
+  expect(await groups.count()).toBe(8);
+  for (const text of await groups.evaluateAll((ts) =>
+    ts.map((t) => t.getAttribute('data-explain')),
+  )) {
+    expect(text!.length).toBeGreaterThan(10);
+  }
+
+  // A phase label of the legend explains itself on hover, another on keyboard focus.
+  const legendF = page.locator('[data-testid="legend-entry"][data-label="F"] .term').first();
+  await legendF.hover();
+  const tip = page.getByTestId('term-tip');
+  await expect(tip).toContainText('ferromagnet');
+  await expect(legendF).toHaveAttribute('aria-describedby', 'term-tip');
+  const legendKD = page.locator('[data-testid="legend-entry"][data-label="KD"] .term').first();
+  await legendKD.focus();
+  await expect(tip).toHaveText((await legendKD.getAttribute('data-explain'))!);
+  await expect(tip).toContainText('Kekule');
+});
