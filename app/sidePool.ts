@@ -42,3 +42,12 @@ export async function runSideTask<T>(task: (api: AsyncMapStages) => Promise<T>):
   const pool = await ready;
   return pool.run(SIDE_JOB, SIDE_PRIORITY, task);
 }
+
+/** Queue priority of a series of Maps: behind every stage of the Map on screen, which stays live. */
+export const SERIES_PRIORITY = 6;
+
+/** Runs one task of a series of Maps on the shared worker pool, behind the Map's own stages. */
+export async function runSeriesTask<T>(task: (api: AsyncMapStages) => Promise<T>): Promise<T> {
+  const pool = await ready;
+  return pool.run(SIDE_JOB, SERIES_PRIORITY, task);
+}

@@ -9,6 +9,7 @@ import type { Setup } from '../scenario/setup';
 import { mapFigureSvg, type FigureTiltPath } from './mapFigure';
 import './figure.css';
 import { setupKey } from '../observations/browserFit';
+import { SeriesOption } from './SeriesOption';
 
 /** PNG resolutions offered, pixels per inch (300 and 600 are common journal minimums). */
 const DPI_CHOICES = [150, 300, 600] as const;
@@ -27,7 +28,7 @@ function figureTiltPath(setup: Setup): FigureTiltPath | undefined {
  * The Figure: exports the Map on screen as a paper-ready SVG (the same function as the CLI's
  * `map --out X.svg`), as a PNG at a chosen resolution, and its data as CSV or JSON (region
  * pixels are solved first). Column width, title and pins (marked when shown) apply to the
- * figures.
+ * figures, and to the series of Maps (`SeriesOption`).
  */
 export function FigureBar() {
   const ready = useFourfold((s) => s.map.phase === 'done' && s.map.grid !== null);
@@ -179,6 +180,7 @@ export function FigureBar() {
           {message}
         </p>
       )}
+      <SeriesOption column={column} title={title.slice(0, MAX_TITLE)} />
     </section>
   );
 }
