@@ -6,7 +6,6 @@ import {
   seriesDocument,
   seriesQuantityLabel,
   seriesQuantityName,
-  type MapInput,
   type MapStages,
   type SeriesQuantity,
 } from '../../solver/index';
