@@ -1,5 +1,5 @@
 import { execFileSync } from 'node:child_process';
-import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
+import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { expect, test, type Download } from '@playwright/test';
@@ -79,6 +79,7 @@ test('a series of two E_Z values downloads the small multiples, drawn as the CLI
   const comparable = (text: string) =>
     text.split('\n').map((line) => line.replace(regionOutline, '$1 d=""'));
   expect(comparable(readFileSync(join(dir, 'series.svg'), 'utf8'))).toEqual(comparable(svg));
+  rmSync(dir, { recursive: true, force: true });
 });
 
 test('a series can be cancelled, and the Map goes on working', async ({ page }) => {
