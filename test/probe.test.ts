@@ -1,6 +1,6 @@
 import { describe, expect, test } from 'vitest';
 import { bondClass, latticePicture } from '../app/probe/latticePicture';
-import { latticeSvg } from '../app/probe/latticeSvg';
+import { LATTICE_COLOURS, latticeSvg } from '../app/probe/latticeSvg';
 import {
   PlaneCouplings,
   couplingsOf,
@@ -282,5 +282,77 @@ describe('the Probe of a plane point', () => {
     expect(keyFill('B')).toBe(siteFill('B'));
     expect(keyFill('A')).not.toBe(keyFill('B'));
     expect(svg).toMatch(/<path [^>]*stroke-dasharray="4 3" data-key="cell"\/><text[^>]*>Dashed: /);
+  });
+
+  test('SBxy: each bond carries the spin across the field Re[(o_xb + i o_yb) w^m], drawn as a keyed arrow on the bond', () => {
+    // An invented point of our own: Hartree 1.2 x Fock for uPerp and 0.7 x Fock for uZ (as the
+    // demo), uPerp = 0.5, uZ = -1, E_Z = 0.6; its ground state is SBxy with o_xx the only
+    // in-plane spin bond component (value found by this solver, not an outside source).
+    const sbxy = probeModel(
+      parseModel({
+        filling: 0,
+        channels: {
+          x0: { fock: 0.5, hartree: 0.6 },
+          y0: { fock: 0.5, hartree: 0.6 },
+          z0: { fock: -1, hartree: -0.7 },
+        },
+        zeeman: 0.6,
+      }),
+    );
+    expect(sbxy.state.phase).toBe('SBxy');
+    const o = sbxy.state.order;
+    const oxx = o['xx']!;
+    expect(Math.abs(oxx)).toBeGreaterThan(1);
+    const pic = latticePicture(sbxy);
+    // No charge bond order, no spin bond order along the field: the bond strokes stay equal.
+    expect(pic.maxModulation).toBe(0);
+    const w = (m: number) => [Math.cos((2 * Math.PI * m) / 3), Math.sin((2 * Math.PI * m) / 3)];
+    const across = (re: number, im: number, m: number) => re * w(m)[0]! - im * w(m)[1]!;
+    for (const bond of pic.bonds) {
+      const m = bond.bondClass;
+      expect(bond.spinAcross[0]).toBeCloseTo(across(o['xx']!, o['yx']!, m), 12);
+      expect(bond.spinAcross[1]).toBeCloseTo(across(o['xy']!, o['yy']!, m), 12);
+    }
+    // With o_xx alone: class 0 carries o_xx along x, classes 1 and 2 carry -o_xx / 2 each.
+    const class0 = pic.bonds.find((bd) => bd.bondClass === 0)!;
+    const class1 = pic.bonds.find((bd) => bd.bondClass === 1)!;
+    expect(class0.spinAcross[0]).toBeCloseTo(oxx, 10);
+    expect(class1.spinAcross[0]).toBeCloseTo(-oxx / 2, 10);
+    expect(pic.maxSpinAcross).toBeCloseTo(Math.abs(oxx), 10);
+
+    const svg = latticeSvg(sbxy);
+    const arrows = [
+      ...svg.matchAll(
+        /<path [^>]*stroke="([^"]+)"[^>]*data-class="(\d)" data-bond-spin="([^"]+)"/g,
+      ),
+    ];
+    expect(arrows.length).toBe(pic.bonds.length);
+    // Distinct from the bond strokes and the site arrows; the key shows the same mark.
+    const colour = arrows[0]![1];
+    expect(arrows.every((a) => a[1] === colour)).toBe(true);
+    expect([
+      LATTICE_COLOURS.bondPlain,
+      LATTICE_COLOURS.arrow,
+      LATTICE_COLOURS.spinUp,
+    ]).not.toContain(colour);
+    expect(svg).toMatch(
+      new RegExp(
+        `<path [^>]*stroke="${colour}"[^>]*data-key="bondSpin"\\/><text[^>]*>Bond arrows: spin across the field \\(in-plane spin bond order\\)`,
+      ),
+    );
+    for (const [, , cls, value] of arrows) {
+      const [sx, sy] = value!.split(',').map(Number);
+      expect(sx).toBeCloseTo(Number(cls) === 0 ? oxx : -oxx / 2, 2);
+      expect(sy).toBeCloseTo(0, 2);
+    }
+    expect(svg).toContain('No charge bond order: all bonds equal in width');
+
+    // KD and CAF have no in-plane spin bond order: no bond arrows, no key line for them.
+    for (const other of [probeModel(standard(-1, 0.5, 0.1)), probeModel(standard(-1, 2, 0.4))]) {
+      expect(latticePicture(other).maxSpinAcross).toBeLessThan(1e-9);
+      const doc = latticeSvg(other);
+      expect(doc).not.toContain('data-bond-spin');
+      expect(doc).not.toContain('data-key="bondSpin"');
+    }
   });
 });

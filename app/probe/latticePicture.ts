@@ -23,6 +23,11 @@ export interface LatticeBond {
   readonly modulation: number;
   /** The same per spin along the field (up, down); they add up to `modulation`. */
   readonly bySpin: readonly [number, number];
+  /**
+   * Spin-density modulation of the bond across the field (in-plane spin bond order, SBxy): the
+   * x and y components Re[(o_xb + i o_yb) w^m], b = x, y, in units of hbar/2.
+   */
+  readonly spinAcross: readonly [number, number];
 }
 
 export interface LatticePicture {
@@ -36,6 +41,8 @@ export interface LatticePicture {
   readonly nf: number;
   /** Largest |modulation| over the three classes and both spins (0 without bond order). */
   readonly maxModulation: number;
+  /** Largest length of a bond's in-plane spin modulation (0 without in-plane spin bond order). */
+  readonly maxSpinAcross: number;
 }
 
 // Honeycomb with carbon-carbon distance 1: A sites at n1 a1 + n2 a2, B sites at A + delta_0;
@@ -69,7 +76,8 @@ function classModulation(amplitude: number, phase: number, m: number): number {
 
 /**
  * A patch of honeycomb lattice drawn from a Probe's numbers: the charge and spin of each
- * sublattice on its sites, and the Kekule modulation on the bonds. Nothing is chosen by phase
+ * sublattice on its sites, and the Kekule modulation on the bonds (of the charge, of each spin
+ * along the field, and of the spin across it). Nothing is chosen by phase
  * label: a state with no bond order has equal bonds, one with no CDW equal sites.
  */
 export function latticePicture(
@@ -82,6 +90,14 @@ export function latticePicture(
   const bonds = report.bonds;
   const up = report.bonds.bySpin.up;
   const down = report.bonds.bySpin.down;
+  const order = report.state.order;
+  const across = (spin: 'x' | 'y') => {
+    const re = order[`x${spin}`] ?? 0;
+    const im = order[`y${spin}`] ?? 0;
+    return { amplitude: Math.hypot(re, im), phase: Math.atan2(im, re) };
+  };
+  const acrossX = across('x');
+  const acrossY = across('y');
   const sites: LatticeSite[] = [];
   const bondList: LatticeBond[] = [];
   const inside = (x: number, y: number) =>
@@ -113,12 +129,18 @@ export function latticePicture(
             classModulation(up.amplitude, up.phase, m),
             classModulation(down.amplitude, down.phase, m),
           ],
+          spinAcross: [
+            classModulation(acrossX.amplitude, acrossX.phase, m),
+            classModulation(acrossY.amplitude, acrossY.phase, m),
+          ],
         });
       });
     }
   }
   let maxModulation = 0;
+  let maxSpinAcross = 0;
   for (const bond of bondList) {
+    maxSpinAcross = Math.max(maxSpinAcross, Math.hypot(...bond.spinAcross));
     maxModulation = Math.max(
       maxModulation,
       Math.abs(bond.modulation),
@@ -138,7 +160,16 @@ export function latticePicture(
     [snap[0] + c1[0] + c2[0], snap[1] + c1[1] + c2[1]],
     [snap[0] + c1[0], snap[1] + c1[1]],
   ];
-  return { sites, bonds: bondList, cell, halfWidth, halfHeight, nf, maxModulation };
+  return {
+    sites,
+    bonds: bondList,
+    cell,
+    halfWidth,
+    halfHeight,
+    nf,
+    maxModulation,
+    maxSpinAcross,
+  };
 }
 
 function nearestA(p: [number, number]): [number, number] {

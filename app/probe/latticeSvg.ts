@@ -18,7 +18,11 @@ export const LATTICE_COLOURS = {
   spinDown: '#c9813f',
   arrow: '#1d2126',
   cell: '#6d737a',
+  spinAcrossBond: '#7d4a9a',
 } as const;
+
+/** Longest arrow of a bond's in-plane spin, pixels (less than half a bond, clear of the sites). */
+const BOND_ARROW = 20;
 
 function n(x: number): string {
   return Number(x.toFixed(2)).toString();
@@ -58,6 +62,32 @@ function bondSvg(b: LatticeBond, max: number, spinResolved: boolean, px: Px): st
 }
 
 type Px = (x: number, y: number) => [number, number];
+
+/**
+ * A bond's in-plane spin modulation (SBxy) as a thin arrow with an open head, centred on the
+ * bond's midpoint, length by its size (largest = BOND_ARROW); screen y points down.
+ */
+function bondSpinArrow(cx: number, cy: number, sx: number, sy: number, length: number): string {
+  const size = Math.hypot(sx, sy);
+  const ux = sx / size;
+  const uy = -sy / size;
+  const tx = cx + (ux * length) / 2;
+  const ty = cy + (uy * length) / 2;
+  const head = Math.min(4, length / 2);
+  const shaft = `M${n(cx - (ux * length) / 2)},${n(cy - (uy * length) / 2)}L${n(tx)},${n(ty)}`;
+  const tip =
+    `M${n(tx - ux * head - uy * head * 0.7)},${n(ty - uy * head + ux * head * 0.7)}` +
+    `L${n(tx)},${n(ty)}L${n(tx - ux * head + uy * head * 0.7)},${n(ty - uy * head - ux * head * 0.7)}`;
+  return `<path d="${shaft}${tip}" fill="none" stroke="${LATTICE_COLOURS.spinAcrossBond}" stroke-width="1.4" stroke-linecap="round" stroke-linejoin="round"`;
+}
+
+function bondSpinSvg(b: LatticeBond, max: number, px: Px): string {
+  const [sx, sy] = b.spinAcross;
+  const size = Math.hypot(sx, sy);
+  if (max <= 0 || size < 1e-3 * max) return '';
+  const [cx, cy] = px((b.x1 + b.x2) / 2, (b.y1 + b.y2) / 2);
+  return `${bondSpinArrow(cx, cy, sx, sy, (BOND_ARROW * size) / max)} data-class="${b.bondClass}" data-bond-spin="${n(sx)},${n(sy)}"/>`;
+}
 
 function siteSvg(s: LatticeSite, nf: number, px: Px): string {
   const [x, y] = px(s.x, s.y);
@@ -106,7 +136,7 @@ function siteSvg(s: LatticeSite, nf: number, px: Px): string {
   return parts.join('');
 }
 
-type KeyMark = 'A' | 'B' | 'cell';
+type KeyMark = 'A' | 'B' | 'cell' | 'bondSpin';
 
 /** Width taken by a key line's mark before its text. */
 const KEY_MARK_WIDTH = 16;
@@ -118,14 +148,17 @@ function keyLine(line: string | { text: string; mark: KeyMark }, y: number): str
   const mark =
     line.mark === 'cell'
       ? `<path d="M${MARGIN},${n(middle)}h12" stroke="${LATTICE_COLOURS.cell}" stroke-width="1" stroke-dasharray="4 3" data-key="cell"/>`
-      : `<circle cx="${MARGIN + 5}" cy="${n(middle)}" r="4.5" fill="${line.mark === 'A' ? LATTICE_COLOURS.siteA : LATTICE_COLOURS.siteB}" data-key="${line.mark}"/>`;
+      : line.mark === 'bondSpin'
+        ? `${bondSpinArrow(MARGIN + 6, middle, 1, 0, 12)} data-key="bondSpin"/>`
+        : `<circle cx="${MARGIN + 5}" cy="${n(middle)}" r="4.5" fill="${line.mark === 'A' ? LATTICE_COLOURS.siteA : LATTICE_COLOURS.siteB}" data-key="${line.mark}"/>`;
   return `${mark}<text x="${MARGIN + KEY_MARK_WIDTH}" y="${n(y)}">${xmlText(line.text)}</text>`;
 }
 
 /**
  * The Probe's lattice picture as a standalone SVG 1.1 document: sites sized by their charge,
  * bonds drawn by their Kekule modulation (two strokes, one per spin along the field, where spin
- * bond order is present), spin arrows in the plane perpendicular to the field and dot / cross
+ * bond order along the field is present; a thin open arrow on each bond for its spin across the
+ * field, where in-plane spin bond order is present), spin arrows in the plane perpendicular to the field and dot / cross
  * marks for the component along it, one enlarged cell outlined, and a few lines of numbers.
  * Pure: the app shows it inline and exports the same text.
  */
@@ -140,6 +173,7 @@ export function latticeSvg(report: ProbeReport, title?: string): string {
   const spinBond = report.state.order;
   const spinResolved =
     Math.hypot(spinBond['xz'] ?? 0, spinBond['yz'] ?? 0) > 1e-6 && pic.maxModulation > 1e-9;
+  const spinAcross = pic.maxSpinAcross > 1e-9;
   const { a, b } = report.sublattices;
   const vec = (v: readonly number[]) => `(${v.map((x) => fixed(x)).join(', ')})`;
   const strengths = report.bonds.strengths.map((s) => fixed(s)).join(', ');
@@ -163,8 +197,20 @@ export function latticeSvg(report: ProbeReport, title?: string): string {
             ? 'Bonds: one stroke per spin (up blue, down orange), wide = strong'
             : 'Bonds: dark and wide = strong, light and thin = weak',
         ]
-      : ['No bond order: all bonds equal']),
-    'Arrows: spin across the field',
+      : [
+          spinAcross
+            ? 'No charge bond order: all bonds equal in width'
+            : 'No bond order: all bonds equal',
+        ]),
+    ...(spinAcross
+      ? [
+          {
+            text: 'Bond arrows: spin across the field (in-plane spin bond order)',
+            mark: 'bondSpin' as const,
+          },
+        ]
+      : []),
+    spinAcross ? 'Site arrows: spin across the field' : 'Arrows: spin across the field',
     'Dot / cross: spin along / against the field (out of the page)',
   ];
   const height = plotHeight + legend.length * LEGEND_LINE + 8;
@@ -184,6 +230,11 @@ export function latticeSvg(report: ProbeReport, title?: string): string {
     `<g class="bonds">${pic.bonds.map((bd) => bondSvg(bd, pic.maxModulation, spinResolved, px)).join('')}</g>`,
     `<path d="${cellPath}" fill="none" stroke="${LATTICE_COLOURS.cell}" stroke-width="1" stroke-dasharray="4 3"/>`,
     `<g class="sites">${pic.sites.map((s) => siteSvg(s, pic.nf, px)).join('')}</g>`,
+    ...(spinAcross
+      ? [
+          `<g class="bond-spins">${pic.bonds.map((bd) => bondSpinSvg(bd, pic.maxSpinAcross, px)).join('')}</g>`,
+        ]
+      : []),
     `<g font-family="Helvetica, Arial, sans-serif" font-size="11" fill="#24272b">${legend
       .map((line, k) => keyLine(line, plotHeight + 4 + (k + 0.8) * LEGEND_LINE))
       .join('')}</g>`,
