@@ -1,4 +1,4 @@
-import { expect, test, type Page } from '@playwright/test';
+import { expect, test, type Locator, type Page } from '@playwright/test';
 import { BUSY_MACHINE_MS, failOnConsoleErrors, mapDone, pointAt } from './demoPage';
 
 failOnConsoleErrors();
@@ -10,10 +10,25 @@ async function cutDone(page: Page): Promise<void> {
 }
 
 /**
- * Spellings the app's one notation replaces: u⊥, u_z, E_Z, Delta_V are typeset (a subscript
- * reads as plain letters in innerText: u_z as "uz").
+ * Spellings the app's one notation replaces: u⊥, u_z, E_Z, Delta_V, B⊥, E_X are typeset (a
+ * subscript reads as plain letters in innerText: u_z as "uz").
  */
-const OTHER_SPELLINGS = /u_perp|uPerp|u ⊥|u_z|E_Z|Delta_V|u_\{/;
+const OTHER_SPELLINGS = /u_perp|uPerp|u ⊥|u_z|E_Z|Delta_V|Δ_V|B_perp|E_X|u_\{/;
+
+/** A panel's text as typeset, without form fields (plain text by nature: choices, typed CSV). */
+async function typesetText(panel: Locator): Promise<string> {
+  return panel.evaluate((el) => {
+    const copy = el.cloneNode(true) as Element;
+    copy.querySelectorAll('select, textarea, input').forEach((s) => s.remove());
+    return copy.textContent ?? '';
+  });
+}
+
+async function pinTyped(page: Page, x: number, y: number): Promise<void> {
+  await page.getByTestId('pin-entry-x').fill(String(x));
+  await page.getByTestId('pin-entry-y').fill(String(y));
+  await page.getByTestId('pin-entry-submit').click();
+}
 
 test('one notation: the Cut runs along the swept coupling, every symbol is typeset alike, and names explain themselves on hover and focus', async ({
   page,
@@ -90,4 +105,50 @@ test('one notation: the Cut runs along the swept coupling, every symbol is types
   await legendKD.focus();
   await expect(tip).toHaveText((await legendKD.getAttribute('data-explain'))!);
   await expect(tip).toContainText('Kekule');
+});
+
+test('one notation in the Observations panel, its fit results, the Probe and the pins side by side', async ({
+  page,
+}) => {
+  await page.goto('/');
+  await mapDone(page);
+
+  // Two pins: F at (0.5, 1.5) and CAF at (-0.5, 1.5) of the demo plane.
+  await pinTyped(page, 0.5, 1.5);
+  await pinTyped(page, -0.5, 1.5);
+  const compare = page.getByTestId('pin-compare');
+  await expect(page.getByTestId('compare-phase-2')).toHaveText('CAF', {
+    timeout: BUSY_MACHINE_MS,
+  });
+  expect(await typesetText(compare), 'pins side by side').not.toMatch(OTHER_SPELLINGS);
+  // The canting angle's row names theta_c typeset: θ with the subscript c.
+  const canting = compare.locator('tr[data-row="canting"] th');
+  await expect(canting).toContainText('canting angle θc (°)');
+  await expect(canting.locator('sub')).toHaveText('c');
+  expect(await typesetText(page.getByTestId('probe')), 'Probe').not.toMatch(OTHER_SPELLINGS);
+
+  // The Observations panel heads its columns B⊥ (T) and Δ_V (meV), typeset.
+  const panel = page.getByTestId('observations');
+  await panel.scrollIntoViewIfNeeded();
+  await panel
+    .getByTestId('observations-text')
+    .fill(['bPerp_T,tilt_deg,valleyZeeman_meV,kind,value,sigma', '3,0,,phase,CAF,'].join('\n'));
+  await panel.getByTestId('observations-keep').click();
+  await expect(panel.getByTestId('observations-message')).toHaveText('1 row kept.');
+  const heads = panel.getByTestId('observations-table').locator('thead th');
+  await expect(heads.nth(1)).toHaveText('B⊥ (T)');
+  await expect(heads.nth(1).locator('var')).toHaveText('B');
+  await expect(heads.nth(1).locator('sub')).toHaveText('⊥');
+  await expect(heads.nth(3)).toHaveText('ΔV (meV)');
+  await expect(heads.nth(3).locator('sub')).toHaveText('V');
+
+  // Fitted on the Map's workers: the parameters are the plane's axes, typeset (u⊥ per tesla).
+  await panel.getByTestId('observations-fit').click();
+  await expect(panel.getByTestId('observations-fit-status')).toHaveAttribute('data-phase', 'done', {
+    timeout: BUSY_MACHINE_MS,
+  });
+  const parameter = panel.getByTestId('fit-parameter-0').locator('td').first();
+  await expect(parameter).toHaveText('u⊥ (meV/T)');
+  await expect(parameter.locator('sub')).toHaveText('⊥');
+  expect(await typesetText(panel), 'Observations').not.toMatch(OTHER_SPELLINGS);
 });

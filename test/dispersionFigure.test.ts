@@ -1,4 +1,5 @@
 import { describe, expect, test } from 'vitest';
+import { labelPieces } from '../app/notation/labelPieces';
 import { dispersionFigureSvg } from '../app/probe/dispersionFigure';
 import {
   ROTATION_NAMES,
@@ -6,7 +7,6 @@ import {
   energyExtent,
   energyTitle,
   groupsPresent,
-  plainRotation,
   wavevectorScale,
   wavevectorTitle,
 } from '../app/probe/dispersionSeries';
@@ -115,8 +115,19 @@ describe('colours and marks', () => {
     expect(text).toContain('growth rate');
   });
 
-  test('rotation names as plain text for the page', () => {
-    expect(plainRotation(ROTATION_NAMES.spinAlongField)).toBe('σz: spin about the field');
-    expect(plainRotation(ROTATION_NAMES.spinBondInPlane)).toBe('τx,y σx,y');
+  test('rotation names read by the one notation: Greek letters upright, their indices as subscripts', () => {
+    const pieces = (name: string) => labelPieces(name).map((p) => [p.text, p.level]);
+    expect(pieces(ROTATION_NAMES.spinAlongField)).toEqual([
+      ['σ', 0],
+      ['z', -1],
+      [': spin about the field', 0],
+    ]);
+    expect(pieces(ROTATION_NAMES.spinBondInPlane)).toEqual([
+      ['τ', 0],
+      ['x,y', -1],
+      [' σ', 0],
+      ['x,y', -1],
+    ]);
+    expect(labelPieces(ROTATION_NAMES.spinBondInPlane).every((p) => !p.italic)).toBe(true);
   });
 });

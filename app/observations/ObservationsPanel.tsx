@@ -13,6 +13,7 @@ import {
 import { useFourfold } from '../store/index';
 import { PageFit } from './PageFit';
 import './observations.css';
+import { AxisName } from '../readout/AxisName';
 
 /** Largest observations file read (100 rows are a few kilobytes). */
 const OBSERVATIONS_FILE_MAX_BYTES = 1_000_000;
@@ -78,8 +79,8 @@ export function ObservationsPanel() {
         <code>bPerp_T,tilt_deg,valleyZeeman_meV,kind,value,sigma</code> and optionally{' '}
         <code>pair</code>; <code>kind</code> is <code>phase</code>, <code>transition_tilt</code> or{' '}
         <code>gap</code>. The rows ride with the scenario, the link and the autosave; the couplings
-        of the Map's plane are read per tesla of B⊥ (<code>npm run fit</code> reads a saved scenario
-        the same way, README).
+        of the Map's plane are read per tesla of <AxisName label="B_perp" /> (
+        <code>npm run fit</code> reads a saved scenario the same way, README).
       </p>
       <textarea
         className="observations-text"
@@ -136,9 +137,13 @@ export function ObservationsPanel() {
         <thead>
           <tr>
             <th scope="col">row</th>
-            <th scope="col">B⊥ (T)</th>
+            <th scope="col">
+              <AxisName label="B_perp" /> (T)
+            </th>
             <th scope="col">tilt (°)</th>
-            <th scope="col">Δ_V (meV)</th>
+            <th scope="col">
+              <AxisName label="Delta_V" /> (meV)
+            </th>
             <th scope="col">kind</th>
             <th scope="col">value</th>
             <th scope="col">σ</th>

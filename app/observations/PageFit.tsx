@@ -13,6 +13,7 @@ import {
 } from '../../solver/index';
 import { useFourfold } from '../store/index';
 import { PAGE_FIT_SIDE, pageFitProblem, pageFitRunners, setupKey } from './browserFit';
+import { AxisName } from '../readout/AxisName';
 
 type FitState =
   | { readonly phase: 'idle' }
@@ -178,7 +179,9 @@ function FitTables({ problem, outcome }: { problem: FitProblem; outcome: FitOutc
         <tbody>
           {fit.parameters.map((p, d) => (
             <tr key={d} data-testid={`fit-parameter-${d}`} data-sigma={p.sigma ?? 'null'}>
-              <td>{p.label} (meV/T)</td>
+              <td>
+                <AxisName label={p.label} /> (meV/T)
+              </td>
               <td>{p.estimate === null ? 'not constrained' : number(p.estimate)}</td>
               <td>{p.sigma === null ? '\u2013' : number(p.sigma)}</td>
               <td data-lo={p.interval[0]} data-hi={p.interval[1]}>
@@ -222,7 +225,8 @@ function FitTables({ problem, outcome }: { problem: FitProblem; outcome: FitOutc
         <TiltPredictions problem={problem} outcome={outcome} />
       ) : null}
       <p className="observations-note" data-testid="fit-caution">
-        {json.caution}
+        {/* The solver's caution names B_perp, E_Z and mu_B as the CLI prints them: typeset. */}
+        <AxisName label={json.caution} />
       </p>
     </>
   );
@@ -252,7 +256,7 @@ function TiltPredictions({ problem, outcome }: { problem: FitProblem; outcome: F
   return (
     <div className="observations-actions" data-testid="fit-predictions">
       <label>
-        Transition tilt at B⊥ (T){' '}
+        Transition tilt at <AxisName label="B_perp" /> (T){' '}
         <input
           type="text"
           inputMode="decimal"

@@ -7,31 +7,20 @@ import {
   energyExtent,
   energyTitle,
   groupsPresent,
-  plainRotation,
   rotationColour,
   wavevectorScale,
   wavevectorTitle,
   type DispersionUnits,
 } from './dispersionSeries';
+import { SvgLabel } from '../notation/SvgLabel';
+import { AxisName } from '../readout/AxisName';
 
 const WIDTH = 460;
 const HEIGHT = 260;
 const MARGIN = { top: 10, right: 12, bottom: 36, left: 50 };
 
-/** An axis title as SVG text: 'omega' as ω, 'l_B' as l with a subscript B. */
-function AxisTitle({ title }: { readonly title: string }) {
-  const [before, after] = title.replace('omega', 'ω').split('l_B');
-  if (after === undefined) return <>{before}</>;
-  return (
-    <>
-      {before}l
-      <tspan baselineShift="sub" fontSize="0.75em">
-        B
-      </tspan>
-      {after}
-    </>
-  );
-}
+/** Font size of the axis titles, CSS pixels (the stylesheet's .dispersion-title). */
+const TITLE_FONT = 12;
 
 /**
  * The dispersion chart of the Probe: every branch coloured by the rotation its mode performs
@@ -136,14 +125,14 @@ export function DispersionChart({
           <g ref={bottom} className="dispersion-axis" transform={`translate(0,${plotH})`} />
           <g ref={left} className="dispersion-axis" />
           <text className="dispersion-title" x={plotW / 2} y={plotH + 31} textAnchor="middle">
-            <AxisTitle title={wavevectorTitle(units)} />
+            <SvgLabel label={wavevectorTitle(units)} fontSize={TITLE_FONT} />
           </text>
           <text
             className="dispersion-title"
             transform={`translate(${-38},${plotH / 2}) rotate(-90)`}
             textAnchor="middle"
           >
-            <AxisTitle title={energyTitle(units)} />
+            <SvgLabel label={energyTitle(units)} fontSize={TITLE_FONT} />
           </text>
         </g>
       </svg>
@@ -151,7 +140,7 @@ export function DispersionChart({
         {groupsPresent(dispersion).map((group) => (
           <li key={group} data-group={group}>
             <span className="dispersion-swatch" style={{ background: rotationColour(group) }} />{' '}
-            {plainRotation(ROTATION_NAMES[group])}
+            <AxisName label={ROTATION_NAMES[group]} />
           </li>
         ))}
       </ul>

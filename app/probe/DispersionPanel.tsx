@@ -24,12 +24,8 @@ import type { Pin } from '../store/probeSlice';
 import { DispersionChart } from './DispersionChart';
 import { probeKey } from './probeDriver';
 import { dispersionFigureSvg } from './dispersionFigure';
-import {
-  ROTATION_NAMES,
-  plainRotation,
-  rotationColour,
-  type DispersionUnits,
-} from './dispersionSeries';
+import { ROTATION_NAMES, rotationColour, type DispersionUnits } from './dispersionSeries';
+import { AxisName } from '../readout/AxisName';
 
 type Status =
   | { readonly kind: 'running' }
@@ -188,7 +184,7 @@ function CoulombEntry({ physical, coulomb }: { physical: boolean; coulomb: numbe
     return (
       <p className="probe-note" data-testid="dispersion-coulomb-derived" data-value={coulomb}>
         Coulomb scale e²/(4πε₀ε<sub>r</sub>l<sub>B</sub>) = {formatFixed(coulomb ?? NaN, 4)} meV,
-        from B⊥ and ε<sub>r</sub> in the Setup.
+        from <AxisName label="B_perp" /> and ε<sub>r</sub> in the Setup.
       </p>
     );
   }
@@ -227,7 +223,9 @@ function CoulombEntry({ physical, coulomb }: { physical: boolean; coulomb: numbe
           }}
         />
       </label>{' '}
-      <span className="probe-note">in the unit of the couplings (E_X = √(π/2) × this)</span>
+      <span className="probe-note">
+        in the unit of the couplings (<AxisName label="E_X" /> = √(π/2) × this)
+      </span>
       {problem !== null && (
         <span className="probe-problem" role="alert">
           {' '}
@@ -305,7 +303,7 @@ function DispersionResult({
                     className="dispersion-swatch"
                     style={{ background: rotationColour(group) }}
                   />{' '}
-                  {group === null ? '—' : plainRotation(ROTATION_NAMES[group])}
+                  {group === null ? '—' : <AxisName label={ROTATION_NAMES[group]} />}
                 </td>
               </tr>
             );
@@ -315,7 +313,7 @@ function DispersionResult({
       <p className="probe-note">
         Gap: ω at q = 0 (the q = 0 modes above). Goldstone branches rise linearly, ω ≈ v q, or
         quadratically, ω ≈ ρ q²; a gapped branch as ω ≈ gap + ρ q². q → ∞: the particle-hole energy
-        with E_X = {formatFixed(d.exchange, 4)}
+        with <AxisName label="E_X" /> = {formatFixed(d.exchange, 4)}
         {energy && ` ${energy}`}. Open circles mark Goldstone branches; dotted lines the large-q
         limits.
       </p>

@@ -14,6 +14,7 @@ import { DispersionPanel } from './DispersionPanel';
 import { ModeList } from './ModeList';
 import { OrientationDiscs } from './OrientationDiscs';
 import { SpinorTable } from './SpinorTable';
+import { AxisName } from '../readout/AxisName';
 
 /** Every section of one pin's Probe. */
 export function ProbeDetails({ pin, report }: { pin: Pin; report: ProbeReport }) {
@@ -53,9 +54,19 @@ export function ProbeDetails({ pin, report }: { pin: Pin; report: ProbeReport })
           </div>
         </dl>
         <p className="probe-note">
-          {report.exchange > 0
-            ? `The gap and the occupied levels include the Coulomb exchange E_X = ${formatFixed(report.exchange, 4)}.`
-            : 'Without the Coulomb exchange E_X: it lowers every occupied level alike and adds E_X to the gap (in physical units tick "add E_X to the quasiparticle gap", or set "exchange" in the model file).'}
+          {report.exchange > 0 ? (
+            <>
+              The gap and the occupied levels include the Coulomb exchange <AxisName label="E_X" />{' '}
+              = {formatFixed(report.exchange, 4)}.
+            </>
+          ) : (
+            <>
+              Without the Coulomb exchange <AxisName label="E_X" />: it lowers every occupied level
+              alike and adds <AxisName label="E_X" /> to the gap (in physical units tick “add{' '}
+              <AxisName label="E_X" /> to the quasiparticle gap”, or set "exchange" in the model
+              file).
+            </>
+          )}
         </p>
         {!state.aufbau && (
           <p className="probe-warning" data-testid="probe-no-aufbau">

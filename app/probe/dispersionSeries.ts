@@ -23,14 +23,6 @@ export const ROTATION_NAMES: Readonly<Record<OrderGroupKey, string>> = {
   spinBondInPlane: 'tau_{x,y} sigma_{x,y}',
 };
 
-/** A rotation's name as plain text for the page ('sigma_{x,y}' as σx,y). */
-export function plainRotation(name: string): string {
-  return name
-    .replace(/sigma/g, 'σ')
-    .replace(/tau/g, 'τ')
-    .replace(/_\{?([^}\s:]*)\}?/g, '$1');
-}
-
 /** The colour of a rotation group: the region colour of its order-parameter token. */
 export function rotationColour(group: OrderGroupKey | null): string {
   if (group === null) return UNKNOWN_TOKEN_COLOUR;

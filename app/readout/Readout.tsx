@@ -103,7 +103,8 @@ export function Readout() {
               </dd>
               {exchange > 0 && (
                 <dd className="readout-note" data-testid="readout-gap-exchange">
-                  includes the Coulomb exchange E_X = {formatFixed(exchange, 4)}
+                  includes the Coulomb exchange <AxisName label="E_X" /> ={' '}
+                  {formatFixed(exchange, 4)}
                 </dd>
               )}
               {grid.gap[p]! < 0 && (

@@ -8,6 +8,7 @@ import {
   withPhysical,
 } from '../scenario/physical';
 import type { PhysicalSetup } from '../scenario/setup';
+import { AxisName } from '../readout/AxisName';
 import { useFourfold } from '../store/index';
 import { commitSetup } from './commitSetup';
 import { NumberField } from './NumberField';
@@ -216,17 +217,38 @@ function TiltNote() {
   // The selected Probe pin can be taken as the sample whose tilt path is drawn.
   const pin = useFourfold((s) => s.probe.pins.find((p) => p.id === s.probe.selected));
   const max = setup.physical?.tiltMaxDeg ?? 0;
-  let text: string;
+  const deltaV = <AxisName label="Delta_V" />;
+  const zeeman = <AxisName label="E_Z" />;
+  const field = <AxisName label="B_perp" />;
+  let text: ReactNode;
   if (path === null) {
-    text = 'The tilt path is drawn on the Map when its axes are couplings, Δ_V or E_Z.';
+    text = (
+      <>
+        The tilt path is drawn on the Map when its axes are couplings, {deltaV} or {zeeman}.
+      </>
+    );
   } else if (path.kind === 'zeeman') {
-    text = `On the Map: the sample's path along E_Z as the tilt goes from 0° to ${max}° at fixed B⊥ (filled dot: the current tilt).`;
+    text = (
+      <>
+        On the Map: the sample&apos;s path along {zeeman} as the tilt goes from 0° to {max}° at
+        fixed {field} (filled dot: the current tilt).
+      </>
+    );
   } else {
-    text = `On the Map: the sample's path as the tilt goes from 0° to ${max}° at fixed B⊥, a ray towards the origin (the state depends on the couplings over E_Z only).`;
-    if (!path.exact) {
-      text +=
-        ' Dotted, a guide only: Δ_V or couplings off the axes stay fixed on the Map but would scale along the ray, or the sample lies beside the plane (a Hartree part off the axis ratio).';
-    }
+    text = (
+      <>
+        On the Map: the sample&apos;s path as the tilt goes from 0° to {max}° at fixed {field}, a
+        ray towards the origin (the state depends on the couplings over {zeeman} only).
+        {!path.exact && (
+          <>
+            {' '}
+            Dotted, a guide only: {deltaV} or couplings off the axes stay fixed on the Map but would
+            scale along the ray, or the sample lies beside the plane (a Hartree part off the axis
+            ratio).
+          </>
+        )}
+      </>
+    );
   }
   return (
     <>
