@@ -33,7 +33,7 @@ export function App() {
       <header className="masthead">
         <div className="title">
           <h1>Fourfold</h1>
-          <p className="tagline">
+          <p className="tagline" data-testid="tagline">
             Hartree-Fock ground states of graphene&rsquo;s zero-energy Landau level
           </p>
           <a

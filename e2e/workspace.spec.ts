@@ -229,6 +229,17 @@ for (const [width, height] of [
     // The plot is no thumbnail: at least 400 px on a side.
     const plot = (await page.getByTestId('map-plot').boundingBox())!;
     expect(plot.width).toBeGreaterThanOrEqual(400);
+    // The masthead keeps its one-line tagline, whole (not cut short), clear of the tools.
+    const tagline = page.getByTestId('tagline');
+    await expect(tagline).toHaveText(
+      'Hartree-Fock ground states of graphene\u2019s zero-energy Landau level',
+    );
+    const line = (await tagline.boundingBox())!;
+    expect(line.height).toBeGreaterThan(8);
+    expect(line.height).toBeLessThan(22);
+    expect(await tagline.evaluate((el) => el.scrollWidth <= el.clientWidth)).toBe(true);
+    const tools = (await page.locator('.masthead-tools').boundingBox())!;
+    expect(line.x + line.width).toBeLessThanOrEqual(tools.x);
     await page.screenshot({ path: `test-results/screenshots/layout-${width}.png` });
   });
 }
