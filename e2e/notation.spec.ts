@@ -151,4 +151,20 @@ test('one notation in the Observations panel, its fit results, the Probe and the
   await expect(parameter).toHaveText('u⊥ (meV/T)');
   await expect(parameter.locator('sub')).toHaveText('⊥');
   expect(await typesetText(panel), 'Observations').not.toMatch(OTHER_SPELLINGS);
+
+  // The selected pin's collective modes: axis titles, rotation names, E_X and l_B typeset.
+  const dispersion = page.getByTestId('dispersion');
+  await dispersion.locator('summary').click();
+  await page.getByTestId('dispersion-coulomb').fill('4');
+  await page.getByTestId('dispersion-coulomb').press('Enter');
+  await expect(page.getByTestId('dispersion-chart')).toBeVisible({ timeout: BUSY_MACHINE_MS });
+  expect(await typesetText(dispersion), 'collective modes').not.toMatch(
+    new RegExp(`${OTHER_SPELLINGS.source}|l_B|sigma|tau|omega`),
+  );
+  await expect(dispersion.getByTestId('dispersion-legend').locator('li sub').first()).toHaveText(
+    'z',
+  );
+  await expect(dispersion.locator('.dispersion-title tspan[font-style="italic"]')).toHaveText([
+    'l',
+  ]);
 });

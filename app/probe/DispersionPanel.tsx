@@ -1,4 +1,4 @@
-import { useEffect, useState } from 'react';
+import { useEffect, useState, type ReactNode } from 'react';
 import {
   DEFAULT_WAVEVECTORS,
   ELEMENTARY_CHARGE,
@@ -250,14 +250,22 @@ function DispersionResult({
   const d = result.dispersion;
   const lB = units.magneticLengthNm;
   const energy = units.energyUnit ?? '';
-  const velocity = (v: number) =>
-    lB === undefined
-      ? `v = ${formatFixed(v, 5)} (energy × l_B)`
-      : `v = ${formatFixed(v * lB, 4)} meV nm (${formatFixed((v * lB * METRES_PER_SECOND_PER_MEV_NM) / 1000, 3)} km/s)`;
-  const stiffness = (rho: number) =>
-    lB === undefined
-      ? `ρ = ${formatFixed(rho, 5)} (energy × l_B²)`
-      : `ρ = ${formatFixed(rho * lB * lB, 4)} meV nm²`;
+  const velocity = (v: number): ReactNode =>
+    lB === undefined ? (
+      <>
+        v = {formatFixed(v, 5)} (energy × <AxisName label="l_B" />)
+      </>
+    ) : (
+      `v = ${formatFixed(v * lB, 4)} meV nm (${formatFixed((v * lB * METRES_PER_SECOND_PER_MEV_NM) / 1000, 3)} km/s)`
+    );
+  const stiffness = (rho: number): ReactNode =>
+    lB === undefined ? (
+      <>
+        ρ = {formatFixed(rho, 5)} (energy × <AxisName label="l_B^2" />)
+      </>
+    ) : (
+      `ρ = ${formatFixed(rho * lB * lB, 4)} meV nm²`
+    );
   return (
     <div className="dispersion-result" data-testid="dispersion-result">
       {!d.stable && (
