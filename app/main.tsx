@@ -3,6 +3,7 @@ import { createRoot } from 'react-dom/client';
 import { App } from './App';
 import { startHistoryDriver } from './history/historyDriver';
 import { startMapDriver } from './mapDriver';
+import { firstWorkerAnswer } from '../workers/mapClient';
 import './styles.css';
 import { installTestHooks } from './testHooks';
 
@@ -23,8 +24,17 @@ startMapDriver(mapMode());
 // Every setup change from here on, the link's among them, is a step of the undo history.
 startHistoryDriver();
 
-createRoot(container).render(
-  <StrictMode>
-    <App />
-  </StrictMode>,
+// React's first render is one long task, and a worker's script loads only while the page's
+// thread is free: the render waits until a worker answers (up to RENDER_WAIT_MS), so that the
+// workers warm up while React renders.
+const RENDER_WAIT_MS = 400;
+void Promise.race([
+  firstWorkerAnswer,
+  new Promise((resolve) => setTimeout(resolve, RENDER_WAIT_MS)),
+]).then(() =>
+  createRoot(container).render(
+    <StrictMode>
+      <App />
+    </StrictMode>,
+  ),
 );

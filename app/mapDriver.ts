@@ -191,7 +191,7 @@ export function startMapDriver(mode: MapMode = 'staged'): () => void {
   changed(store.getState().setup);
 
   let pool: { close(): void } | null = null;
-  createMapScheduler(onPoolEvent)
+  createMapScheduler(onPoolEvent, store.getState().setup.filling)
     .then((created) => {
       if (stopped) {
         created.pool.close();

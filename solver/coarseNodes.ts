@@ -1,5 +1,8 @@
+import { energyOfOrder, type Couplings } from './couplings';
+import { DEGENERACY_TOLERANCE, softDirections } from './degeneracy';
 import { DEFAULT_DESCENT, descend } from './localMinimise';
-import { DescentWorkspace } from './tangentSpace';
+import { seedLibrary } from './seeds';
+import { DescentWorkspace, frameEnergy } from './tangentSpace';
 import { DEFAULT_MINIMISE, type MinimiseOptions } from './minimise';
 import { searchGroundState } from './groundSearch';
 import { canonicaliseOrbit } from './orbitGauge';
@@ -67,6 +70,8 @@ export interface CoarseBlock {
   readonly order: Float64Array;
   readonly gap: Float64Array;
   readonly labels: string[];
+  /** Nodes of a preview (`previewFrames`) that failed its check and got the search. */
+  searched: number;
 }
 
 /**
@@ -82,12 +87,17 @@ export const QUICK_SEARCH: MinimiseOptions = {
 /**
  * Stage 1 for the given coarse nodes (indices row-major over the coarse grid). `warm`, when
  * given, holds a frame per node (32 numbers each) to descend from besides the search's seeds.
+ * `preview`, when given (`previewFrames`), makes a first look after a small change of the
+ * setup: each node continues its own previous state and its neighbours' (`continuedNode`) and
+ * gets the search only when that fails its check. A preview is always followed by the full
+ * search of every node.
  */
 export function solveCoarseNodes(
   input: MapInput,
   nodes: ArrayLike<number>,
   search: MinimiseOptions = COARSE_SEARCH,
   warm?: Float64Array,
+  preview?: Float64Array,
 ): CoarseBlock {
   const { cols, rows } = coarseLayout(input);
   const [nx, ny] = input.plane.resolution;
@@ -101,6 +111,7 @@ export function solveCoarseNodes(
     order: new Float64Array(15 * count),
     gap: new Float64Array(count),
     labels: [],
+    searched: 0,
   };
   const ws = new DescentWorkspace();
   const scratch = new PixelScratch();
@@ -114,7 +125,16 @@ export function solveCoarseNodes(
     );
     // Polished to the last bit: pixels start from these frames and finish in fewer steps.
     const warmStarts = warm ? [warm.subarray(32 * n, 32 * n + 32)] : undefined;
-    const frame = searchGroundState(c, search, { warmStarts }).frame;
+    const continued =
+      preview === undefined
+        ? undefined
+        : continuedNode(
+            c,
+            preview.subarray(PREVIEW_FRAMES * 32 * n, PREVIEW_FRAMES * 32 * (n + 1)),
+            ws,
+          );
+    const frame = continued ?? searchGroundState(c, search, { warmStarts }).frame;
+    if (preview !== undefined && continued === undefined) block.searched++;
     descend(c, frame, DEFAULT_DESCENT, ws);
     // The canonical point of the orbit of rotations about the field and about tau_z: nodes of
     // one region then hold the same state where it does not change (a bond-ordered state's
@@ -140,4 +160,85 @@ export function nodeRange(first: number, count: number): Int32Array {
 export function coarseNodes(input: MapInput, frames: Float64Array, labels: string[]): CoarseNodes {
   const { cols, rows } = coarseLayout(input);
   return { cols, rows, frames, labels };
+}
+
+/** Frames per node of a preview: the node's own previous state and its four neighbours'. */
+export const PREVIEW_FRAMES = 5;
+
+/**
+ * For `solveCoarseNodes`' preview: per node, PREVIEW_FRAMES frames (32 numbers each) from the
+ * previous map of the same coarse layout (`previous`, all its nodes): the node's own and those of
+ * its left, right, lower and upper neighbours (its own again at the grid's edge).
+ */
+export function previewFrames(
+  layout: { cols: ArrayLike<number>; rows: ArrayLike<number> },
+  previous: Float64Array,
+  nodes: ArrayLike<number>,
+): Float64Array {
+  const width = layout.cols.length;
+  const height = layout.rows.length;
+  const out = new Float64Array(PREVIEW_FRAMES * 32 * nodes.length);
+  for (let n = 0; n < nodes.length; n++) {
+    const node = nodes[n]!;
+    const a = node % width;
+    const b = Math.floor(node / width);
+    const around = [
+      node,
+      a > 0 ? node - 1 : node,
+      a < width - 1 ? node + 1 : node,
+      b > 0 ? node - width : node,
+      b < height - 1 ? node + width : node,
+    ];
+    around.forEach((m, k) =>
+      out.set(previous.subarray(32 * m, 32 * m + 32), 32 * (PREVIEW_FRAMES * n + k)),
+    );
+  }
+  return out;
+}
+
+const previewOrder = new Float64Array(16);
+const previewTrial = new Float64Array(32);
+
+/**
+ * A node of a preview: the lowest local minimum reached by descents from its own previous state
+ * and its neighbours' (where a boundary moved across the node, a neighbour holds the state of the
+ * other side), accepted only when it converged, has no soft direction (a degenerate family needs
+ * the search's choice of member) and no exact state of the seed library lies below it here (a
+ * phase that appeared between the nodes). Otherwise undefined: the node needs the search.
+ */
+function continuedNode(
+  c: Couplings,
+  frames: Float64Array,
+  ws: DescentWorkspace,
+): Float64Array | undefined {
+  const tolerance = DEGENERACY_TOLERANCE * c.scale;
+  let best: Float64Array | undefined;
+  let bestEnergy = Infinity;
+  for (let k = 0; k < PREVIEW_FRAMES; k++) {
+    const start = frames.subarray(32 * k, 32 * k + 32);
+    let repeated = false;
+    for (let m = 0; m < k && !repeated; m++) {
+      repeated = start.every((value, r) => value === frames[32 * m + r]);
+    }
+    if (repeated) continue;
+    previewTrial.set(start);
+    // A neighbour's state that lies far above, unrelaxed, is not worth a descent.
+    if (
+      best !== undefined &&
+      frameEnergy(c, previewTrial, ws, previewOrder) > bestEnergy + 0.05 * c.scale
+    ) {
+      continue;
+    }
+    const result = descend(c, previewTrial, DEFAULT_DESCENT, ws);
+    if (!result.converged) return undefined;
+    if (result.energy < bestEnergy - tolerance) {
+      best = Float64Array.from(previewTrial);
+      bestEnergy = result.energy;
+    }
+  }
+  if (best === undefined || softDirections(c, best, ws) > 0) return undefined;
+  for (const seed of seedLibrary(c.nf)) {
+    if (energyOfOrder(c, seed.exactOrder) < bestEnergy - tolerance) return undefined;
+  }
+  return best;
 }

@@ -330,6 +330,15 @@ export function selectRepresentative(
   };
 }
 
+/** Scratch of `sameState` (a hot call of the Map's boundary cells), reused between calls. */
+const sameStateScratch = {
+  projector: new Float64Array(32),
+  frameA: new Float64Array(32),
+  frameB: new Float64Array(32),
+  orderA: new Float64Array(16),
+  orderB: new Float64Array(16),
+};
+
 /**
  * Whether two frames describe the same state up to the tolerance of their order parameters
  * (with `symmetry`, up to the model's exact rotations about the field and about tau_z).
@@ -341,16 +350,16 @@ export function sameState(
   tolerance = 1e-6,
   symmetry?: ModelSymmetry,
 ): boolean {
-  const p = new Float64Array(32);
+  const { projector: p, frameA: fa, frameB: fb, orderA, orderB } = sameStateScratch;
   // Up to the exact rotations about the field and about tau_z (one orbit is one state here).
-  const fa = Float64Array.from(a);
-  const fb = Float64Array.from(b);
+  fa.set(a);
+  fb.set(b);
   if (symmetry !== undefined) {
     canonicaliseOrbit(fa, nf, symmetry);
     canonicaliseOrbit(fb, nf, symmetry);
   }
-  const oa = orderOfProjector(projectorOf(fa, nf, p), new Float64Array(16));
-  const ob = orderOfProjector(projectorOf(fb, nf, p), new Float64Array(16));
+  const oa = orderOfProjector(projectorOf(fa, nf, p), orderA);
+  const ob = orderOfProjector(projectorOf(fb, nf, p), orderB);
   for (let k = 1; k < 16; k++) if (Math.abs(oa[k]! - ob[k]!) > tolerance) return false;
   return true;
 }

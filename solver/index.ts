@@ -95,6 +95,8 @@ export {
 export {
   COARSE_SEARCH,
   QUICK_SEARCH,
+  PREVIEW_FRAMES,
+  previewFrames,
   coarseLayout,
   coarseNodes,
   coarseStride,

@@ -221,6 +221,9 @@ export class PlaneCouplings {
   };
   /** Occupied flavours per flux quantum, Nf = nu + 2. */
   readonly nf: number;
+  /** The point `point` holds (NaN before the first call). */
+  private lastX = NaN;
+  private lastY = NaN;
 
   constructor(readonly input: MapInput) {
     const nf = occupiedCount(input.model);
@@ -278,6 +281,10 @@ export class PlaneCouplings {
   /** Couplings at axis values (x, y). */
   at(x: number, y: number): Couplings {
     const { base, dx, dy, point } = this;
+    // The Map asks for one pixel's couplings several times in a row.
+    if (x === this.lastX && y === this.lastY) return point;
+    this.lastX = x;
+    this.lastY = y;
     let scale = 0;
     for (let k = 0; k < 16; k++) {
       point.hartree[k] = base.hartree[k]! + x * dx.hartree[k]! + y * dy.hartree[k]!;

@@ -13,6 +13,13 @@ type MapWorkerApi = MapStagesApi & { ping(): boolean; lifeLock(): Promise<boolea
 const running = new Set<Worker>();
 let created = 0;
 
+let firstAnswered: () => void = () => undefined;
+/**
+ * Settles when a map worker first answers (its script loaded and ran): the page may wait for it
+ * before its first render, since a worker's script loads only while the page's thread is free.
+ */
+export const firstWorkerAnswer = new Promise<void>((resolve) => (firstAnswered = resolve));
+
 /** The map workers running now, oldest first (for the page's test hooks). */
 export function runningMapWorkers(): readonly Worker[] {
   return [...running];
@@ -43,6 +50,7 @@ function browserMember(): PoolMember<AsyncMapStages> {
   });
   let holdsLock = false;
   if (locks) void remote.lifeLock().then((holds) => (holdsLock = holds));
+  remote.ping().then(firstAnswered, () => undefined);
   return {
     api: remote as unknown as AsyncMapStages,
     died,
@@ -83,7 +91,11 @@ function mainThreadMember(): PoolMember<AsyncMapStages> {
  * Workers: one per core (at least one), or the page itself where workers are missing or none
  * can be started. `onEvent` hears of replaced workers and of the move to the page.
  */
-export async function createMapScheduler(onEvent?: (event: PoolEvent) => void): Promise<{
+export async function createMapScheduler(
+  onEvent?: (event: PoolEvent) => void,
+  /** The first map's filling: the workers warm up for it alone. */
+  filling?: -1 | 0 | 1,
+): Promise<{
   scheduler: MapScheduler;
   pool: WorkerPool<AsyncMapStages>;
 }> {
@@ -99,6 +111,6 @@ export async function createMapScheduler(onEvent?: (event: PoolEvent) => void): 
           // machine), so that answer gets 8 s.
           livenessMs: 8000,
         });
-  await pool.each((api) => api.warmUp());
+  await pool.each((api) => api.warmUp(filling));
   return { scheduler: new MapScheduler(pool), pool };
 }

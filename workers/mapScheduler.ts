@@ -2,6 +2,7 @@ import {
   MapGrid,
   PIXEL_SOLVED,
   cellIsUniform,
+  previewFrames,
   splitRange,
   type Boundary,
   type CellRange,
@@ -38,8 +39,20 @@ export type MapMode = 'staged' | 'cold';
 const MAX_RUN = 4;
 const MAX_REGION_RUN = 8;
 const PIXELS_PER_TASK = 256;
-/** Coarse nodes per coarse task, edges per crossing task, rows per cold task. */
-const NODES_PER_TASK = 16;
+/**
+ * Coarse nodes per task of a first look by continuation (about 0.1 ms each), and per task of
+ * full searches (a few ms each): a worker busy with a task holds up the next job's first look
+ * by that long when a slider moves on.
+ */
+const PREVIEW_NODES_PER_TASK = 16;
+const NODES_PER_TASK = 4;
+/**
+ * Pause after the first look before the heavier stages are queued, ms: during a slider drag the
+ * next change usually arrives within one animation frame, and then starts its own first look on
+ * idle workers instead of waiting behind this job's searches.
+ */
+export const SETTLE_MS = 24;
+/** Edges per crossing task, rows per cold task. */
 const EDGES_PER_TASK = 24;
 const ROWS_PER_TASK = 2;
 
@@ -152,27 +165,41 @@ export class MapScheduler {
       radius: number,
       quick: boolean,
       warm: (ids: Int32Array) => Float64Array | undefined,
+      preview?: (ids: Int32Array) => Float64Array,
     ) => {
+      const perTask = preview === undefined ? NODES_PER_TASK : PREVIEW_NODES_PER_TASK;
       await Promise.all(
-        splitRange(nodes.length, Math.ceil(nodes.length / NODES_PER_TASK)).map(
-          async ([start, count]) => {
-            const ids = Int32Array.from(nodes.slice(start, start + count));
-            const frames = warm(ids);
-            const block = await this.pool.run(job, priority, (api) =>
-              api.coarse(json, ids, quick, frames),
-            );
-            if (this.stale(job)) return;
-            grid.placeCoarse(block, radius);
-            events.update(grid, 'coarse');
-          },
-        ),
+        splitRange(nodes.length, Math.ceil(nodes.length / perTask)).map(async ([start, count]) => {
+          const ids = Int32Array.from(nodes.slice(start, start + count));
+          const frames = warm(ids);
+          const around = preview?.(ids);
+          const block = await this.pool.run(job, priority, (api) =>
+            api.coarse(json, ids, quick, frames, around),
+          );
+          if (this.stale(job)) return;
+          grid.placeCoarse(block, radius);
+          events.update(grid, 'coarse');
+        }),
       );
     };
+    // After a small change (a slider step), the first look continues every node's previous
+    // state and its neighbours' (a search only where that fails its check); the full search
+    // of every node follows.
     const quick = warmSource !== null;
-    await solveNodes(first, 0, stride, quick, (ids) => framesOf(warmSource, ids));
+    await solveNodes(
+      first,
+      0,
+      stride,
+      quick,
+      (ids) => framesOf(warmSource, ids),
+      warmSource === null ? undefined : (ids) => previewFrames(grid, warmSource, ids),
+    );
     if (this.stale(job)) return;
     this.shown = grid;
     events.coarse(grid);
+    if (this.stale(job)) return;
+    await new Promise((resolve) => setTimeout(resolve, SETTLE_MS));
+    if (this.stale(job)) return;
     // The other nodes, and (after a quick first look) the first ones again with the full search.
     const radius = Math.max(1, Math.ceil(stride / 2));
     const levelA = grid.nodeFrames.slice();

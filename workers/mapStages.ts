@@ -62,16 +62,35 @@ function pixelTransfer(b: PixelBlock): PixelBlock {
  * results leave as transferable typed arrays. Pure calls into solver/.
  */
 export const mapStagesApi = {
-  /** Builds the solver's seed library and compiles the hot paths before the first map. */
-  warmUp(): void {
-    for (const filling of [-1, 0, 1] as const) {
+  /**
+   * Builds the solver's seed library and compiles the hot paths before the first map: for the
+   * given filling only (the first map's; another filling builds its library when first asked),
+   * or for all three.
+   */
+  warmUp(only?: -1 | 0 | 1): void {
+    for (const filling of only === undefined ? ([-1, 0, 1] as const) : [only]) {
       const model = parseModel({ filling, channels: { x0: -1, y0: -1, z0: 2 }, zeeman: 0.4 });
       minimiseEnergy(couplingsOf(model), DEFAULT_MINIMISE);
     }
   },
-  /** Coarse nodes; `quick` with `warm` frames (one per node) for a first look after a change. */
-  coarse(json: string, nodes: Int32Array, quick = false, warm?: Float64Array): CoarseBlock {
-    const b = solveCoarseNodes(inputOf(json), nodes, quick ? QUICK_SEARCH : COARSE_SEARCH, warm);
+  /**
+   * Coarse nodes; `quick` with `warm` frames (one per node) for a first look after a change,
+   * and `preview` frames (`previewFrames`) for a first look by continuation.
+   */
+  coarse(
+    json: string,
+    nodes: Int32Array,
+    quick = false,
+    warm?: Float64Array,
+    preview?: Float64Array,
+  ): CoarseBlock {
+    const b = solveCoarseNodes(
+      inputOf(json),
+      nodes,
+      quick ? QUICK_SEARCH : COARSE_SEARCH,
+      warm,
+      preview,
+    );
     return transfer(b, [b.frames.buffer, b.energy.buffer, b.order.buffer, b.gap.buffer]);
   },
   cells(json: string, coarse: CoarseNodes, cells: CellRange): PixelBlock {

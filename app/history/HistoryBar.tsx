@@ -46,12 +46,18 @@ export function HistoryBar() {
   const { steps, index } = history;
   const undo = index > 0 ? steps[index]!.label : null;
   const redo = index + 1 < steps.length ? steps[index + 1]!.label : null;
-  // The shown step stays in view in the list.
+  // The shown step stays in view in the list: looked at once per animation frame, and only
+  // when the shown step or the number of steps changed (a slider drag changes the last step's
+  // content many times a second, and each look forces a layout of the page).
+  const count = steps.length;
   useEffect(() => {
-    listRef.current
-      ?.querySelector('[aria-current="step"]')
-      ?.scrollIntoView({ block: 'nearest', inline: 'nearest' });
-  }, [index, steps]);
+    const frame = requestAnimationFrame(() =>
+      listRef.current
+        ?.querySelector('[aria-current="step"]')
+        ?.scrollIntoView({ block: 'nearest', inline: 'nearest' }),
+    );
+    return () => cancelAnimationFrame(frame);
+  }, [index, count]);
   return (
     <div className="history-bar" role="group" aria-label="Undo history">
       <button
