@@ -30,12 +30,20 @@ import { axisValue, PlaneCouplings, type MapInput } from './plane';
 export const COARSE_SEARCH: MinimiseOptions = DEFAULT_MINIMISE;
 
 /**
- * Coarse node spacing: about 16 nodes along the longer side, at least every 2nd pixel. Every
- * pixel between them is certified on its own (see `solveCells`), so the nodes need not be
- * dense; fewer nodes are fewer full searches.
+ * Largest coarse node spacing: a cell is at most 128 x 128 pixels, as on a 2048 x 2048 grid.
+ * A cell is solved whole (its branches continued over all its pixels), and a band is a row of
+ * cells, so beyond 2048 per side a grid gets more nodes rather than larger cells, and the memory
+ * of a cell and of a band grows with the grid's width alone.
+ */
+export const MAX_COARSE_STRIDE = 128;
+
+/**
+ * Coarse node spacing: about 16 nodes along the longer side (up to 2048 pixels; every 128th
+ * pixel beyond), at least every 2nd pixel. Every pixel between them is certified on its own (see
+ * `solveCells`), so the nodes need not be dense; fewer nodes are fewer full searches.
  */
 export function coarseStride(nx: number, ny: number): number {
-  return Math.max(2, Math.ceil(Math.max(nx, ny) / 16));
+  return Math.min(MAX_COARSE_STRIDE, Math.max(2, Math.ceil(Math.max(nx, ny) / 16)));
 }
 
 /** Pixel indices of coarse nodes along one side: 0, s, 2s, ... and n - 1. */

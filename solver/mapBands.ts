@@ -9,9 +9,11 @@ import type { MapInput } from './plane';
  * The Map in bands of coarse-cell rows, with bounded memory: the coarse nodes a band needs are
  * solved first, then each band's cells; a band's finished pixel rows go out at once (without
  * their frames, which the files never hold), and only the last pixel row's frames are kept, for
- * the edges between it and the next band. Every pixel and every crossing is the number the
- * whole-plane run gives: each cell depends only on its own four corner nodes and each edge only
- * on its two end pixels, so any grouping of cells into bands and tasks gives identical numbers.
+ * the edges between it and the next band. While a band is being filled, it keeps the frames of
+ * only the pixels its edges may need (see `placeBlock`). Every pixel and every crossing is the
+ * number the whole-plane run gives: each cell depends only on its own four corner nodes and each
+ * edge only on its two end pixels, so any grouping of cells into bands and tasks gives identical
+ * numbers.
  */
 
 /** Workers the three stages can be spread over; `localStages` runs them in this thread. */
@@ -104,6 +106,11 @@ export class MapRunStopped extends Error {
 export const BAND_PIXELS = 1 << 16;
 /** Cell tasks per runner and band, for an even load. */
 const CELL_TASKS_PER_RUNNER = 4;
+/**
+ * Pixels per cell task at most (when whole cells allow): a task's block, frames included, is
+ * then some 26 MB, whatever the width of the grid.
+ */
+const TASK_PIXELS = 1 << 16;
 /** Edges per crossing task at least. */
 const EDGES_PER_TASK = 24;
 /** Bands in flight besides the one being taken apart. */
@@ -159,7 +166,10 @@ export function seamEdges(
   return { edges: Int32Array.from(edges), endFrames, endLabels };
 }
 
-/** A band's pixels, frames included, assembled from its cell tasks. */
+/**
+ * A band's pixels, filled in as its cell tasks come back: every number the files hold, and the
+ * frames (32 numbers, 256 of a pixel's 400 bytes) of only the pixels an edge may need.
+ */
 interface Band {
   readonly j0: number;
   readonly rows: number;
@@ -167,50 +177,77 @@ interface Band {
   readonly energy: Float64Array;
   readonly gap: Float64Array;
   readonly order: Float64Array;
-  readonly frames: Float64Array;
+  /** Frames of the pixels kept (see `placeBlock`), by band-local pixel index r nx + i. */
+  readonly frames: Map<number, Float64Array>;
 }
 
-function assembleBand(nx: number, j0: number, rows: number, blocks: readonly PixelBlock[]): Band {
+function emptyBand(nx: number, j0: number, rows: number): Band {
   const count = nx * rows;
-  const band: Band = {
+  return {
     j0,
     rows,
     labels: new Array<string>(count),
     energy: new Float64Array(count),
     gap: new Float64Array(count),
     order: new Float64Array(15 * count),
-    frames: new Float64Array(32 * count),
+    frames: new Map(),
   };
-  for (const block of blocks) {
-    for (let r = 0; r < block.height; r++) {
-      const n = r * block.width;
-      const p = (block.j0 - j0 + r) * nx + block.i0;
-      for (let c = 0; c < block.width; c++) band.labels[p + c] = block.labels[n + c]!;
-      band.energy.set(block.energy.subarray(n, n + block.width), p);
-      band.gap.set(block.gap.subarray(n, n + block.width), p);
-      band.order.set(block.order.subarray(15 * n, 15 * (n + block.width)), 15 * p);
-      band.frames.set(block.frames.subarray(32 * n, 32 * (n + block.width)), 32 * p);
+}
+
+/**
+ * Copies a cell task's block into its band. Labels become one string per phase (`shared`), not
+ * one per pixel as a worker's message brings them. Frames are kept only where an edge may need
+ * them: along the block's outline (its neighbours there lie in other blocks, bands or shards) and
+ * at both ends of each edge inside it whose labels differ; the rest go with the block.
+ */
+function placeBlock(band: Band, block: PixelBlock, nx: number, shared: Map<string, string>): void {
+  const { width, height } = block;
+  const keep = new Uint8Array(width * height);
+  let kept = 0;
+  for (let r = 0; r < height; r++) {
+    const n = r * width;
+    const p = (block.j0 - band.j0 + r) * nx + block.i0;
+    for (let c = 0; c < width; c++) {
+      const label = block.labels[n + c]!;
+      let one = shared.get(label);
+      if (one === undefined) shared.set(label, (one = label));
+      band.labels[p + c] = one;
+      const m = n + c;
+      if (r === 0 || r === height - 1 || c === 0 || c === width - 1) keep[m] = 1;
+      if (c + 1 < width && label !== block.labels[m + 1]) keep[m] = keep[m + 1] = 1;
+      if (r + 1 < height && label !== block.labels[m + width]) keep[m] = keep[m + width] = 1;
     }
+    band.energy.set(block.energy.subarray(n, n + width), p);
+    band.gap.set(block.gap.subarray(n, n + width), p);
+    band.order.set(block.order.subarray(15 * n, 15 * (n + width)), 15 * p);
   }
-  return band;
+  for (let m = 0; m < keep.length; m++) kept += keep[m]!;
+  const frames = new Float64Array(32 * kept);
+  let k = 0;
+  for (let m = 0; m < keep.length; m++) {
+    if (keep[m] === 0) continue;
+    const r = Math.floor(m / width);
+    const p = (block.j0 - band.j0 + r) * nx + block.i0 + (m - r * width);
+    const frame = frames.subarray(32 * k, 32 * k + 32);
+    frame.set(block.frames.subarray(32 * m, 32 * m + 32));
+    band.frames.set(p, frame);
+    k++;
+  }
 }
 
-/** The last pixel row of a band, kept for the edges to the next one. */
-function lastRow(band: Band, nx: number): EdgeRow {
-  const n = (band.rows - 1) * nx;
-  return {
-    j: band.j0 + band.rows - 1,
-    labels: band.labels.slice(n, n + nx),
-    frames: band.frames.slice(32 * n, 32 * (n + nx)),
-  };
+/** The kept frame of band pixel n (r nx + i). */
+function frameOf(band: Band, n: number): Float64Array {
+  const frame = band.frames.get(n);
+  if (frame === undefined) throw new Error(`mapBands: no frame kept for pixel ${n} of the band`);
+  return frame;
 }
 
-function firstRow(band: Band, nx: number): EdgeRow {
-  return {
-    j: band.j0,
-    labels: band.labels.slice(0, nx),
-    frames: band.frames.slice(0, 32 * nx),
-  };
+/** One whole pixel row r of a band, frames included (every row of a block's outline is kept). */
+function bandRow(band: Band, nx: number, r: number): EdgeRow {
+  const n = r * nx;
+  const frames = new Float64Array(32 * nx);
+  for (let i = 0; i < nx; i++) frames.set(frameOf(band, n + i), 32 * i);
+  return { j: band.j0 + r, labels: band.labels.slice(n, n + nx), frames };
 }
 
 /**
@@ -255,7 +292,7 @@ function bandEdges(
       endFrames.set(previous!.frames.subarray(32 * i, 32 * i + 32), 32 * k);
       endLabels.push(previous!.labels[i]!);
     } else {
-      endFrames.set(band.frames.subarray(32 * n, 32 * n + 32), 32 * k);
+      endFrames.set(frameOf(band, n), 32 * k);
       endLabels.push(band.labels[n]!);
     }
   });
@@ -323,24 +360,34 @@ export async function computeMapRows(
     b = end;
   }
   const cellCols = width - 1;
-  const submitBand = ([bFirst, bEnd]: [number, number]): Promise<PixelBlock[]> => {
-    const groups = Math.min(
-      cellCols,
-      Math.max(1, Math.ceil((parts * CELL_TASKS_PER_RUNNER) / (bEnd - bFirst))),
-    );
-    const tasks: Promise<PixelBlock>[] = [];
+  /** One string per label, whichever task brought it. */
+  const shared = new Map<string, string>();
+  const submitBand = ([bFirst, bEnd]: [number, number]): Promise<Band> => {
+    const [bandJ0, bandJ1] = cellRowPixels(input, [bFirst, bEnd]);
+    const band = emptyBand(nx, bandJ0, bandJ1 - bandJ0);
+    const tasks: Promise<void>[] = [];
     for (let b = bFirst; b < bEnd; b++) {
+      const groups = Math.min(
+        cellCols,
+        Math.max(
+          1,
+          Math.ceil((parts * CELL_TASKS_PER_RUNNER) / (bEnd - bFirst)),
+          Math.ceil(cellRowPixelCount(b) / TASK_PIXELS),
+        ),
+      );
       for (const [a0, count] of splitRange(cellCols, groups)) {
         tasks.push(
-          stages.cells(input, window(b, a0, a0 + count), { a0: 0, b0: 0, a1: count, b1: 1 }),
+          stages
+            .cells(input, window(b, a0, a0 + count), { a0: 0, b0: 0, a1: count, b1: 1 })
+            .then((block) => placeBlock(band, block, nx, shared)),
         );
       }
     }
-    return Promise.all(tasks);
+    return Promise.all(tasks).then(() => band);
   };
 
   // Stages 2 and 3, band after band, with the next bands' cells already queued.
-  const inFlight: Promise<PixelBlock[]>[] = [];
+  const inFlight: Promise<Band>[] = [];
   let next = 0;
   const crossingTasks: Promise<Crossing[]>[] = [];
   const tolerance = options.relativeTolerance;
@@ -355,12 +402,8 @@ export async function computeMapRows(
       pending.catch(() => undefined);
       inFlight.push(pending);
     }
-    const blocks = await inFlight.shift()!;
+    const band = await inFlight.shift()!;
     if (stopped()) throw new MapRunStopped();
-    const [bFirst, bEnd] = bands[t]!;
-    const [bandJ0, bandJ1] = cellRowPixels(input, [bFirst, bEnd]);
-    const band = assembleBand(nx, bandJ0, bandJ1 - bandJ0, blocks);
-    blocks.length = 0;
     options.onRows({
       j0: band.j0,
       rows: band.rows,
@@ -382,8 +425,8 @@ export async function computeMapRows(
       task.catch(() => undefined);
       crossingTasks.push(task);
     }
-    if (first === undefined) first = firstRow(band, nx);
-    previous = lastRow(band, nx);
+    if (first === undefined) first = bandRow(band, nx, 0);
+    previous = bandRow(band, nx, band.rows - 1);
     options.progress?.((t + 1) / bands.length);
   }
   // Ascending by edge: a row's vertical edges were sent a band after its horizontal ones (the
