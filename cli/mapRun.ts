@@ -41,7 +41,9 @@ export function shardPlace(
   if (n > count) {
     const [nx, ny] = input.plane.resolution;
     throw new CliError(
-      `--shard ${k}/${n}: a ${nx} x ${ny} map has ${count} rows of coarse cells to share out; use at most ${count} shards`,
+      count === 1
+        ? `--shard ${k}/${n}: a ${nx} x ${ny} map has 1 row of coarse cells to share out; use 1 shard`
+        : `--shard ${k}/${n}: a ${nx} x ${ny} map has ${count} rows of coarse cells to share out; use at most ${count} shards`,
       2,
     );
   }

@@ -8,6 +8,7 @@ import {
   partEndLines,
   partHeader,
   partRowLines,
+  wholeMapProblem,
   type Boundary,
   type Crossing,
   type EdgeRow,
@@ -17,6 +18,7 @@ import {
   type PartPlace,
 } from '../solver/index';
 import type { FigureMap, MapFigureOptions } from '../app/figure/mapFigure';
+import { CliError } from './cliError';
 import { OutputFile, writeWholeFile } from './outputFile';
 import { RowSpill } from './rowSpill';
 
@@ -95,7 +97,17 @@ class LabelGrid {
 export function mapFileSink(input: MapInput, path: string, options: MapFileOptions): MapSink {
   const [nx, ny] = input.plane.resolution;
   const order = new RowOrder(0, ny);
-  const labels = options.format === 'svg' || options.keep ? new LabelGrid(nx, ny) : undefined;
+  const figure = options.format === 'svg' || options.keep !== undefined;
+  // A figure is drawn from every pixel's label, held in memory: grids up to 2048 per side.
+  const tooLarge =
+    figure &&
+    wholeMapProblem(
+      input.plane,
+      'a figure draws',
+      'write .json or .csv, or draw the figure of a coarser grid',
+    );
+  if (tooLarge) throw new CliError(tooLarge, 2);
+  const labels = figure ? new LabelGrid(nx, ny) : undefined;
   const spill = options.format === 'json' ? new RowSpill(input, path) : undefined;
   let csv: OutputFile | undefined;
   if (options.format === 'csv') {

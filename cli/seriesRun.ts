@@ -15,6 +15,7 @@ import {
   seriesProvenance,
   seriesQuantityLabel,
   seriesQuantityName,
+  wholeMapProblem,
   type MapInput,
   type MapProvenance,
 } from '../solver/index';
@@ -122,6 +123,15 @@ export async function runSeries(json: unknown, options: SeriesOptions): Promise<
   } catch (error) {
     throw new CliError(errorLine(error), 2);
   }
+  // The figure holds every map's labels: a larger grid is computed in pieces and merged by hand.
+  const tooLarge =
+    options.shard === undefined &&
+    wholeMapProblem(
+      base.plane,
+      'a series draws in its figure',
+      "series --shard K/N writes each map's pieces, and merge joins one map's pieces into its JSON or CSV",
+    );
+  if (tooLarge) throw new CliError(tooLarge, 2);
   const files = seriesFiles(options.out, values.length);
   try {
     mkdirSync(files.dir, { recursive: true });

@@ -1,6 +1,6 @@
 import { fieldKey } from './inputText';
 import { ModelError, isPlainObject } from './model';
-import { parseMapInput, type MapInput } from './plane';
+import { parseMapInput, wholeMapProblem, type MapInput } from './plane';
 import type { Observation } from './observations';
 import { zeemanEnergyMeV } from './units';
 
@@ -56,6 +56,8 @@ export function parseFitPlane(json: unknown): FitPlane {
   if (!isPlainObject(json)) throw new ModelError('model: expected a JSON object with a plane');
   if (json.plane === undefined) throw new ModelError('plane: missing (a fit needs a plane)');
   const input = parseMapInput(json);
+  const tooLarge = wholeMapProblem(input.plane, 'a fit maps', 'give the plane a coarser grid');
+  if (tooLarge !== null) throw new ModelError(tooLarge);
   const physical = isPlainObject(json.fourfold) ? json.fourfold.physical : undefined;
   if (physical !== undefined && !isPlainObject(physical)) {
     throw new ModelError('fourfold.physical: expected an object');

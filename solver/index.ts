@@ -81,12 +81,14 @@ export { clean, solveResultToJson, type SolveJson } from './solveJson';
 export { MEAN_FIELD_CAUTION, SOFTWARE_VERSION } from './version';
 export {
   MAX_RESOLUTION,
+  MAX_WHOLE_RESOLUTION,
   PlaneCouplings,
   axisValue,
   modelAtPoint,
   parseMapInput,
   parsePlane,
   planeTargets,
+  wholeMapProblem,
   type Axis,
   type MapInput,
   type Plane,

@@ -46,8 +46,29 @@ export interface MapInput {
 /** Smallest axis span accepted (a normal double-precision number, with room to spare). */
 export const MIN_SPAN = 1e-250;
 
-/** Largest grid side accepted (a 2048 x 2048 map holds 4 million states). */
-export const MAX_RESOLUTION = 2048;
+/**
+ * Largest grid side accepted. The command line computes a Map in bands of at most 128 pixel rows
+ * (`computeMapRows`) and streams its JSON and CSV, so its memory grows with the grid's width,
+ * not its area: at 8192 a band holds some 150 MB and one shard's run peaks near 0.5 GB.
+ */
+export const MAX_RESOLUTION = 8192;
+
+/**
+ * Largest grid side of a Map held whole in memory (a 2048 x 2048 Map holds 4 million states):
+ * its figure, a series with its figure of small multiples, a fit's Maps.
+ */
+export const MAX_WHOLE_RESOLUTION = 2048;
+
+/**
+ * Why a plane's grid is too large for `what` (something that holds the whole Map, such as "a
+ * figure draws"), as one line naming the side, its value and MAX_WHOLE_RESOLUTION, followed by
+ * `instead`; null when it is not.
+ */
+export function wholeMapProblem(plane: Plane, what: string, instead: string): string | null {
+  const k = plane.resolution.findIndex((side) => side > MAX_WHOLE_RESOLUTION);
+  if (k < 0) return null;
+  return `plane.resolution[${k}]: ${plane.resolution[k]} is more than ${what} (at most ${MAX_WHOLE_RESOLUTION} per side); ${instead}`;
+}
 
 function parseTarget(name: string, field: string): void {
   if (name === 'zeeman' || name === 'valleyZeeman') return;

@@ -29,7 +29,7 @@ import {
   type RowPrediction,
   type TiltSweep,
 } from '../solver/index';
-import { standardPlane } from './fixtures';
+import { errorOf, standardPlane } from './fixtures';
 
 // The fit's checks (public/notes.html#fit): a closed-form transition recovered exactly, the
 // reported 2-sigma region covering the truth in about 95 % of noisy draws, and phase rows alone
@@ -371,6 +371,16 @@ describe('the plane of a fit', () => {
     const numbers = (doc: Record<string, unknown>) =>
       JSON.stringify(doc, (_, v) => (typeof v === 'number' ? Number(v.toPrecision(12)) : v));
     expect(numbers(scenario.document)).toBe(numbers(perTesla.document));
+  });
+
+  test('a grid side above 2048 is refused in one line (a fit holds its Maps whole)', () => {
+    const plane = contactPlane(8, [-0.12, -0.02], [0.15, 0.4]);
+    const wide = { ...plane, plane: { ...(plane.plane as object), resolution: [2049, 8] } };
+    expect(errorOf(() => parseFitPlane(wide))).toBe(
+      'plane.resolution[0]: 2049 is more than a fit maps (at most 2048 per side); give the plane a coarser grid',
+    );
+    const widest = { ...plane, plane: { ...(plane.plane as object), resolution: [2048, 2] } };
+    expect(parseFitPlane(widest).input.plane.resolution).toEqual([2048, 2]);
   });
 });
 

@@ -6,6 +6,8 @@ import { RowSpill } from '../cli/rowSpill';
 import {
   MapGrid,
   cellRowCount,
+  cellSpan,
+  coarseStride,
   cellRowPixels,
   computeMapRows,
   computePhaseMap,
@@ -29,7 +31,9 @@ import {
   type Crossing,
   type MapInput,
   type MapRowBlock,
+  type MapStages,
   type PhaseMap,
+  type PixelBlock,
 } from '../solver/index';
 import { sampleMapDocument, standardPlane } from './fixtures';
 
@@ -222,6 +226,120 @@ describe('the Map in bands of coarse-cell rows', () => {
       [32, 48],
     ]);
     expect(shardCellRows(input, 5, 5)).toEqual([9, 12]);
+  });
+
+  test('coarse cells are at most 128 pixels wide: about 16 along the longer side up to 2048, more beyond', () => {
+    expect(coarseStride(256, 256)).toBe(16);
+    expect(coarseStride(2000, 3)).toBe(125);
+    expect(coarseStride(2048, 2048)).toBe(128);
+    expect(coarseStride(2, 2100)).toBe(128);
+    expect(coarseStride(8192, 8192)).toBe(128);
+    expect(cellRowCount(sampleInput(2, 2100))).toBe(17);
+    expect(cellRowCount(sampleInput(8192, 8192))).toBe(64);
+  });
+
+  test('a grid 8192 wide: cell tasks of at most 65,536 pixels, and every edge of differing labels gets the states of its two ends, within a task, between tasks and between bands', async () => {
+    // Stand-in stages (nothing is solved): each pixel's label follows an invented pattern of
+    // stripes in three directions, and its frame holds its own index, so the frames an edge is
+    // given say which pixels they came from.
+    const input = sampleInput(8192, 130);
+    const [nx, ny] = input.plane.resolution;
+    const labelAt = (i: number, j: number) =>
+      `P${(Math.floor((i + 2 * j) / 700) + Math.floor(j / 37) + (i % 4096 < 9 ? 1 : 0)) % 3}`;
+    const taskPixels: number[] = [];
+    const seen: number[] = [];
+    const stages: MapStages = {
+      coarse: async (_input, nodes) => ({
+        nodes: Int32Array.from(nodes),
+        frames: new Float64Array(32 * nodes.length),
+        energy: new Float64Array(nodes.length),
+        order: new Float64Array(15 * nodes.length),
+        gap: new Float64Array(nodes.length),
+        labels: Array.from(nodes, () => 'P0'),
+      }),
+      cells: async (_input, coarse, cells) => {
+        const [i0, i1] = [
+          cellSpan(coarse.cols, cells.a0, nx)[0],
+          cellSpan(coarse.cols, cells.a1 - 1, nx)[1],
+        ];
+        const [j0, j1] = [
+          cellSpan(coarse.rows, cells.b0, ny)[0],
+          cellSpan(coarse.rows, cells.b1 - 1, ny)[1],
+        ];
+        const [width, height] = [i1 - i0, j1 - j0];
+        taskPixels.push(width * height);
+        const block: PixelBlock = {
+          i0,
+          j0,
+          width,
+          height,
+          energy: new Float64Array(width * height),
+          order: new Float64Array(15 * width * height),
+          gap: new Float64Array(width * height),
+          frames: new Float64Array(32 * width * height),
+          labels: [],
+          searched: new Int32Array(1),
+        };
+        for (let j = j0; j < j1; j++) {
+          for (let i = i0; i < i1; i++) {
+            const n = (j - j0) * width + (i - i0);
+            block.labels.push(labelAt(i, j));
+            block.energy[n] = j * nx + i;
+            block.frames[32 * n] = j * nx + i;
+          }
+        }
+        return block;
+      },
+      crossings: async (_input, edges, endFrames, endLabels) =>
+        Array.from(edges, (edge, k) => {
+          const p = edge >> 1;
+          const q = edge % 2 === 0 ? p + 1 : p + nx;
+          seen.push(edge);
+          expect([endFrames[64 * k], endFrames[64 * k + 32]]).toEqual([p, q]);
+          const [ip, jp, iq, jq] = [p % nx, Math.floor(p / nx), q % nx, Math.floor(q / nx)];
+          expect([endLabels[2 * k], endLabels[2 * k + 1]]).toEqual([
+            labelAt(ip, jp),
+            labelAt(iq, jq),
+          ]);
+          return {
+            edge,
+            x: 0,
+            y: 0,
+            near: endLabels[2 * k]!,
+            far: endLabels[2 * k + 1]!,
+            order: 'first' as const,
+          };
+        }),
+    };
+    const blocks: MapRowBlock[] = [];
+    const result = await computeMapRows(input, stages, { onRows: (b) => blocks.push(b) });
+    // Two bands (rows of coarse cells): 128 pixel rows, then 2.
+    expect(blocks.map((b) => [b.j0, b.rows])).toEqual([
+      [0, 128],
+      [128, 2],
+    ]);
+    expect(Math.max(...taskPixels)).toBeLessThanOrEqual(1 << 16);
+    expect(taskPixels.reduce((a, b) => a + b, 0)).toBe(nx * ny);
+    for (const b of blocks) {
+      expect(b.energy.every((e, n) => e === b.j0 * nx + n)).toBe(true);
+      expect(b.labels.every((l, n) => l === labelAt(n % nx, b.j0 + Math.floor(n / nx)))).toBe(true);
+    }
+    const expected: number[] = [];
+    for (let j = 0; j < ny; j++) {
+      for (let i = 0; i < nx; i++) {
+        if (i + 1 < nx && labelAt(i, j) !== labelAt(i + 1, j)) expected.push(2 * (j * nx + i));
+        if (j + 1 < ny && labelAt(i, j) !== labelAt(i, j + 1)) expected.push(2 * (j * nx + i) + 1);
+      }
+    }
+    expect(expected.length).toBeGreaterThan(1000);
+    expect(result.crossings.map((c) => c.edge)).toEqual(expected);
+    expect(seen.length).toBe(expected.length);
+    expect(Array.from({ length: nx }, (_, i) => result.first.frames[32 * i])).toEqual(
+      Array.from({ length: nx }, (_, i) => i),
+    );
+    expect(Array.from({ length: nx }, (_, i) => result.last.frames[32 * i])).toEqual(
+      Array.from({ length: nx }, (_, i) => (ny - 1) * nx + i),
+    );
   });
 
   test('a run can be stopped between bands', async () => {

@@ -234,8 +234,8 @@ describe('parsePlane and parseMapInput', () => {
     );
   });
 
-  test('resolution 0, 1, 5000, 2.5, -4 and NaN are rejected (as a number or inside [nx, ny])', () => {
-    for (const bad of [0, 1, 5000, 2.5, -4, Number.NaN]) {
+  test('resolution 0, 1, 8193, 2.5, -4 and NaN are rejected (as a number or inside [nx, ny])', () => {
+    for (const bad of [0, 1, 8193, 2.5, -4, Number.NaN]) {
       expectFieldError(
         () => parsePlane({ ...INTERFACES_PLANE, resolution: bad }),
         'plane.resolution',
@@ -250,10 +250,15 @@ describe('parsePlane and parseMapInput', () => {
         'plane.resolution[1]',
       );
     }
-    // The largest side is accepted.
-    expect(parsePlane({ ...INTERFACES_PLANE, resolution: [2, 2048] }).resolution).toEqual([
-      2, 2048,
+    // The largest side is accepted; one more is refused with the side, the value and the cap.
+    expect(parsePlane({ ...INTERFACES_PLANE, resolution: [2, 8192] }).resolution).toEqual([
+      2, 8192,
     ]);
+    expectFieldError(
+      () => parsePlane({ ...INTERFACES_PLANE, resolution: [12000, 2] }),
+      'plane.resolution[0]',
+      ['from 2 to 8192, got 12000'],
+    );
   });
 
   test('resolution that is neither a number nor [nx, ny] is rejected', () => {

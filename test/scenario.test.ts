@@ -229,9 +229,9 @@ describe('scenario file', () => {
       'must differ from plane.x.from',
     ]);
     expectOneLine(
-      errorOf(file(withPlane({ resolution: [5000, 64] }))),
+      errorOf(file(withPlane({ resolution: [9000, 64] }))),
       `${name}: plane.resolution[0]:`,
-      ['5000'],
+      ['9000', '8192'],
     );
     expectOneLine(errorOf(file(withPlane({}, { zeeman: 'NaN' }))), `${name}: zeeman:`, [
       'finite number',

@@ -206,6 +206,27 @@ describe('every scenario the command line maps loads into the app unchanged', ()
     const read = readScenario(json, 'autosave');
     expect(read.setup.resolution).toEqual([APP_MAX_RESOLUTION, 300]);
     expect(read.note).toContain('2048 × 300');
+    // The command line's largest grid is cut the same way; a larger one is refused in one line
+    // naming the source, the side, the value and the cap (from a file, the link or the autosave).
+    const largest = { ...json, plane: { ...json.plane, resolution: [8192, 6] } };
+    const cut = readScenario(largest, 'autosave');
+    expect(cut.setup.resolution).toEqual([APP_MAX_RESOLUTION, 6]);
+    expect(cut.note).toContain('8192 × 6 reduced to 512 × 6');
+    const huge = { ...json, plane: { ...json.plane, resolution: [6, 8193] } };
+    for (const source of ['autosave', 'big.json']) {
+      expect(errorOf(() => readScenario(huge, source))).toBe(
+        `${source}: plane.resolution[1]: expected an integer from 2 to 8192, got 8193`,
+      );
+    }
+    const setup = scenarioToSetup(largest);
+    expect(readScenarioLink(scenarioHash(setup))?.setup.resolution).toEqual([
+      APP_MAX_RESOLUTION,
+      6,
+    ]);
+    const hugeLink = scenarioHash({ ...setup, resolution: [6, 8193] });
+    expect(errorOf(() => readScenarioLink(hugeLink))).toMatch(
+      /^link \(#[^)]*\): plane\.resolution\[1\]: expected an integer from 2 to 8192, got 8193$/,
+    );
   });
 
   test('a file the app cannot hold as it is is refused with one line naming the field', () => {

@@ -275,6 +275,157 @@ describe('map --shard K/N and merge', () => {
   });
 });
 
+describe('grids of more than 2048 per side (long, thin strips, so that they are cheap)', () => {
+  /**
+   * The invented sample on a strip of its (u_perp, u_z) plane in its CAF and F regions: their
+   * boundary (at u_perp near -0.125, whatever u_z) runs along a tall strip and across a wide one.
+   */
+  const strip = (nx: number, ny: number, x: [number, number], y: [number, number]) => {
+    const document = sampleMapDocument(nx, ny);
+    Object.assign(document.plane.x, { from: x[0], to: x[1] });
+    Object.assign(document.plane.y, { from: y[0], to: y[1] });
+    return document;
+  };
+  /** `map --out` of the whole Map into single.json and single.csv, one thread. */
+  const single = (name: string) => {
+    for (const format of ['json', 'csv']) {
+      expectOk(
+        fourfold(
+          'map',
+          '--model',
+          path(`${name}-model.json`),
+          '--threads',
+          '1',
+          '--out',
+          path(`${name}-single.${format}`),
+        ),
+      );
+    }
+  };
+  /** merge of the given parts into JSON and CSV: the single run's files, byte for byte. */
+  const expectMergedAsSingle = (name: string, parts: string[]) => {
+    for (const format of ['json', 'csv']) {
+      expectOk(fourfold('merge', '--out', path(`${name}.${format}`), ...parts.map(path)));
+      expect(bytes(`${name}.${format}`).equals(bytes(`${name}-single.${format}`))).toBe(true);
+    }
+  };
+
+  beforeAll(() => {
+    writeFileSync(
+      path('tall-model.json'),
+      JSON.stringify(strip(2, 2100, [-0.3, 0.05], [0.2, 1.5])),
+    );
+    writeFileSync(path('wide-model.json'), JSON.stringify(strip(2100, 2, [-0.6, 0.3], [0.4, 0.6])));
+  });
+
+  test('2 x 2100 in 3 shards (17 rows of coarse cells of 128 pixel rows), merged: the single run in JSON and CSV, byte for byte, its boundary whole across both seams', () => {
+    single('tall');
+    const run = spawnSync(
+      'sh',
+      [
+        '-c',
+        `printf '%s\\n' 3 1 2 | xargs -P 2 -I {} "${process.execPath}" fourfold.mjs map --model "${path('tall-model.json')}" --shard {}/3 --threads 1 --out "${path('tall-{}.json')}"`,
+      ],
+      { cwd: repoRoot, encoding: 'utf8' },
+    );
+    expect(run.stderr).toBe('');
+    expect(run.status).toBe(0);
+    const rows = [1, 2, 3].map(
+      (k) =>
+        (
+          JSON.parse(
+            readFileSync(path(`tall-${k}.json`), 'utf8')
+              .split('\n')[0]!
+              .replace(/,$/, '}'),
+          ) as { rows: [number, number] }
+        ).rows,
+    );
+    expect(rows).toEqual([
+      [0, 640],
+      [640, 1408],
+      [1408, 2100],
+    ]);
+    expectMergedAsSingle('tall', ['tall-3.json', 'tall-1.json', 'tall-2.json']);
+    const map = JSON.parse(bytes('tall.json').toString('utf8')) as {
+      y: number[];
+      boundaries: { between: string[]; points: [number, number][] }[];
+    };
+    // One polyline from the bottom of the strip to its top, through both seams.
+    expect(map.boundaries.map((b) => [b.between.join('|'), b.points.length])).toEqual([
+      ['CAF|F', 2100],
+    ]);
+    const ys = map.boundaries[0]!.points.map(([, y]) => y);
+    expect(Math.min(...ys)).toBe(map.y[0]);
+    expect(Math.max(...ys)).toBe(map.y[2099]);
+  }, 300_000);
+
+  test('2100 x 2 in one shard (a single row of coarse cells), merged: the single run in JSON and CSV, byte for byte', () => {
+    single('wide');
+    expectOk(
+      fourfold(
+        'map',
+        '--model',
+        path('wide-model.json'),
+        '--shard',
+        '1/1',
+        '--threads',
+        '1',
+        '--out',
+        path('wide-1.json'),
+      ),
+    );
+    expectMergedAsSingle('wide', ['wide-1.json']);
+    const map = JSON.parse(bytes('wide.json').toString('utf8')) as { phases: { label: string }[] };
+    expect(map.phases.map((p) => p.label).sort()).toEqual(['CAF', 'F']);
+  }, 300_000);
+
+  test('what holds a whole Map (a figure, a series) refuses above 2048 per side, and any side above 8192 is refused, in one line', () => {
+    expectRefused(
+      fourfold('map', '--model', path('tall-model.json'), '--out', path('tall.svg')),
+      2,
+      ['plane.resolution[1]: 2100 is more than a figure draws (at most 2048 per side)', '.csv'],
+    );
+    expectRefused(fourfold('merge', '--out', path('wide.svg'), path('wide-1.json')), 2, [
+      'plane.resolution[0]: 2100 is more than a figure draws (at most 2048 per side)',
+    ]);
+    expectRefused(
+      fourfold(
+        'series',
+        '--model',
+        path('wide-model.json'),
+        '--vary',
+        'zeeman',
+        '--values',
+        '0.4,0.5',
+        '--out',
+        path('wide-series'),
+      ),
+      2,
+      ['plane.resolution[0]: 2100 is more than a series draws in its figure', '--shard K/N'],
+    );
+    expectRefused(
+      fourfold(
+        'map',
+        '--model',
+        path('wide-model.json'),
+        '--shard',
+        '1/2',
+        '--out',
+        path('p.json'),
+      ),
+      2,
+      ['a 2100 x 2 map has 1 row of coarse cells', 'use 1 shard'],
+    );
+    writeFileSync(path('huge-model.json'), JSON.stringify(strip(8193, 2, [0, 1], [0, 1])));
+    expectRefused(fourfold('map', '--model', path('huge-model.json'), '--out', path('h.csv')), 1, [
+      'plane.resolution[0]: expected an integer from 2 to 8192, got 8193',
+    ]);
+    for (const name of ['tall.svg', 'wide.svg', 'wide-series', 'p.json', 'h.csv']) {
+      expect(() => statSync(path(name))).toThrow();
+    }
+  });
+});
+
 describe('series of Maps', () => {
   const values = '0.2,0.5,0.8';
   /** `series` of the small sample over three Zeeman energies. */

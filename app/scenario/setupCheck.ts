@@ -1,4 +1,4 @@
-import { MAX_RESOLUTION, ModelError } from '../../solver/index';
+import { MAX_RESOLUTION, MAX_WHOLE_RESOLUTION, ModelError } from '../../solver/index';
 import { physicalProblem, rangeProblem } from './physical';
 import { setupToMapInput } from './scenario';
 import type { Setup } from './setup';
@@ -6,7 +6,7 @@ import type { Setup } from './setup';
 /**
  * Largest grid side the browser maps. Each pixel keeps its state (about 400 bytes) in two grids
  * used in turn, so 512 x 512 takes about 200 MB of the page's memory; the command line
- * (`npm run map`) goes up to the solver's MAX_RESOLUTION.
+ * (`npm run map`) goes up to the solver's MAX_RESOLUTION (MAX_WHOLE_RESOLUTION for a figure).
  */
 export const APP_MAX_RESOLUTION = 512;
 
@@ -15,7 +15,7 @@ export function resolutionProblem(side: number): string | null {
   if (!Number.isInteger(side)) return 'must be a whole number';
   if (side < 2) return 'at least 2 points per side';
   if (side > APP_MAX_RESOLUTION) {
-    return `at most ${APP_MAX_RESOLUTION} in the browser (a larger map would not fit in a page's memory); npm run map takes up to ${MAX_RESOLUTION}`;
+    return `at most ${APP_MAX_RESOLUTION} in the browser (a larger map would not fit in a page's memory); npm run map takes up to ${MAX_RESOLUTION} (${MAX_WHOLE_RESOLUTION} for a figure)`;
   }
   return null;
 }
