@@ -12,6 +12,30 @@ function pairKey(c: Crossing): string {
 }
 
 /**
+ * The grid cells (four pixel centres; cell p = j nx + i has pixel p at its lower left) with a
+ * crossing on a side, ascending: the only cells that can link two crossings, so that a large
+ * grid is not scanned cell by cell. A horizontal edge (2p) is the bottom of cell p and the top
+ * of the cell below it; a vertical edge (2p + 1) the left of cell p and the right of the cell to
+ * its left.
+ */
+function cellsWithCrossings(crossings: readonly Crossing[], nx: number, ny: number): number[] {
+  const cells = new Set<number>();
+  for (const { edge } of crossings) {
+    const p = edge >> 1;
+    const i = p % nx;
+    const j = (p - i) / nx;
+    if (edge % 2 === 0) {
+      if (j + 1 < ny) cells.add(p);
+      if (j > 0) cells.add(p - nx);
+    } else {
+      if (i + 1 < nx) cells.add(p);
+      if (i > 0) cells.add(p - 1);
+    }
+  }
+  return [...cells].sort((a, b) => a - b);
+}
+
+/**
  * Joins edge crossings into polylines, marching-squares style: inside each grid cell (four pixel
  * centres) the crossings of the same label pair are linked, two by two around the cell; chains of
  * links become polylines, split where the transition order changes. Polylines end next to triple
@@ -22,24 +46,21 @@ export function joinBoundaries(crossings: readonly Crossing[], nx: number, ny: n
   const byEdge = new Map<number, number[]>();
   crossings.forEach((c, index) => byEdge.set(c.edge, [...(byEdge.get(c.edge) ?? []), index]));
   const links: number[][] = crossings.map(() => []);
-  for (let j = 0; j + 1 < ny; j++) {
-    for (let i = 0; i + 1 < nx; i++) {
-      const p = j * nx + i;
-      // Around the cell: bottom, right, top, left.
-      const around = [2 * p, 2 * (p + 1) + 1, 2 * (p + nx), 2 * p + 1].flatMap(
-        (edge) => byEdge.get(edge) ?? [],
-      );
-      if (around.length < 2) continue;
-      const groups = new Map<string, number[]>();
-      for (const k of around) {
-        const key = pairKey(crossings[k]!);
-        groups.set(key, [...(groups.get(key) ?? []), k]);
-      }
-      for (const members of groups.values()) {
-        for (let m = 0; m + 1 < members.length; m += 2) {
-          links[members[m]!]!.push(members[m + 1]!);
-          links[members[m + 1]!]!.push(members[m]!);
-        }
+  for (const p of cellsWithCrossings(crossings, nx, ny)) {
+    // Around the cell: bottom, right, top, left.
+    const around = [2 * p, 2 * (p + 1) + 1, 2 * (p + nx), 2 * p + 1].flatMap(
+      (edge) => byEdge.get(edge) ?? [],
+    );
+    if (around.length < 2) continue;
+    const groups = new Map<string, number[]>();
+    for (const k of around) {
+      const key = pairKey(crossings[k]!);
+      groups.set(key, [...(groups.get(key) ?? []), k]);
+    }
+    for (const members of groups.values()) {
+      for (let m = 0; m + 1 < members.length; m += 2) {
+        links[members[m]!]!.push(members[m + 1]!);
+        links[members[m + 1]!]!.push(members[m]!);
       }
     }
   }

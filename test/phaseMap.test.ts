@@ -197,4 +197,42 @@ describe('boundary polylines', () => {
       'continuous',
     ]);
   });
+
+  test('a line across the whole grid (its end cells on the border) and a loop around one pixel are joined whole', () => {
+    const nx = 5;
+    const crossing = (edge: number, x: number, y: number): Crossing => ({
+      edge,
+      x,
+      y,
+      near: 'A',
+      far: 'B',
+      order: 'first',
+    });
+    // Between pixel rows 1 and 2, on the vertical edge of every column, the last one included.
+    const line = [4, 0, 2, 1, 3].map((i) => crossing(2 * (1 * nx + i) + 1, i, 1.5));
+    expect(joinBoundaries(line, nx, 3)).toEqual([
+      {
+        between: ['A', 'B'],
+        order: 'first',
+        points: [
+          [4, 1.5],
+          [3, 1.5],
+          [2, 1.5],
+          [1, 1.5],
+          [0, 1.5],
+        ],
+      },
+    ]);
+    // Around pixel (2, 2): its left, right, lower and upper edges; the loop closes on its start.
+    const loop = [
+      crossing(2 * (2 * nx + 1), 1.5, 2),
+      crossing(2 * (2 * nx + 2), 2.5, 2),
+      crossing(2 * (1 * nx + 2) + 1, 2, 1.5),
+      crossing(2 * (2 * nx + 2) + 1, 2, 2.5),
+    ];
+    const [ring] = joinBoundaries(loop, nx, 5);
+    expect(ring!.points).toHaveLength(5);
+    expect(ring!.points[4]).toEqual(ring!.points[0]);
+    expect(new Set(ring!.points.map((q) => q.join())).size).toBe(4);
+  });
 });
