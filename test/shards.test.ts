@@ -45,6 +45,35 @@ function expectRefused(run: Run, status: number, mentions: string[]): void {
   for (const word of mentions) expect(lines[0]).toContain(word);
 }
 
+/**
+ * `map --shard K/N --threads 1` of `model` for each K of `shards`, `jobs` at a time through
+ * `xargs -P` (as a scheduler starts them), into `part` with {} standing for K.
+ */
+function shardsSideBySide(
+  model: string,
+  shards: number[],
+  n: number,
+  jobs: number,
+  part: string,
+): void {
+  const run = spawnSync(
+    'sh',
+    [
+      '-c',
+      `printf '%s\\n' ${shards.join(' ')} | xargs -P ${jobs} -I {} "${process.execPath}" fourfold.mjs map --model "${model}" --shard {}/${n} --threads 1 --out "${part}"`,
+    ],
+    { cwd: repoRoot, encoding: 'utf8' },
+  );
+  expect(run.stderr).toBe('');
+  expect(run.status).toBe(0);
+}
+
+/** The pixel rows [first, end) a part's first line names. */
+function partRows(file: string): [number, number] {
+  const first = readFileSync(file, 'utf8').split('\n')[0]!;
+  return (JSON.parse(first.replace(/,$/, '}')) as { rows: [number, number] }).rows;
+}
+
 let dir = '';
 const path = (name: string) => join(dir, name);
 const bytes = (name: string) => readFileSync(path(name));
@@ -69,16 +98,7 @@ describe('map --shard K/N and merge', () => {
   }, 300_000);
 
   test('3 shards run side by side through xargs -P, merged in any order: the single run, byte for byte', () => {
-    const run = spawnSync(
-      'sh',
-      [
-        '-c',
-        `printf '%s\\n' 1 2 3 | xargs -P 3 -I {} "${process.execPath}" fourfold.mjs map --model "${path('model.json')}" --shard {}/3 --threads 1 --out "${path('part-{}.json')}"`,
-      ],
-      { cwd: repoRoot, encoding: 'utf8' },
-    );
-    expect(run.stderr).toBe('');
-    expect(run.status).toBe(0);
+    shardsSideBySide(path('model.json'), [1, 2, 3], 3, 3, path('part-{}.json'));
     // A boundary crosses the seams: merge had crossings to locate there.
     const seams = readFileSync(path('part-2.json'), 'utf8')
       .split('\n')
@@ -119,16 +139,7 @@ describe('map --shard K/N and merge', () => {
         fourfold('map', '--model', path('random-model.json'), '--out', path(`random.${format}`)),
       );
     }
-    const run = spawnSync(
-      'sh',
-      [
-        '-c',
-        `printf '%s\\n' 5 4 3 2 1 | xargs -P 2 -I {} "${process.execPath}" fourfold.mjs map --model "${path('random-model.json')}" --shard {}/5 --threads 1 --out "${path('random-part-{}.json')}"`,
-      ],
-      { cwd: repoRoot, encoding: 'utf8' },
-    );
-    expect(run.stderr).toBe('');
-    expect(run.status).toBe(0);
+    shardsSideBySide(path('random-model.json'), [5, 4, 3, 2, 1], 5, 2, path('random-part-{}.json'));
     const whole = JSON.parse(readFileSync(path('random.json'), 'utf8')) as {
       y: number[];
       phases: { label: string }[];
@@ -138,16 +149,7 @@ describe('map --shard K/N and merge', () => {
     // Seams between the parts' pixel rows; the F | CAF and CAF | AF boundaries run along two of
     // them, so points of them lie on edges across a seam (between the centres of its two pixel
     // rows), which only merge locates.
-    const seams = [2, 3, 4, 5].map(
-      (k) =>
-        (
-          JSON.parse(
-            readFileSync(path(`random-part-${k}.json`), 'utf8')
-              .split('\n')[0]!
-              .replace(/,$/, '}'),
-          ) as { rows: [number, number] }
-        ).rows[0],
-    );
+    const seams = [2, 3, 4, 5].map((k) => partRows(path(`random-part-${k}.json`))[0]);
     expect(seams).toEqual([6, 12, 18, 24]);
     const acrossSeam = (j: number) => {
       const [below, above] = [whole.y[j - 1]!, whole.y[j]!].sort((a, b) => a - b);
@@ -320,27 +322,8 @@ describe('grids of more than 2048 per side (long, thin strips, so that they are 
 
   test('2 x 2100 in 3 shards (17 rows of coarse cells of 128 pixel rows), merged: the single run in JSON and CSV, byte for byte, its boundary whole across both seams', () => {
     single('tall');
-    const run = spawnSync(
-      'sh',
-      [
-        '-c',
-        `printf '%s\\n' 3 1 2 | xargs -P 2 -I {} "${process.execPath}" fourfold.mjs map --model "${path('tall-model.json')}" --shard {}/3 --threads 1 --out "${path('tall-{}.json')}"`,
-      ],
-      { cwd: repoRoot, encoding: 'utf8' },
-    );
-    expect(run.stderr).toBe('');
-    expect(run.status).toBe(0);
-    const rows = [1, 2, 3].map(
-      (k) =>
-        (
-          JSON.parse(
-            readFileSync(path(`tall-${k}.json`), 'utf8')
-              .split('\n')[0]!
-              .replace(/,$/, '}'),
-          ) as { rows: [number, number] }
-        ).rows,
-    );
-    expect(rows).toEqual([
+    shardsSideBySide(path('tall-model.json'), [3, 1, 2], 3, 2, path('tall-{}.json'));
+    expect([1, 2, 3].map((k) => partRows(path(`tall-${k}.json`)))).toEqual([
       [0, 640],
       [640, 1408],
       [1408, 2100],
