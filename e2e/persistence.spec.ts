@@ -139,3 +139,23 @@ test('a grid of 2048 in the autosave is cut to 512, and the notice names the aut
   expect(page.url()).toContain('#s=');
   expect(await keptAutosaves(page)).toEqual({});
 });
+
+test('a link with the largest grid of the command line (8192) is cut to 512; one of 8193 is refused in one line, and the setup stays', async ({
+  page,
+}) => {
+  await page.goto(`/${scenarioHash({ ...DEMO_SETUP, zeeman: 0.9, resolution: [8192, 40] })}`);
+  const notice = page.getByTestId('notice');
+  await expect(notice).toHaveText(
+    'Setup from the link: resolution 8192 × 40 reduced to 512 × 40, the most the browser maps (npm run map takes the full grid).',
+  );
+  await expect(page.getByTestId('resolution-nx')).toHaveValue('512');
+  await mapDone(page);
+  await page.goto(`/${scenarioHash({ ...DEMO_SETUP, zeeman: 0.3, resolution: [40, 8193] })}`);
+  await expect(notice).toContainText(
+    'plane.resolution[1]: expected an integer from 2 to 8192, got 8193. The setup is unchanged.',
+  );
+  expect(await notice.textContent()).not.toContain('\n');
+  await expect(page.getByTestId('zeeman')).toHaveValue('0.9');
+  await expect(page.getByTestId('resolution-nx')).toHaveValue('512');
+  await mapDone(page);
+});
