@@ -256,6 +256,7 @@ describe('the Map in bands of coarse-cell rows', () => {
         order: new Float64Array(15 * nodes.length),
         gap: new Float64Array(nodes.length),
         labels: Array.from(nodes, () => 'P0'),
+        searched: 0,
       }),
       cells: async (_input, coarse, cells) => {
         const [i0, i1] = [
