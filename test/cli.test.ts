@@ -118,7 +118,7 @@ describe('fourfold CLI: bad input ends in one line naming the problem (README, C
     for (const [name, resolution, field] of [
       ['res-1.json', 1, 'plane.resolution'],
       ['res-frac.json', [24, 2.5], 'plane.resolution[1]'],
-      ['res-big.json', [5000, 24], 'plane.resolution[0]'],
+      ['res-big.json', [8193, 24], 'plane.resolution[0]'],
     ] as const) {
       const path = file(name, { ...INTERFACES_EXAMPLE, plane: { ...PLANE_24, resolution } });
       const out = join(dir, `${name}.out.json`);
