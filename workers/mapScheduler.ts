@@ -146,7 +146,11 @@ export class MapScheduler {
     const width = grid.cols.length;
     const height = grid.rows.length;
     const stride = grid.cols.length > 1 ? grid.cols[1]! - grid.cols[0]! : 1;
-    const even = (k: number, n: number) => k % 2 === 0 || k === n - 1;
+    // The first look takes every second node; with no map to continue from (the page just
+    // opened, or a new grid) every fourth, since those are full searches on workers that are
+    // still warming up.
+    const spacing = warmSource === null ? 4 : 2;
+    const even = (k: number, n: number) => k % spacing === 0 || k === n - 1;
     const first: number[] = [];
     const second: number[] = [];
     for (let b = 0; b < height; b++) {
@@ -189,7 +193,7 @@ export class MapScheduler {
     await solveNodes(
       first,
       0,
-      stride,
+      (stride * spacing) / 2,
       quick,
       (ids) => framesOf(warmSource, ids),
       warmSource === null ? undefined : (ids) => previewFrames(grid, warmSource, ids),
