@@ -135,6 +135,14 @@ export function tickLabelFormat(from: number, to: number, count = 5): (value: nu
   return (value) => f(value);
 }
 
+/** Width of the widest tick number of an axis from `from` to `to` with about `count` ticks. */
+export function widestTickLabel(from: number, to: number, count: number, fontSize: number): number {
+  const format = tickLabelFormat(from, to, count);
+  return Math.max(
+    ...linearTicks(from, to, count).map((v) => estimateTextWidth(format(v), fontSize)),
+  );
+}
+
 /** A linear map from data to figure coordinates (d3's scaleLinear fits). */
 export interface AxisScale {
   (value: number): number;

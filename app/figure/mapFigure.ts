@@ -16,8 +16,7 @@ import {
   figureDocument,
   figureTitleSvg,
   svgNumber,
-  tickLabelFormat,
-  linearTicks,
+  widestTickLabel,
   wrapWords,
   type AxisScale,
 } from './figureStyle';
@@ -260,10 +259,7 @@ export function mapFigureSvg(map: FigureMap, options: MapFigureOptions = {}): st
   const width = column.widthPt;
 
   // Margins from the tick numbers' widths and the titles (axisSvg's default offsets).
-  const yFormat = tickLabelFormat(ay.from, ay.to, 5);
-  const widestY = Math.max(
-    ...linearTicks(ay.from, ay.to, 5).map((v) => estimateTextWidth(yFormat(v), fs)),
-  );
+  const widestY = widestTickLabel(ay.from, ay.to, 5, fs);
   const gap = 0.35 * fs;
   const left = Math.ceil(gap + widestY + 0.85 * fs + 0.9 * fs + 2);
   const right = 0.6 * fs;

@@ -12,12 +12,10 @@ import {
   FIGURE_INK,
   FIGURE_LINE,
   axisSvg,
-  estimateTextWidth,
   figureDocument,
   figureTitleSvg,
-  linearTicks,
   svgNumber,
-  tickLabelFormat,
+  widestTickLabel,
   typesetLabel,
 } from './figureStyle';
 import { LabelFills, linearScale, mapLegendSvg, mapRegionsSvg, type FigureMap } from './mapFigure';
@@ -74,20 +72,14 @@ export function seriesFigureSvg(
   const rowsOfPanels = Math.ceil(panels.length / cols);
 
   // Margins as the Map figure's, plus a title line above each panel.
-  const yFormat = tickLabelFormat(ay.from, ay.to, 4);
-  const widestY = Math.max(
-    ...linearTicks(ay.from, ay.to, 4).map((v) => estimateTextWidth(yFormat(v), small)),
-  );
+  const widestY = widestTickLabel(ay.from, ay.to, 4, small);
   const gap = 0.35 * fs;
   const left = Math.ceil(gap + widestY + 0.85 * fs + 0.9 * fs + 2);
   const right = 0.6 * fs;
   const top = title === '' ? 0.4 * fs : 2 * fs;
   const panelTitle = 1.3 * fs;
   // Room between panels for the tick numbers at the ends of neighbouring x axes.
-  const xFormat = tickLabelFormat(ax.from, ax.to, 4);
-  const widestX = Math.max(
-    ...linearTicks(ax.from, ax.to, 4).map((v) => estimateTextWidth(xFormat(v), small)),
-  );
+  const widestX = widestTickLabel(ax.from, ax.to, 4, small);
   const hGap = Math.max(0.9 * fs, widestX + 0.5 * fs);
   const vGap = Math.ceil(gap + 1.25 * small) + panelTitle;
   const bottom = Math.ceil(gap + 1.25 * small + fs + 0.6 * fs);
