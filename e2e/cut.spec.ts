@@ -1,6 +1,14 @@
 import { readFileSync } from 'node:fs';
 import { expect, test, type Page } from '@playwright/test';
-import { BUSY_MACHINE_MS, DEMO, failOnConsoleErrors, mapDone, pointAt } from './demoPage';
+import {
+  BUSY_MACHINE_MS,
+  cutDone,
+  DEMO,
+  failOnConsoleErrors,
+  mapDone,
+  pointAt,
+  typeCutLine,
+} from './demoPage';
 
 failOnConsoleErrors();
 
@@ -10,12 +18,6 @@ failOnConsoleErrors();
 // 0.6, whatever uZ is and whatever the Hartree ratios are (the CAF and F energies hold only Fock
 // couplings).
 const BOUNDARY_X = -DEMO.zeeman / 4;
-
-async function cutDone(page: Page): Promise<void> {
-  await expect(page.getByTestId('cut-status')).toHaveAttribute('data-status', 'done', {
-    timeout: BUSY_MACHINE_MS,
-  });
-}
 
 async function transitions(page: Page) {
   const items = page.getByTestId('cut').getByTestId('cut-transition');
@@ -111,10 +113,7 @@ test('a Cut typed end to end, then a tilt sweep at a pin, read their transitions
   await mapDone(page);
   const cut = page.getByTestId('cut');
   // A horizontal line at uZ = 1.5 from uPerp = -1 to 1: CAF, then F.
-  await cut.getByTestId('cut-from-x').fill('-1');
-  await cut.getByTestId('cut-from-y').fill('1.5');
-  await cut.getByTestId('cut-to-x').fill('1');
-  await cut.getByTestId('cut-to-y').fill('1.5');
+  await typeCutLine(page, ['-1', '1.5'], ['1', '1.5']);
   await cutDone(page);
   await expect(cut.getByTestId('cut-transition')).toHaveCount(1);
   const [line] = await transitions(page);

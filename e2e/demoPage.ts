@@ -34,6 +34,26 @@ export async function mapDone(page: Page): Promise<void> {
   });
 }
 
+/** Waits until the Cut's status says it is finished (`cut-status` data-status = done). */
+export async function cutDone(page: Page): Promise<void> {
+  await expect(page.getByTestId('cut-status')).toHaveAttribute('data-status', 'done', {
+    timeout: BUSY_MACHINE_MS,
+  });
+}
+
+/** Types a Cut's line into its four end fields, from (x, y) to (x, y) in plane coordinates. */
+export async function typeCutLine(
+  page: Page,
+  [fromX, fromY]: readonly [string, string],
+  [toX, toY]: readonly [string, string],
+): Promise<void> {
+  const cut = page.getByTestId('cut');
+  await cut.getByTestId('cut-from-x').fill(fromX);
+  await cut.getByTestId('cut-from-y').fill(fromY);
+  await cut.getByTestId('cut-to-x').fill(toX);
+  await cut.getByTestId('cut-to-y').fill(toY);
+}
+
 /** Page position of axis coordinates (x, y) of the plot (the demo plane is [-2, 2]^2). */
 export async function pointAt(page: Page, x: number, y: number): Promise<[number, number]> {
   const box = (await page.getByTestId('map-plot').boundingBox())!;

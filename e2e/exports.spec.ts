@@ -1,7 +1,7 @@
 import { readFileSync } from 'node:fs';
 import { expect, test, type Download, type Page } from '@playwright/test';
 import { parseCsvStrictly, parseXmlStrictly, textsOf } from '../test/strictParsers';
-import { BUSY_MACHINE_MS, failOnConsoleErrors, mapDone } from './demoPage';
+import { BUSY_MACHINE_MS, failOnConsoleErrors, mapDone, typeCutLine } from './demoPage';
 
 failOnConsoleErrors();
 
@@ -124,10 +124,7 @@ test('Map exports (SVG, PNG, CSV, JSON) of a scenario with hostile axis names an
 test('Cut exports (SVG, CSV, JSON) of a scenario with hostile axis names', async ({ page }) => {
   await openHostile(page);
   const cut = page.getByTestId('cut');
-  await cut.getByTestId('cut-from-x').fill('-1.8');
-  await cut.getByTestId('cut-from-y').fill('1.5');
-  await cut.getByTestId('cut-to-x').fill('1.5');
-  await cut.getByTestId('cut-to-y').fill('-1.8');
+  await typeCutLine(page, ['-1.8', '1.5'], ['1.5', '-1.8']);
   // Done with the line typed last (not one of the partial lines before it).
   const status = cut.getByTestId('cut-status');
   await expect(status).toHaveAttribute('data-path', 'line:-1.8,1.5:1.5,-1.8', {

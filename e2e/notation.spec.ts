@@ -1,13 +1,14 @@
 import { expect, test, type Locator, type Page } from '@playwright/test';
-import { BUSY_MACHINE_MS, failOnConsoleErrors, mapDone, pointAt } from './demoPage';
+import {
+  BUSY_MACHINE_MS,
+  cutDone,
+  failOnConsoleErrors,
+  mapDone,
+  pointAt,
+  typeCutLine,
+} from './demoPage';
 
 failOnConsoleErrors();
-
-async function cutDone(page: Page): Promise<void> {
-  await expect(page.getByTestId('cut-status')).toHaveAttribute('data-status', 'done', {
-    timeout: BUSY_MACHINE_MS,
-  });
-}
 
 /**
  * Spellings the app's one notation replaces: u⊥, u_z, E_Z, Delta_V, B⊥, E_X are typeset (a
@@ -38,10 +39,7 @@ test('one notation: the Cut runs along the swept coupling, every symbol is types
 
   // A line at fixed u_z: its horizontal axis is u⊥ from -1 to 1, not t from 0 to 1.
   const cut = page.getByTestId('cut');
-  await cut.getByTestId('cut-from-x').fill('-1');
-  await cut.getByTestId('cut-from-y').fill('1.5');
-  await cut.getByTestId('cut-to-x').fill('1');
-  await cut.getByTestId('cut-to-y').fill('1.5');
+  await typeCutLine(page, ['-1', '1.5'], ['1', '1.5']);
   await cutDone(page);
   const note = cut.getByTestId('cut-axis-note');
   await expect(note).toHaveAttribute('data-label', 'u_perp');
