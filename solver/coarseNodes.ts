@@ -1,5 +1,5 @@
 import { energyOfOrder, type Couplings } from './couplings';
-import { DEGENERACY_TOLERANCE, softDirections } from './degeneracy';
+import { DEGENERACY_TOLERANCE, discreteRepresentative, softDirections } from './degeneracy';
 import { DEFAULT_DESCENT, descend } from './localMinimise';
 import { seedLibrary } from './seeds';
 import { DescentWorkspace, frameEnergy } from './tangentSpace';
@@ -147,7 +147,9 @@ export function solveCoarseNodes(
     // The canonical point of the orbit of rotations about the field and about tau_z: nodes of
     // one region then hold the same state where it does not change (a bond-ordered state's
     // phase would otherwise differ from node to node), which lets their cells skip descents.
-    canonicaliseOrbit(frame, nf, modelSymmetry(c));
+    const symmetry = modelSymmetry(c);
+    discreteRepresentative(c, frame, symmetry);
+    canonicaliseOrbit(frame, nf, symmetry);
     descend(c, frame, DEFAULT_DESCENT, ws);
     block.frames.set(frame, 32 * n);
     const summary = summarise(c, frame, nf, scratch);

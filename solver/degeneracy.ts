@@ -1,4 +1,12 @@
-import { CHANNELS, G_COL, G_IM, G_RE, channelIndex, type Channel } from './channels';
+import {
+  CHANNELS,
+  COMMUTATION_SIGN,
+  G_COL,
+  G_IM,
+  G_RE,
+  channelIndex,
+  type Channel,
+} from './channels';
 import type { Couplings } from './couplings';
 import { isSymmetry, orbitTangent } from './goldstoneModes';
 import { choleskySolve, symmetricEigen } from './linalg';
@@ -225,16 +233,151 @@ export function softDirections(
  * `strength` (see PROBE_FIELD).
  */
 export function probeCouplings(c: Couplings, strength = PROBE_FIELD): Couplings {
+  return { ...c, eta: probeFields(c, strength, new Float64Array(16)) };
+}
+
+/**
+ * Whether the model's own one-body terms are all weaker than the probes (none at all included):
+ * the vanishing fields then choose among states that the model splits by less than they do,
+ * which a state continued from a neighbour cannot tell.
+ */
+export function weakFields(c: Couplings): boolean {
+  let largest = 0;
+  for (let k = 1; k < 16; k++) largest = Math.max(largest, Math.abs(c.eta[k]!));
+  return largest < PROBE_FIELD * c.scale;
+}
+
+/** The one-body terms of `probeCouplings(c, strength)`, written into `eta`. */
+function probeFields(c: Couplings, strength: number, eta: Float64Array): Float64Array {
   const a = strength * c.scale;
   let largest = 0;
   for (let k = 1; k < 16; k++) largest = Math.max(largest, Math.abs(c.eta[k]!));
   const amplify = largest > 0 && largest < a ? a / largest : 1;
-  const eta = new Float64Array(16);
   eta[0] = c.eta[0]!;
   for (let k = 1; k < 16; k++) eta[k] = amplify * c.eta[k]!;
   if (c.eta[3] === 0) eta[3] = eta[3]! - a / 2;
   if (c.eta[12] === 0) eta[12] = eta[12]! - a / 4;
-  return { ...c, eta };
+  return eta;
+}
+
+/** Scratch of `discreteRepresentative` (called for every Map pixel), reused between calls. */
+const imageScratch = {
+  projector: new Float64Array(32),
+  order: new Float64Array(16),
+  probe: new Float64Array(16),
+  frame: new Float64Array(32),
+  bestOrder: new Float64Array(16),
+  imageOrder: new Float64Array(16),
+  vector: new Float64Array(8),
+  seen: new Int32Array(15),
+};
+
+/**
+ * Moves `frame` (in place) to the member of its discrete family that the vanishing fields
+ * select, and returns whether it moved. Conjugating a state by one G_g (P -> G_g P G_g, a
+ * unitary) flips the sign of every o_k whose G_k anticommutes with G_g and keeps the rest, so
+ * the quadratic part of the energy, 1/2 sum kappa_k o_k^2, is unchanged: the image is another
+ * exact critical point of the same curvature, at the same energy whenever eta.o is. Such
+ * images (the two sublattice polarisations of a CDW without Delta_V, say) are isolated minima
+ * that a search can stop in either of, and a continued Map pixel keeps whichever its neighbour
+ * had. Among the state and its images of the same energy (to DEGENERACY_TOLERANCE), the one
+ * lowest under the fields of `probeCouplings` wins (to first order, eta_probe.o), then the
+ * larger components in CANONICAL_ORDER after `canonicaliseOrbit`. The G's form a group up to
+ * phases, so every image of an image is an image: the choice is the same from any member.
+ */
+export function discreteRepresentative(
+  c: Couplings,
+  frame: Float64Array,
+  symmetry: ModelSymmetry,
+): boolean {
+  const s = imageScratch;
+  const nf = c.nf;
+  const o = orderOfProjector(projectorOf(frame, nf, s.projector), s.order);
+  const tolerance = DEGENERACY_TOLERANCE * c.scale;
+  let probe: Float64Array | undefined;
+  let pick = 0;
+  let pickProbe = 0;
+  /** Whether the canonical order of the pick is in `s.bestOrder`. */
+  let pickKnown = false;
+  const seen = s.seen;
+  let seenCount = 0;
+  for (let g = 1; g < 16; g++) {
+    // Energy change of the image: -2 sum over anticommuting k of eta_k o_k; moved by it: the
+    // size of the components it flips.
+    let change = 0;
+    let moved = 0;
+    let flips = 0;
+    for (let k = 1; k < 16; k++) {
+      if (COMMUTATION_SIGN[16 * g + k]! > 0) continue;
+      change -= 2 * c.eta[k]! * o[k]!;
+      moved = Math.max(moved, Math.abs(o[k]!));
+      if (Math.abs(o[k]!) > ORDER_TOLERANCE) flips |= 1 << k;
+    }
+    if (moved <= ORDER_TOLERANCE || Math.abs(change) > tolerance) continue;
+    // Several G's that flip the same components give the same image.
+    if (seen.subarray(0, seenCount).includes(flips)) continue;
+    seen[seenCount++] = flips;
+    probe ??= probeFields(c, PROBE_FIELD, s.probe);
+    let probeChange = 0;
+    for (let k = 1; k < 16; k++) {
+      if (COMMUTATION_SIGN[16 * g + k]! < 0) probeChange -= 2 * probe[k]! * o[k]!;
+    }
+    if (probeChange < pickProbe - tolerance) {
+      pick = g;
+      pickProbe = probeChange;
+      pickKnown = false;
+    } else if (probeChange <= pickProbe + tolerance) {
+      if (!pickKnown) canonicalImageOrder(frame, nf, pick, symmetry, s.bestOrder);
+      pickKnown = true;
+      const image = canonicalImageOrder(frame, nf, g, symmetry, s.imageOrder);
+      if (comesFirst(image, s.bestOrder)) {
+        pick = g;
+        s.bestOrder.set(image);
+      }
+    }
+  }
+  if (pick === 0) return false;
+  conjugateFrame(frame, pick, frame);
+  return true;
+}
+
+/** Order parameters of the image of `frame` by G_g (0: itself) at its orbit's canonical point. */
+function canonicalImageOrder(
+  frame: Float64Array,
+  nf: number,
+  g: number,
+  symmetry: ModelSymmetry,
+  out: Float64Array,
+): Float64Array {
+  const s = imageScratch;
+  conjugateFrame(frame, g, s.frame);
+  canonicaliseOrbit(s.frame, nf, symmetry);
+  return orderOfProjector(projectorOf(s.frame, nf, s.projector), out);
+}
+
+/** Whether order a comes before b: the first component in CANONICAL_ORDER that differs is larger. */
+function comesFirst(a: Float64Array, b: Float64Array): boolean {
+  for (const k of CANONICAL_ORDER) {
+    const d = a[k]! - b[k]!;
+    if (Math.abs(d) > 1e-6) return d > 0;
+  }
+  return false;
+}
+
+/** Every vector u of `frame` replaced by G_g u (g = 0: copied), into `out` (may be `frame`). */
+function conjugateFrame(frame: Float64Array, g: number, out: Float64Array): void {
+  const u = imageScratch.vector;
+  for (let v = 0; v < 4; v++) {
+    const base = 8 * v;
+    for (let p = 0; p < 8; p++) u[p] = frame[base + p]!;
+    for (let r = 0; r < 4; r++) {
+      const col = G_COL[4 * g + r]!;
+      const gr = G_RE[4 * g + r]!;
+      const gi = G_IM[4 * g + r]!;
+      out[base + 2 * r] = gr * u[2 * col]! - gi * u[2 * col + 1]!;
+      out[base + 2 * r + 1] = gr * u[2 * col + 1]! + gi * u[2 * col]!;
+    }
+  }
 }
 
 /** A degenerate ground state's representative and, when asked, what the family holds. */
@@ -257,11 +400,7 @@ interface Candidate {
 /** Whether state a is preferred to b: fewer order-parameter groups, then CANONICAL_ORDER. */
 function preferred(a: Candidate, b: Candidate): boolean {
   if (a.groups !== b.groups) return a.groups < b.groups;
-  for (const k of CANONICAL_ORDER) {
-    const d = a.order[k]! - b.order[k]!;
-    if (Math.abs(d) > 1e-6) return d > 0;
-  }
-  return false;
+  return comesFirst(a.order, b.order);
 }
 
 /**

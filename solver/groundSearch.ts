@@ -1,10 +1,12 @@
 import type { Couplings } from './couplings';
 import {
   DEGENERACY_TOLERANCE,
+  discreteRepresentative,
   sameState,
   selectRepresentative,
   type Selection,
 } from './degeneracy';
+import { modelSymmetry } from './symmetry';
 import {
   DEFAULT_MINIMISE,
   minimiseEnergy,
@@ -42,5 +44,9 @@ export function searchGroundState(
     others.push(m.frame);
   }
   const selection = selectRepresentative(c, search.frame, search.energy, others);
-  return { frame: selection.frame, energy: search.energy, minima: search.minima, selection };
+  // A mirror image of the member (another isolated minimum at the same energy, which the search
+  // may not have visited): the one the vanishing fields select.
+  const frame = Float64Array.from(selection.frame);
+  discreteRepresentative(c, frame, modelSymmetry(c));
+  return { frame, energy: search.energy, minima: search.minima, selection };
 }

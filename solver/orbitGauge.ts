@@ -50,13 +50,13 @@ function rotateFrame(frame: Float64Array, alpha: number, beta: number): void {
   }
 }
 
+/** Scratch of `canonicaliseOrbit` (called for every Map pixel), reused between calls. */
+const scratch = { projector: new Float64Array(32), order: new Float64Array(16) };
+
 /** Moves `frame` (in place) to the canonical point of its symmetry orbit. */
 export function canonicaliseOrbit(frame: Float64Array, nf: number, symmetry: ModelSymmetry): void {
   if (!symmetry.spinRotationAboutField && !symmetry.valleyRotation) return;
-  const order = orderOfProjector(
-    projectorOf(frame, nf, new Float64Array(32)),
-    new Float64Array(16),
-  );
+  const order = orderOfProjector(projectorOf(frame, nf, scratch.projector), scratch.order);
   // exp(-i alpha sigma_z / 2) turns the spin by alpha about z; undo the present angle.
   const alpha = symmetry.spinRotationAboutField ? -firstAngle(order, SPIN_PAIRS) : 0;
   const beta = symmetry.valleyRotation ? -firstAngle(order, VALLEY_PAIRS) : 0;

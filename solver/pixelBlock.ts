@@ -1,5 +1,13 @@
 import { energyOfOrder, type Couplings } from './couplings';
-import { DEGENERACY_TOLERANCE, sameState, settleDegenerate, softDirections } from './degeneracy';
+import {
+  DEGENERACY_TOLERANCE,
+  discreteRepresentative,
+  sameState,
+  settleDegenerate,
+  softDirections,
+  weakFields,
+} from './degeneracy';
+import { canonicaliseOrbit } from './orbitGauge';
 import { FrozenStates, MAX_CELL_STATES } from './frozenStates';
 import { searchGroundState } from './groundSearch';
 import { orderOfProjector, projectorOf } from './state';
@@ -470,7 +478,7 @@ class PixelSolver {
       // tolerance (E_Z = 1e-6 near the KD/CAF line, energies 3e-13 apart), a continued KD
       // keeps its label while the search's representative is CAF.
       const soft = !this.rigid && softDirections(c, this.best, this.ws, this.fresh) > 0;
-      if (ties.length > 0 || orbitTie || soft) {
+      if (ties.length > 0 || soft || (orbitTie && weakFields(c))) {
         this.best.set(settleDegenerate(c, [this.best, ...ties], this.energy, this.ws));
         this.at(i, j);
       }
@@ -480,6 +488,7 @@ class PixelSolver {
     if (lower !== undefined) warmStarts.push(lower);
     const search = searchGroundState(c, DEFAULT_MINIMISE, { warmStarts });
     this.best.set(search.frame);
+    this.rigid = false;
     // The search polishes its winner only to the search tolerance; bring it to the same
     // convergence as a continued pixel.
     this.at(i, j);
@@ -593,11 +602,14 @@ class PixelSolver {
             continue;
           }
           const other = store.frames.subarray(32 * slot, 32 * slot + 32);
-          // Branches that reached one state are no tie. Two members of one orbit of the model's
-          // exact rotations are one state too, but the pixel is still settled (once, from its
-          // own state): where the orbit meets another family at one energy, that is what finds
-          // the member the single-point search reports. Any other state at the same energy is a
-          // tie and is settled with it.
+          // Branches that reached one state are no tie, nor are two members of one orbit of the
+          // model's exact rotations: `store` puts every pixel at the orbit point the
+          // single-point search reports, and where the orbit meets another family at one
+          // energy, the state has a soft direction and `certify` settles it. Under fields weaker
+          // than the probes, another family can lie within the probes' reach without a soft
+          // direction (E_Z = 1e-6 near the KD/CAF line), so there the pixel is still settled,
+          // once, from its own state. Any other state at the same energy is a tie and is
+          // settled with it.
           if (sameState(other, this.best, this.nf, TIE_DISTANCE)) continue;
           if (sameState(other, this.best, this.nf, TIE_DISTANCE, modelSymmetry(this.couplings!))) {
             orbitTie = true;
@@ -623,9 +635,20 @@ class PixelSolver {
     return this.branchBuffers;
   }
 
-  /** Writes the state just solved into slot n of the block. */
+  /**
+   * Writes the state just solved into slot n of the block, at the member of its degenerate
+   * family the single-point search reports: the mirror image the vanishing fields select
+   * (`discreteRepresentative`) and the canonical point of its orbit (`canonicaliseOrbit`), as
+   * `searchGroundState` and the coarse nodes do. A rigid cell's pixels hold its corner node's
+   * state, which is there already.
+   */
   store(block: PixelBlock, n: number): void {
     const s = this.scratch;
+    if (!this.rigid) {
+      const symmetry = modelSymmetry(this.couplings!);
+      discreteRepresentative(this.couplings!, this.best, symmetry);
+      canonicaliseOrbit(this.best, this.nf, symmetry);
+    }
     const summary = summarise(this.couplings!, this.best, this.nf, s);
     block.frames.set(this.best, 32 * n);
     block.energy[n] = summary.energy;
