@@ -260,6 +260,13 @@ function probeFields(c: Couplings, strength: number, eta: Float64Array): Float64
   return eta;
 }
 
+/** `ANTICOMMUTING[g]` has bit k set when G_g and G_k anticommute. */
+const ANTICOMMUTING = Int32Array.from({ length: 16 }, (_, g) => {
+  let mask = 0;
+  for (let k = 1; k < 16; k++) if (COMMUTATION_SIGN[16 * g + k]! < 0) mask |= 1 << k;
+  return mask;
+});
+
 /** Scratch of `discreteRepresentative` (called for every Map pixel), reused between calls. */
 const imageScratch = {
   projector: new Float64Array(32),
@@ -301,6 +308,13 @@ export function discreteRepresentative(
   let pickKnown = false;
   const seen = s.seen;
   let seenCount = 0;
+  // Images that a rotation by pi the model keeps also gives lie on the state's own orbit: the
+  // same state (G_0z: about the field; G_z0: about tau_z; G_zz: both).
+  let present = 0;
+  for (let k = 1; k < 16; k++) if (Math.abs(o[k]!) > ORDER_TOLERANCE) present |= 1 << k;
+  const spin = symmetry.spinRotationAboutField ? ANTICOMMUTING[3]! & present : -1;
+  const valley = symmetry.valleyRotation ? ANTICOMMUTING[12]! & present : -1;
+  const both = spin >= 0 && valley >= 0 ? ANTICOMMUTING[15]! & present : -1;
   for (let g = 1; g < 16; g++) {
     // Energy change of the image: -2 sum over anticommuting k of eta_k o_k; moved by it: the
     // size of the components it flips.
@@ -311,9 +325,10 @@ export function discreteRepresentative(
       if (COMMUTATION_SIGN[16 * g + k]! > 0) continue;
       change -= 2 * c.eta[k]! * o[k]!;
       moved = Math.max(moved, Math.abs(o[k]!));
-      if (Math.abs(o[k]!) > ORDER_TOLERANCE) flips |= 1 << k;
     }
+    flips = ANTICOMMUTING[g]! & present;
     if (moved <= ORDER_TOLERANCE || Math.abs(change) > tolerance) continue;
+    if (flips === spin || flips === valley || flips === both) continue;
     // Several G's that flip the same components give the same image.
     if (seen.subarray(0, seenCount).includes(flips)) continue;
     seen[seenCount++] = flips;

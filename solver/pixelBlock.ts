@@ -19,7 +19,7 @@ import { presentGroupCount } from './orderParameters';
 import { ORDER_TOLERANCE } from './phaseLabel';
 import { modelSymmetry } from './symmetry';
 import { axisValue, PlaneCouplings, type MapInput } from './plane';
-import { PixelScratch, summarise } from './stateSummary';
+import { PixelScratch, summarise, summariseOrder } from './stateSummary';
 
 /**
  * Per-pixel results for the pixel rectangle [i0, i0 + width) x [j0, j0 + height), row-major
@@ -127,9 +127,10 @@ export function solveCells(
       solver.prepareCell(a, b, iFirst, iLast, jFirst, jLast);
       if (solver.rigidCell(a, b)) {
         const node = solver.nodeFrame(b * coarse.cols.length + a);
+        const order = solver.nodeOrder(b * coarse.cols.length + a);
         for (let j = jFirst; j < jLast; j++) {
           for (let i = iFirst; i < iLast; i++) {
-            solver.fromRigid(i, j, node);
+            solver.fromRigid(i, j, node, order);
             solver.certify(i, j, block);
             solver.store(block, (j - j0) * width + (i - i0));
           }
@@ -178,6 +179,12 @@ const PIXEL_TOLERANCE = 1e-10;
  * `DescentOptions.singleStep`): its energy is then exact to about 1e-11 of the scale.
  */
 const PIXEL_SINGLE_STEP = 2e-3;
+
+/**
+ * A solved neighbour's state within this (max norm of the order parameters) of a pixel's own
+ * converged state is in its basin (as `SAME_BASIN` of the descent): no second descent from it.
+ */
+const SAME_BRANCH = 1e-2;
 
 /** Branch states whose order parameters agree to this (max norm) are one state, not a tie. */
 const TIE_DISTANCE = 1e-5;
@@ -234,6 +241,8 @@ class PixelSolver {
   private fresh = false;
   /** Whether `best` comes from a rigid cell (no soft direction anywhere in it). */
   private rigid = false;
+  /** The order parameters of `best` while it is a rigid cell's state. */
+  private rigidOrder: Float64Array = new Float64Array(16);
   private branchBuffers: BranchStore | undefined;
 
   constructor(
@@ -402,11 +411,20 @@ class PixelSolver {
     return true;
   }
 
-  /** Pixel (i, j) of a rigid cell: the corners' state, a minimum here (see `rigidCell`). */
-  fromRigid(i: number, j: number, frame: Float64Array): void {
+  /** Order parameters of a coarse node's state (o_0 .. o_15). */
+  nodeOrder(node: number): Float64Array {
+    return this.nodeOrders.subarray(16 * node, 16 * node + 16);
+  }
+
+  /**
+   * Pixel (i, j) of a rigid cell: the corners' state (`frame`, its order parameters `order`), a
+   * minimum here (see `rigidCell`).
+   */
+  fromRigid(i: number, j: number, frame: Float64Array, order: Float64Array): void {
     const c = this.at(i, j);
     this.best.set(frame);
-    this.energy = frameEnergy(c, this.best, this.ws, this.ws.order);
+    this.rigidOrder = order;
+    this.energy = energyOfOrder(c, order);
     this.converged = true;
     this.fresh = false;
     this.rigid = true;
@@ -439,6 +457,16 @@ class PixelSolver {
     // (twice over) before deciding that it cannot end lower.
     const reach = energyOfOrder(c, order) - 2 * this.relaxation;
     if (reach >= this.energy - DEGENERACY_TOLERANCE * c.scale) return;
+    if (this.fresh) {
+      // The pixel's own descent just converged (its order parameters are in the workspace): a
+      // neighbour whose state lies this close is in the same basin, and descends to the same
+      // minimum; another branch of the label is a different state.
+      let distance = 0;
+      for (let k = 1; k < 16; k++) {
+        distance = Math.max(distance, Math.abs(order[k]! - this.ws.order[k]!));
+      }
+      if (distance < SAME_BRANCH) return;
+    }
     const frame = this.trial;
     frame.set(block.frames.subarray(32 * n, 32 * n + 32));
     const result = descend(c, frame, this.options, this.ws);
@@ -644,12 +672,16 @@ class PixelSolver {
    */
   store(block: PixelBlock, n: number): void {
     const s = this.scratch;
-    if (!this.rigid) {
+    let summary;
+    if (this.rigid) {
+      s.order.set(this.rigidOrder);
+      summary = summariseOrder(this.couplings!, this.best, this.nf, s);
+    } else {
       const symmetry = modelSymmetry(this.couplings!);
       discreteRepresentative(this.couplings!, this.best, symmetry);
       canonicaliseOrbit(this.best, this.nf, symmetry);
+      summary = summarise(this.couplings!, this.best, this.nf, s);
     }
-    const summary = summarise(this.couplings!, this.best, this.nf, s);
     block.frames.set(this.best, 32 * n);
     block.energy[n] = summary.energy;
     block.gap[n] = summary.gap;

@@ -26,6 +26,16 @@ export function summarise(
 ): { energy: number; gap: number; label: string } {
   projectorOf(frame, nf, s.projector);
   orderOfProjector(s.projector, s.order);
+  return summariseOrder(c, frame, nf, s);
+}
+
+/** `summarise` of a frame whose order parameters are in `s.order` already. */
+export function summariseOrder(
+  c: Couplings,
+  frame: Float64Array,
+  nf: number,
+  s: PixelScratch,
+): { energy: number; gap: number; label: string } {
   let energy = c.c0 + c.eta[0]! * nf;
   for (let k = 1; k < 16; k++)
     energy += s.order[k]! * (c.eta[k]! + 0.5 * c.kappa[k]! * s.order[k]!);
