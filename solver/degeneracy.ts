@@ -518,6 +518,40 @@ export function sameState(
   return true;
 }
 
+/** Scratch of `sameRepresentative`. */
+const representativeScratch = {
+  frameA: new Float64Array(32),
+  frameB: new Float64Array(32),
+  orderA: new Float64Array(16),
+  orderB: new Float64Array(16),
+  projector: new Float64Array(32),
+};
+
+/**
+ * Whether two frames stand for one state once each is taken to the member the single-point
+ * search reports among its mirror images and along its orbit (`discreteRepresentative`, then
+ * `canonicaliseOrbit`), up to `tolerance` in the order parameters.
+ */
+export function sameRepresentative(
+  c: Couplings,
+  a: Float64Array,
+  b: Float64Array,
+  tolerance: number,
+  symmetry: ModelSymmetry,
+): boolean {
+  const { frameA: fa, frameB: fb, orderA, orderB, projector } = representativeScratch;
+  fa.set(a);
+  fb.set(b);
+  for (const f of [fa, fb]) {
+    discreteRepresentative(c, f, symmetry);
+    canonicaliseOrbit(f, c.nf, symmetry);
+  }
+  const oa = orderOfProjector(projectorOf(fa, c.nf, projector), orderA);
+  const ob = orderOfProjector(projectorOf(fb, c.nf, projector), orderB);
+  for (let k = 1; k < 16; k++) if (Math.abs(oa[k]! - ob[k]!) > tolerance) return false;
+  return true;
+}
+
 /** Generators whose rotations move the state of `frame`. */
 function movingRotations(c: Couplings, frame: Float64Array): Channel[] {
   const out: Channel[] = [];

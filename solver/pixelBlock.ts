@@ -2,6 +2,7 @@ import { energyOfOrder, type Couplings } from './couplings';
 import {
   DEGENERACY_TOLERANCE,
   discreteRepresentative,
+  sameRepresentative,
   sameState,
   settleDegenerate,
   softDirections,
@@ -631,15 +632,16 @@ class PixelSolver {
           }
           const other = store.frames.subarray(32 * slot, 32 * slot + 32);
           // Branches that reached one state are no tie, nor are two members of one orbit of the
-          // model's exact rotations: `store` puts every pixel at the orbit point the
-          // single-point search reports, and where the orbit meets another family at one
+          // model's exact rotations or two mirror images of one state: `store` puts every pixel
+          // at the member the single-point search reports, and where the orbit meets another family at one
           // energy, the state has a soft direction and `certify` settles it. Under fields weaker
           // than the probes, another family can lie within the probes' reach without a soft
           // direction (E_Z = 1e-6 near the KD/CAF line), so there the pixel is still settled,
           // once, from its own state. Any other state at the same energy is a tie and is
           // settled with it.
           if (sameState(other, this.best, this.nf, TIE_DISTANCE)) continue;
-          if (sameState(other, this.best, this.nf, TIE_DISTANCE, modelSymmetry(this.couplings!))) {
+          const symmetry = modelSymmetry(this.couplings!);
+          if (sameRepresentative(this.couplings!, other, this.best, TIE_DISTANCE, symmetry)) {
             orbitTie = true;
           } else {
             ties.push(other);
