@@ -1,11 +1,10 @@
 import { energyOfOrder, type Couplings } from './couplings';
-import { DEGENERACY_TOLERANCE, discreteRepresentative, softDirections } from './degeneracy';
+import { DEGENERACY_TOLERANCE, representative, softDirections } from './degeneracy';
 import { DEFAULT_DESCENT, descend } from './localMinimise';
 import { seedLibrary } from './seeds';
 import { DescentWorkspace, frameEnergy } from './tangentSpace';
 import { DEFAULT_MINIMISE, type MinimiseOptions } from './minimise';
 import { searchGroundState } from './groundSearch';
-import { canonicaliseOrbit } from './orbitGauge';
 import { modelSymmetry } from './symmetry';
 import { PixelScratch, summarise } from './stateSummary';
 import { axisValue, PlaneCouplings, type MapInput } from './plane';
@@ -144,12 +143,10 @@ export function solveCoarseNodes(
     const frame = continued ?? searchGroundState(c, search, { warmStarts }).frame;
     if (preview !== undefined && continued === undefined) block.searched++;
     descend(c, frame, DEFAULT_DESCENT, ws);
-    // The canonical point of the orbit of rotations about the field and about tau_z: nodes of
+    // The member the single-point search reports (its mirror image and orbit point): nodes of
     // one region then hold the same state where it does not change (a bond-ordered state's
     // phase would otherwise differ from node to node), which lets their cells skip descents.
-    const symmetry = modelSymmetry(c);
-    discreteRepresentative(c, frame, symmetry);
-    canonicaliseOrbit(frame, nf, symmetry);
+    representative(c, frame, modelSymmetry(c));
     descend(c, frame, DEFAULT_DESCENT, ws);
     block.frames.set(frame, 32 * n);
     const summary = summarise(c, frame, nf, scratch);

@@ -316,19 +316,15 @@ export function discreteRepresentative(
   const valley = symmetry.valleyRotation ? ANTICOMMUTING[12]! & present : -1;
   const both = spin >= 0 && valley >= 0 ? ANTICOMMUTING[15]! & present : -1;
   for (let g = 1; g < 16; g++) {
-    // Energy change of the image: -2 sum over anticommuting k of eta_k o_k; moved by it: the
-    // size of the components it flips.
+    // The components the image flips (none: the same state; those of a kept rotation by pi:
+    // the same orbit), and the energy change: -2 sum over anticommuting k of eta_k o_k.
+    const flips = ANTICOMMUTING[g]! & present;
+    if (flips === 0 || flips === spin || flips === valley || flips === both) continue;
     let change = 0;
-    let moved = 0;
-    let flips = 0;
     for (let k = 1; k < 16; k++) {
-      if (COMMUTATION_SIGN[16 * g + k]! > 0) continue;
-      change -= 2 * c.eta[k]! * o[k]!;
-      moved = Math.max(moved, Math.abs(o[k]!));
+      if (COMMUTATION_SIGN[16 * g + k]! < 0) change -= 2 * c.eta[k]! * o[k]!;
     }
-    flips = ANTICOMMUTING[g]! & present;
-    if (moved <= ORDER_TOLERANCE || Math.abs(change) > tolerance) continue;
-    if (flips === spin || flips === valley || flips === both) continue;
+    if (Math.abs(change) > tolerance) continue;
     // Several G's that flip the same components give the same image.
     if (seen.subarray(0, seenCount).includes(flips)) continue;
     seen[seenCount++] = flips;
@@ -354,6 +350,17 @@ export function discreteRepresentative(
   if (pick === 0) return false;
   conjugateFrame(frame, pick, frame);
   return true;
+}
+
+/**
+ * Moves `frame` (in place) to the member of its degenerate family that the single-point search
+ * reports among its mirror images and along its orbit: the canonical point of its orbit, then
+ * `discreteRepresentative` (which then meets only images off the orbit) and the canonical point
+ * of the image's orbit.
+ */
+export function representative(c: Couplings, frame: Float64Array, symmetry: ModelSymmetry): void {
+  canonicaliseOrbit(frame, c.nf, symmetry);
+  if (discreteRepresentative(c, frame, symmetry)) canonicaliseOrbit(frame, c.nf, symmetry);
 }
 
 /** Order parameters of the image of `frame` by G_g (0: itself) at its orbit's canonical point. */
@@ -529,8 +536,8 @@ const representativeScratch = {
 
 /**
  * Whether two frames stand for one state once each is taken to the member the single-point
- * search reports among its mirror images and along its orbit (`discreteRepresentative`, then
- * `canonicaliseOrbit`), up to `tolerance` in the order parameters.
+ * search reports among its mirror images and along its orbit (`representative`), up to
+ * `tolerance` in the order parameters.
  */
 export function sameRepresentative(
   c: Couplings,
@@ -542,10 +549,8 @@ export function sameRepresentative(
   const { frameA: fa, frameB: fb, orderA, orderB, projector } = representativeScratch;
   fa.set(a);
   fb.set(b);
-  for (const f of [fa, fb]) {
-    discreteRepresentative(c, f, symmetry);
-    canonicaliseOrbit(f, c.nf, symmetry);
-  }
+  representative(c, fa, symmetry);
+  representative(c, fb, symmetry);
   const oa = orderOfProjector(projectorOf(fa, c.nf, projector), orderA);
   const ob = orderOfProjector(projectorOf(fb, c.nf, projector), orderB);
   for (let k = 1; k < 16; k++) if (Math.abs(oa[k]! - ob[k]!) > tolerance) return false;

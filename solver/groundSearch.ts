@@ -1,7 +1,7 @@
 import type { Couplings } from './couplings';
 import {
   DEGENERACY_TOLERANCE,
-  discreteRepresentative,
+  representative,
   sameState,
   selectRepresentative,
   type Selection,
@@ -47,6 +47,6 @@ export function searchGroundState(
   // A mirror image of the member (another isolated minimum at the same energy, which the search
   // may not have visited): the one the vanishing fields select.
   const frame = Float64Array.from(selection.frame);
-  discreteRepresentative(c, frame, modelSymmetry(c));
+  representative(c, frame, modelSymmetry(c));
   return { frame, energy: search.energy, minima: search.minima, selection };
 }

@@ -1,14 +1,13 @@
 import { energyOfOrder, type Couplings } from './couplings';
 import {
   DEGENERACY_TOLERANCE,
-  discreteRepresentative,
+  representative,
   sameRepresentative,
   sameState,
   settleDegenerate,
   softDirections,
   weakFields,
 } from './degeneracy';
-import { canonicaliseOrbit } from './orbitGauge';
 import { FrozenStates, MAX_CELL_STATES } from './frozenStates';
 import { searchGroundState } from './groundSearch';
 import { orderOfProjector, projectorOf } from './state';
@@ -641,7 +640,10 @@ class PixelSolver {
           // settled with it.
           if (sameState(other, this.best, this.nf, TIE_DISTANCE)) continue;
           const symmetry = modelSymmetry(this.couplings!);
-          if (sameRepresentative(this.couplings!, other, this.best, TIE_DISTANCE, symmetry)) {
+          if (
+            sameState(other, this.best, this.nf, TIE_DISTANCE, symmetry) ||
+            sameRepresentative(this.couplings!, other, this.best, TIE_DISTANCE, symmetry)
+          ) {
             orbitTie = true;
           } else {
             ties.push(other);
@@ -679,9 +681,7 @@ class PixelSolver {
       s.order.set(this.rigidOrder);
       summary = summariseOrder(this.couplings!, this.best, this.nf, s);
     } else {
-      const symmetry = modelSymmetry(this.couplings!);
-      discreteRepresentative(this.couplings!, this.best, symmetry);
-      canonicaliseOrbit(this.best, this.nf, symmetry);
+      representative(this.couplings!, this.best, modelSymmetry(this.couplings!));
       summary = summarise(this.couplings!, this.best, this.nf, s);
     }
     block.frames.set(this.best, 32 * n);
