@@ -48,8 +48,6 @@ export interface MapFileOptions {
   readonly provenance?: MapProvenance;
   /** Draws the figure (`mapFigureSvg`, loaded with d3 only for an SVG output). */
   readonly drawFigure?: (map: FigureMap, options: MapFigureOptions) => string;
-  /** Receives each finished Map's labels and boundaries (a series keeps them for its figure). */
-  readonly keep?: (map: FigureMap) => void;
 }
 
 /** Checks that rows arrive in order, each once, and says when all have. */
@@ -97,7 +95,7 @@ class LabelGrid {
 export function mapFileSink(input: MapInput, path: string, options: MapFileOptions): MapSink {
   const [nx, ny] = input.plane.resolution;
   const order = new RowOrder(0, ny);
-  const figure = options.format === 'svg' || options.keep !== undefined;
+  const figure = options.format === 'svg';
   // A figure is drawn from every pixel's label, held in memory: grids up to 2048 per side.
   const tooLarge =
     figure &&
@@ -154,7 +152,6 @@ export function mapFileSink(input: MapInput, path: string, options: MapFileOptio
       if (options.format === 'svg') {
         writeWholeFile(path, options.drawFigure!(map!, options.figure ?? {}));
       }
-      if (map !== undefined) options.keep?.(map);
     },
     abandon() {
       csv?.abandon();
