@@ -236,6 +236,37 @@ export class MapScheduler {
         failures.push(errorLine(error));
       }
     };
+
+    // Every other pixel, cell by cell (`verifying`): queued now, behind every task of the
+    // boundary (priority 5), so that no worker waits while the last boundary cells, their end
+    // pixels and the crossings run on the other. Shown as they come.
+    const regionRuns: { -readonly [K in keyof CellRange]: number }[] = [];
+    for (let b = 0; b < height - 1; b++) {
+      for (let a = 0; a < width - 1; a++) {
+        if (!cellIsUniform(coarse, a, b)) continue;
+        const last = regionRuns[regionRuns.length - 1];
+        if (last && last.b0 === b && last.a1 === a && a - last.a0 < MAX_REGION_RUN) last.a1 = a + 1;
+        else regionRuns.push({ a0: a, b0: b, a1: a + 1, b1: b + 1 });
+      }
+    }
+    let phase: 'refining' | 'verifying' = 'refining';
+    let changed = false;
+    const regionWork = Promise.all(
+      regionRuns.map((t) =>
+        attempt(async () => {
+          const window = grid.coarseWindow(t);
+          const block = await this.pool.run(job, 5, (api) =>
+            api.cells(json, window, { a0: 0, b0: 0, a1: t.a1 - t.a0, b1: t.b1 - t.b0 }),
+          );
+          if (this.stale(job)) return;
+          if (grid.placePixels(block)) changed = true;
+          events.update(grid, phase);
+        }),
+      ),
+    );
+    // Awaited below; a superseded job may return before that.
+    regionWork.catch(() => undefined);
+
     await Promise.all(
       runs.map((t) =>
         attempt(async () => {
@@ -301,35 +332,16 @@ export class MapScheduler {
       return found.sort((a, b) => a.edge - b.edge);
     };
     events.update(grid, 'boundaries');
+    // Region cells placed from here on may change a label that the crossings below miss.
+    changed = false;
     let crossings = await locate();
     if (this.stale(job)) return;
     events.boundaries?.(grid, grid.phaseMap(crossings).boundaries);
 
-    // Every other pixel, cell by cell: the boundaries above are shown meanwhile.
+    // The boundaries above are shown while the region cells finish.
+    phase = 'verifying';
     events.update(grid, 'verifying');
-    const regionRuns: { -readonly [K in keyof CellRange]: number }[] = [];
-    for (let b = 0; b < height - 1; b++) {
-      for (let a = 0; a < width - 1; a++) {
-        if (!cellIsUniform(coarse, a, b)) continue;
-        const last = regionRuns[regionRuns.length - 1];
-        if (last && last.b0 === b && last.a1 === a && a - last.a0 < MAX_REGION_RUN) last.a1 = a + 1;
-        else regionRuns.push({ a0: a, b0: b, a1: a + 1, b1: b + 1 });
-      }
-    }
-    let changed = false;
-    await Promise.all(
-      regionRuns.map((t) =>
-        attempt(async () => {
-          const window = grid.coarseWindow(t);
-          const block = await this.pool.run(job, 5, (api) =>
-            api.cells(json, window, { a0: 0, b0: 0, a1: t.a1 - t.a0, b1: t.b1 - t.b0 }),
-          );
-          if (this.stale(job)) return;
-          if (grid.placePixels(block)) changed = true;
-          events.update(grid, 'verifying');
-        }),
-      ),
-    );
+    await regionWork;
     if (this.stale(job)) return;
     if (changed) crossings = await locate();
     if (failures.length > 0) {
