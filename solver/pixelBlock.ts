@@ -13,8 +13,15 @@ import { searchGroundState } from './groundSearch';
 import { orderOfProjector, projectorOf } from './state';
 import type { CoarseNodes } from './coarseNodes';
 import { DEFAULT_DESCENT, descend, type DescentOptions } from './localMinimise';
-import { DescentWorkspace, frameEnergy, tangentGradient } from './tangentSpace';
+import {
+  DescentWorkspace,
+  frameEnergy,
+  tangentDimension,
+  tangentGradient,
+  tangentModel,
+} from './tangentSpace';
 import { DEFAULT_MINIMISE, minimiseEnergy } from './minimise';
+import { choleskySolve } from './linalg';
 import { presentGroupCount } from './orderParameters';
 import { ORDER_TOLERANCE } from './phaseLabel';
 import { modelSymmetry } from './symmetry';
@@ -198,6 +205,52 @@ interface BranchStore {
   energy: Float64Array;
   converged: Uint8Array;
   groups: Uint8Array;
+  /** 1 where the slot holds its branch corner's state unchanged (see `FixedBranch`). */
+  fixed: Uint8Array;
+}
+
+/**
+ * A branch corner's state, unchanged, over a cell: its gradient and Hessian in tangent
+ * coordinates are affine in the couplings (the Hartree-Fock matrix is), hence in the pixel
+ * indices, so three corners of the cell give them at every pixel. Where the state is still a
+ * minimum there (the gradient below the descent's tolerance, the Hessian passing its test), a
+ * descent from it would stop at once: the pixel keeps it without one.
+ */
+class FixedBranch {
+  /** Gradients (8 each) and Hessians (64 each) at pixels (i0, j0), (i1, j0), (i0, j1). */
+  readonly gradient = new Float64Array(24);
+  readonly hessian = new Float64Array(192);
+  readonly order = new Float64Array(16);
+  readonly g = new Float64Array(8);
+  readonly k = new Float64Array(64);
+  readonly step = new Float64Array(8);
+  readonly chol = new Float64Array(64);
+  groups = 0;
+  d = 0;
+  i0 = 0;
+  j0 = 0;
+  di = 0;
+  dj = 0;
+
+  /** Whether the state at pixel (i, j), couplings `c`, is a minimum a descent would keep. */
+  holds(i: number, j: number, c: Couplings): boolean {
+    const { d, g, k, gradient, hessian } = this;
+    const wi = this.di > 0 ? (i - this.i0) / this.di : 0;
+    const wj = this.dj > 0 ? (j - this.j0) / this.dj : 0;
+    let largest = 0;
+    for (let p = 0; p < d; p++) {
+      const a = gradient[p]!;
+      g[p] = a + wi * (gradient[8 + p]! - a) + wj * (gradient[16 + p]! - a);
+      largest = Math.max(largest, Math.abs(g[p]!));
+    }
+    if (largest > PIXEL_TOLERANCE * c.scale) return false;
+    for (let p = 0; p < d * d; p++) {
+      const a = hessian[p]!;
+      k[p] = a + wi * (hessian[64 + p]! - a) + wj * (hessian[128 + p]! - a);
+    }
+    // The minimum test of `descend` (Goldstone zeros pass the tiny shift).
+    return choleskySolve(k, d, 1e-11 * c.scale, g, this.step, this.chol, 0);
+  }
 }
 
 export interface PixelOptions {
@@ -244,6 +297,7 @@ class PixelSolver {
   /** The order parameters of `best` while it is a rigid cell's state. */
   private rigidOrder: Float64Array = new Float64Array(16);
   private branchBuffers: BranchStore | undefined;
+  private readonly fixedModel = new FixedBranch();
 
   constructor(
     private readonly input: MapInput,
@@ -411,6 +465,46 @@ class PixelSolver {
     return true;
   }
 
+  /**
+   * Sets up `fixedModel` for a branch that starts from `frame` over pixels [iFirst, iLast) x
+   * [jFirst, jLast); false when the state is no critical point at three corners of the cell (it
+   * moves over the cell, as a canted state does): then every pixel of the branch descends.
+   */
+  private fixedBranch(
+    frame: Float64Array,
+    iFirst: number,
+    iLast: number,
+    jFirst: number,
+    jLast: number,
+  ): boolean {
+    const fm = this.fixedModel;
+    const { ws } = this;
+    const d = tangentDimension(this.nf);
+    const corners: [number, number][] = [
+      [iFirst, jFirst],
+      [iLast - 1, jFirst],
+      [iFirst, jLast - 1],
+    ];
+    for (let q = 0; q < 3; q++) {
+      const c = this.at(corners[q]![0], corners[q]![1]);
+      frameEnergy(c, frame, ws, ws.order);
+      tangentModel(c, frame, ws);
+      let largest = 0;
+      for (let p = 0; p < d; p++) largest = Math.max(largest, Math.abs(ws.gradient[p]!));
+      if (largest > PIXEL_TOLERANCE * c.scale) return false;
+      fm.gradient.set(ws.gradient.subarray(0, d), 8 * q);
+      fm.hessian.set(ws.hessian.subarray(0, d * d), 64 * q);
+    }
+    fm.order.set(ws.order);
+    fm.groups = presentGroupCount(ws.order, ORDER_TOLERANCE);
+    fm.d = d;
+    fm.i0 = iFirst;
+    fm.j0 = jFirst;
+    fm.di = iLast - 1 - iFirst;
+    fm.dj = jLast - 1 - jFirst;
+    return true;
+  }
+
   /** Order parameters of a coarse node's state (o_0 .. o_15). */
   nodeOrder(node: number): Float64Array {
     return this.nodeOrders.subarray(16 * node, 16 * node + 16);
@@ -560,6 +654,7 @@ class PixelSolver {
       const corner = starts[k]!;
       const node = (b + (corner >> 1)) * width + a + (corner & 1);
       let died = false;
+      const fixed = this.fixedBranch(this.nodeFrame(node), iFirst, iLast, jFirst, jLast);
       // Scan away from the branch's corner: rows nearest it first, each row from its side.
       const right = (corner & 1) === 1;
       const top = corner >> 1 === 1;
@@ -569,20 +664,26 @@ class PixelSolver {
           const i = right ? iLast - 1 - q : iFirst + q;
           const slot = k * size + (j - jFirst) * w + (i - iFirst);
           const frame = store.frames.subarray(32 * slot, 32 * slot + 32);
+          const previous = q > 0 ? slot + (right ? 1 : -1) : r > 0 ? slot + (top ? w : -w) : -1;
           const from =
-            q > 0
-              ? store.frames.subarray(
-                  32 * (slot + (right ? 1 : -1)),
-                  32 * (slot + (right ? 1 : -1)) + 32,
-                )
-              : r > 0
-                ? store.frames.subarray(
-                    32 * (slot + (top ? w : -w)),
-                    32 * (slot + (top ? w : -w)) + 32,
-                  )
-                : this.nodeFrame(node);
+            previous >= 0
+              ? store.frames.subarray(32 * previous, 32 * previous + 32)
+              : this.nodeFrame(node);
           frame.set(from);
-          const result = descend(this.at(i, j), frame, options, ws);
+          const c = this.at(i, j);
+          if (
+            fixed &&
+            (previous < 0 || store.fixed[previous] === 1) &&
+            this.fixedModel.holds(i, j, c)
+          ) {
+            store.energy[slot] = energyOfOrder(c, this.fixedModel.order);
+            store.converged[slot] = 1;
+            store.groups[slot] = this.fixedModel.groups;
+            store.fixed[slot] = 1;
+            continue;
+          }
+          store.fixed[slot] = 0;
+          const result = descend(c, frame, options, ws);
           store.energy[slot] = result.energy;
           store.converged[slot] = result.converged ? 1 : 0;
           store.groups[slot] = presentGroupCount(ws.order, ORDER_TOLERANCE);
@@ -662,6 +763,7 @@ class PixelSolver {
         energy: new Float64Array(count),
         converged: new Uint8Array(count),
         groups: new Uint8Array(count),
+        fixed: new Uint8Array(count),
       };
     }
     return this.branchBuffers;
