@@ -87,34 +87,51 @@ test('moving the Zeeman slider moves the F/CAF boundary to E_Z = 4 |uPerp|', asy
   await page.screenshot({ path: 'test-results/screenshots/zeeman-1.2.png', fullPage: true });
 });
 
-test('the hover readout matches `npm run --silent solve` for the same model', async ({ page }) => {
+test('the hover readout matches `npm run --silent solve` for the same model, component for component, in each phase', async ({
+  page,
+}) => {
   await page.goto('/');
   await mapDone(page);
-  await hoverAt(page, -0.7, 0.9);
-  const r = await readout(page);
-  const order: Record<string, number> = {};
-  for (const li of await page.locator('[data-testid^="readout-order-"]').all()) {
-    const id = (await li.getAttribute('data-testid'))!.replace('readout-order-', '');
-    order[id] = Number(await li.getAttribute('data-value'));
-  }
-  const model = demoModelAt(r.x, r.y);
   const dir = mkdtempSync(join(tmpdir(), 'fourfold-e2e-'));
-  writeFileSync(join(dir, 'point.json'), JSON.stringify(model));
-  const cli = JSON.parse(
-    execFileSync('npm', ['run', '--silent', 'solve', '--', '--model', join(dir, 'point.json')], {
-      encoding: 'utf8',
-    }),
-  ) as { phase: string; energy: number; gap: number; order: Record<string, number> };
-  expect(r.phase).toBe(cli.phase);
-  expect(r.energy).toBeCloseTo(cli.energy, 9);
-  expect(r.gap).toBeCloseTo(cli.gap, 6);
-  expect(Object.keys(order)).toHaveLength(15);
-  // A ground state is fixed only up to the U(1) rotations it breaks: compare the components
-  // along the field exactly and the in-plane ones by their rotation-invariant magnitudes.
-  for (const ch of ['0z', 'z0', 'zz']) expect(order[ch]!).toBeCloseTo(cli.order[ch]!, 6);
-  const inPlane = (o: Record<string, number>, a: string, b: string) => Math.hypot(o[a]!, o[b]!);
-  expect(inPlane(order, 'zx', 'zy')).toBeCloseTo(inPlane(cli.order, 'zx', 'zy'), 6);
-  expect(inPlane(order, 'x0', 'y0')).toBeCloseTo(inPlane(cli.order, 'x0', 'y0'), 6);
+  // One point of each phase of the closed-form test above, and (-0.7, 0.9).
+  const points: [string, number, number][] = [
+    ['KD', -0.7, 0.9],
+    ['CAF', -0.5, 1.5],
+    ['F', 0.5, 1.5],
+    ['KD', -1.5, 1.5],
+    ['CDW', -0.1, -1.7],
+    // Pixels where a map once held another member of the state's family than the point does:
+    // the other sublattice, and a turned spin-valley block.
+    ['CDW', -0.0234, -1.9922],
+    ['SBxy', 1.3984, -1.9922],
+    ['CDW+SBxy', 0.5703, -1.9766],
+  ];
+  for (const [phase, u, z] of points) {
+    await hoverAt(page, u, z);
+    const r = await readout(page);
+    expect(r.phase, `phase at (${u}, ${z})`).toBe(phase);
+    const order: Record<string, number> = {};
+    for (const li of await page.locator('[data-testid^="readout-order-"]').all()) {
+      const id = (await li.getAttribute('data-testid'))!.replace('readout-order-', '');
+      order[id] = Number(await li.getAttribute('data-value'));
+    }
+    writeFileSync(join(dir, 'point.json'), JSON.stringify(demoModelAt(r.x, r.y)));
+    const cli = JSON.parse(
+      execFileSync('npm', ['run', '--silent', 'solve', '--', '--model', join(dir, 'point.json')], {
+        encoding: 'utf8',
+      }),
+    ) as { phase: string; energy: number; gap: number; order: Record<string, number> };
+    expect(r.phase).toBe(cli.phase);
+    expect(r.energy).toBeCloseTo(cli.energy, 9);
+    expect(r.gap).toBeCloseTo(cli.gap, 6);
+    expect(Object.keys(order)).toHaveLength(15);
+    // The same state, not only the same label: the pixel holds the member of its family that
+    // the single point reports (the orbit's fixed angle; for the CDW without Delta_V, the
+    // sublattice Delta_V -> 0+ favours).
+    for (const [channel, value] of Object.entries(cli.order)) {
+      expect(order[channel], `o_${channel} at (${u}, ${z})`).toBeCloseTo(value, 6);
+    }
+  }
 });
 
 test('reload keeps the setup (URL and local autosave)', async ({ page }) => {

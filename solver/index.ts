@@ -55,6 +55,7 @@ export {
 } from './orderParameters';
 export { ORDER_TOLERANCE, TOKEN_MEANINGS, phaseLabel } from './phaseLabel';
 export { modelSymmetry, type ModelSymmetry } from './symmetry';
+export { canonicaliseOrbit } from './orbitGauge';
 export { GOLDSTONE_TOLERANCE, collectiveModes, type CollectiveModes } from './collectiveModes';
 export { occupiedSpinors } from './spinors';
 export {

@@ -1,17 +1,39 @@
 import { describe, expect, test } from 'vitest';
 import {
   CHANNELS,
+  canonicaliseOrbit,
   computeCut,
   computePhaseMap,
   couplingsOf,
   mapToJson,
   modelAtPoint,
+  modelSymmetry,
+  orderOfProjector,
   parseMapInput,
   parseModel,
+  projectorOf,
   seededRandom,
   solve,
 } from '../solver/index';
 import { errorOf, randomMapDocument, standardPlane } from './fixtures';
+
+/** The plane of the app's demo (H / F = 1.2 for u_perp, 0.7 for u_z; E_Z = 0.6), n x n. */
+function demoDocument(n: number) {
+  return {
+    filling: 0,
+    channels: {},
+    zeeman: 0.6,
+    plane: {
+      x: {
+        from: -2,
+        to: 2,
+        targets: { 'x0.fock': 1, 'y0.fock': 1, 'x0.hartree': 1.2, 'y0.hartree': 1.2 },
+      },
+      y: { from: -2, to: 2, targets: { 'z0.fock': 1, 'z0.hartree': 0.7 } },
+      resolution: [n, n] as [number, number],
+    },
+  };
+}
 
 /**
  * Trust: every Map pixel is the single-point ground state, weak fields pick the state the closed
@@ -285,6 +307,59 @@ describe('degenerate families: one deterministic member, said so', () => {
     // The plane holds all four phases of the model (public/notes.html#closed-forms).
     expect([...counts.keys()].sort()).toEqual(['CAF', 'CDW', 'F', 'KD']);
   }, 120_000);
+
+  test('the orbit point is the same from every point of the orbit, also where only spin-valley products (o_xx, o_xy, o_yx, o_yy) break the rotations', () => {
+    // H != F: the SBxy and CDW+SBxy states at the bottom of this plane break both rotations only
+    // through that block.
+    const input = parseMapInput(demoDocument(8));
+    const random = seededRandom(7);
+    for (const [x, y] of [
+      [1.4, -1.99], // SBxy
+      [0.58, -1.99], // CDW+SBxy
+      [-0.5, 1.5], // CAF
+      [-1.5, 1.5], // KD
+    ] as const) {
+      const single = solve(modelAtPoint(input, x, y));
+      const symmetry = modelSymmetry(single.couplings);
+      expect(symmetry.spinRotationAboutField && symmetry.valleyRotation).toBe(true);
+      for (let n = 0; n < 20; n++) {
+        // exp(-i (alpha s_z + beta t_z) / 2) on every component r = 2 v + s of every vector.
+        const [alpha, beta] = [2 * Math.PI * random(), 2 * Math.PI * random()];
+        const frame = Float64Array.from(single.frame);
+        for (let r = 0; r < 4; r++) {
+          const angle = -(alpha * ((r & 1) === 0 ? 1 : -1) + beta * (r < 2 ? 1 : -1)) / 2;
+          for (let v = 0; v < 4; v++) {
+            const [re, im] = [frame[8 * v + 2 * r]!, frame[8 * v + 2 * r + 1]!];
+            frame[8 * v + 2 * r] = re * Math.cos(angle) - im * Math.sin(angle);
+            frame[8 * v + 2 * r + 1] = re * Math.sin(angle) + im * Math.cos(angle);
+          }
+        }
+        canonicaliseOrbit(frame, single.couplings.nf, symmetry);
+        const nf = single.couplings.nf;
+        const order = orderOfProjector(
+          projectorOf(frame, nf, new Float64Array(32)),
+          new Float64Array(16),
+        );
+        for (let k = 1; k < 16; k++) expect(order[k]).toBeCloseTo(single.order[k]!, 9);
+      }
+    }
+  });
+
+  test('the demo plane (H != F, E_Z = 0.6) at 256 x 256: every seventh pixel holds the state `solve` reports there', async () => {
+    const input = parseMapInput(demoDocument(256));
+    const map = await computePhaseMap(input);
+    let apart = 0;
+    for (let p = 0; p < 256 * 256; p += 7) {
+      const single = solve(modelAtPoint(input, map.x[p % 256]!, map.y[Math.floor(p / 256)]!));
+      let distance = 0;
+      for (let k = 1; k < 16; k++) {
+        distance = Math.max(distance, Math.abs(map.order[15 * p + k - 1]! - single.order[k]!));
+      }
+      if (distance > 1e-6) apart++;
+    }
+    // Before mirror images and orbit points were chosen as the search does: 755 of 9363.
+    expect(apart).toBe(0);
+  }, 300_000);
 
   test('spin-isotropic couplings without a field: the member E_Z -> 0+ selects (Neel across the field, CAF), family named', () => {
     const r = solve(parseModel({ filling: 0, channels: { x0: -1, y0: -1, z0: 2 } }));
