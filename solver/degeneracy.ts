@@ -511,7 +511,7 @@ export function sameState(
   tolerance = 1e-6,
   symmetry?: ModelSymmetry,
 ): boolean {
-  const { projector: p, frameA: fa, frameB: fb, orderA, orderB } = sameStateScratch;
+  const { frameA: fa, frameB: fb } = sameStateScratch;
   // Up to the exact rotations about the field and about tau_z (one orbit is one state here).
   fa.set(a);
   fb.set(b);
@@ -519,20 +519,17 @@ export function sameState(
     canonicaliseOrbit(fa, nf, symmetry);
     canonicaliseOrbit(fb, nf, symmetry);
   }
+  return ordersAgree(fa, fb, nf, tolerance);
+}
+
+/** Whether the order parameters of two frames agree to `tolerance` (max norm). */
+function ordersAgree(fa: Float64Array, fb: Float64Array, nf: number, tolerance: number): boolean {
+  const { projector: p, orderA, orderB } = sameStateScratch;
   const oa = orderOfProjector(projectorOf(fa, nf, p), orderA);
   const ob = orderOfProjector(projectorOf(fb, nf, p), orderB);
   for (let k = 1; k < 16; k++) if (Math.abs(oa[k]! - ob[k]!) > tolerance) return false;
   return true;
 }
-
-/** Scratch of `sameRepresentative`. */
-const representativeScratch = {
-  frameA: new Float64Array(32),
-  frameB: new Float64Array(32),
-  orderA: new Float64Array(16),
-  orderB: new Float64Array(16),
-  projector: new Float64Array(32),
-};
 
 /**
  * Whether two frames stand for one state once each is taken to the member the single-point
@@ -546,15 +543,12 @@ export function sameRepresentative(
   tolerance: number,
   symmetry: ModelSymmetry,
 ): boolean {
-  const { frameA: fa, frameB: fb, orderA, orderB, projector } = representativeScratch;
+  const { frameA: fa, frameB: fb } = sameStateScratch;
   fa.set(a);
   fb.set(b);
   representative(c, fa, symmetry);
   representative(c, fb, symmetry);
-  const oa = orderOfProjector(projectorOf(fa, c.nf, projector), orderA);
-  const ob = orderOfProjector(projectorOf(fb, c.nf, projector), orderB);
-  for (let k = 1; k < 16; k++) if (Math.abs(oa[k]! - ob[k]!) > tolerance) return false;
-  return true;
+  return ordersAgree(fa, fb, c.nf, tolerance);
 }
 
 /** Generators whose rotations move the state of `frame`. */

@@ -18,11 +18,11 @@ import {
 import { errorOf, randomMapDocument, standardPlane } from './fixtures';
 
 /** The plane of the app's demo (H / F = 1.2 for u_perp, 0.7 for u_z; E_Z = 0.6), n x n. */
-function demoDocument(n: number) {
+function demoDocument(n: number, zeeman = 0.6) {
   return {
     filling: 0,
     channels: {},
-    zeeman: 0.6,
+    zeeman,
     plane: {
       x: {
         from: -2,
@@ -198,27 +198,7 @@ describe('weak fields pick the closed-form winner (public/notes.html#closed-form
   });
 
   test('near-zero E_Z (1e-6, 1e-12): the demo plane shows the labels of E_Z = 1e-3 at every pixel, no patches', async () => {
-    const map = async (zeeman: number) =>
-      computePhaseMap(
-        parseMapInput({
-          filling: 0,
-          channels: {
-            x0: { hartree: 0, fock: 0 },
-            y0: { hartree: 0, fock: 0 },
-            z0: { hartree: 0, fock: 0 },
-          },
-          zeeman,
-          plane: {
-            x: {
-              from: -2,
-              to: 2,
-              targets: { 'x0.fock': 1, 'y0.fock': 1, 'x0.hartree': 1.2, 'y0.hartree': 1.2 },
-            },
-            y: { from: -2, to: 2, targets: { 'z0.fock': 1, 'z0.hartree': 0.7 } },
-            resolution: [24, 24],
-          },
-        }),
-      );
+    const map = async (zeeman: number) => computePhaseMap(parseMapInput(demoDocument(24, zeeman)));
     const reference = await map(1e-3);
     for (const zeeman of [1e-6, 1e-12]) {
       const weak = await map(zeeman);

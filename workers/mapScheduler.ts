@@ -249,17 +249,22 @@ export class MapScheduler {
         else regionRuns.push({ a0: a, b0: b, a1: a + 1, b1: b + 1 });
       }
     }
+    /** Solves the cells of run t on the pool and places them: whether a label changed. */
+    const solveRun = async (t: CellRange, priority: number): Promise<boolean | undefined> => {
+      const window = grid.coarseWindow(t);
+      const block = await this.pool.run(job, priority, (api) =>
+        api.cells(json, window, { a0: 0, b0: 0, a1: t.a1 - t.a0, b1: t.b1 - t.b0 }),
+      );
+      return this.stale(job) ? undefined : grid.placePixels(block);
+    };
     let phase: 'refining' | 'verifying' = 'refining';
     let changed = false;
     const regionWork = Promise.all(
       regionRuns.map((t) =>
         attempt(async () => {
-          const window = grid.coarseWindow(t);
-          const block = await this.pool.run(job, 5, (api) =>
-            api.cells(json, window, { a0: 0, b0: 0, a1: t.a1 - t.a0, b1: t.b1 - t.b0 }),
-          );
-          if (this.stale(job)) return;
-          if (grid.placePixels(block)) changed = true;
+          const moved = await solveRun(t, 5);
+          if (moved === undefined) return;
+          if (moved) changed = true;
           events.update(grid, phase);
         }),
       ),
@@ -270,13 +275,7 @@ export class MapScheduler {
     await Promise.all(
       runs.map((t) =>
         attempt(async () => {
-          const window = grid.coarseWindow(t);
-          const block = await this.pool.run(job, 2, (api) =>
-            api.cells(json, window, { a0: 0, b0: 0, a1: t.a1 - t.a0, b1: t.b1 - t.b0 }),
-          );
-          if (this.stale(job)) return;
-          grid.placePixels(block);
-          events.update(grid, 'refining');
+          if ((await solveRun(t, 2)) !== undefined) events.update(grid, 'refining');
         }),
       ),
     );
