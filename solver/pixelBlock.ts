@@ -21,7 +21,7 @@ import {
   tangentModel,
 } from './tangentSpace';
 import { DEFAULT_MINIMISE, minimiseEnergy } from './minimise';
-import { choleskySolve } from './linalg';
+import { choleskySolve, completeFrame, orthonormaliseFrame } from './linalg';
 import { presentGroupCount } from './orderParameters';
 import { ORDER_TOLERANCE } from './phaseLabel';
 import { modelSymmetry } from './symmetry';
@@ -154,13 +154,17 @@ export function solveCells(
           const n = (j - j0) * width + (i - i0);
           // The neighbour solved just before: left, or below at the start of the cell's row
           // (the cell's first pixel is its corner node).
+          const step = i > iFirst ? 1 : j > jFirst ? width : 0;
           const neighbour =
-            i > iFirst
-              ? block.frames.subarray(32 * (n - 1), 32 * n)
-              : j > jFirst
-                ? block.frames.subarray(32 * (n - width), 32 * (n - width) + 32)
-                : solver.nodeFrame(b * coarse.cols.length + a);
-          solver.fromNeighbour(i, j, neighbour);
+            step > 0
+              ? block.frames.subarray(32 * (n - step), 32 * (n - step) + 32)
+              : solver.nodeFrame(b * coarse.cols.length + a);
+          // The pixel before that along the same line, for the predictor (see `predictFrame`).
+          const before =
+            (step === 1 && i > iFirst + 1) || (step === width && j > jFirst + 1)
+              ? block.frames.subarray(32 * (n - 2 * step), 32 * (n - 2 * step) + 32)
+              : undefined;
+          solver.fromNeighbour(i, j, neighbour, before);
           // The other solved neighbour (below, when the state came from the left): two branches
           // of one label can meet between pixels, and this one may continue the lower.
           if (i > iFirst && j > jFirst) solver.tryNeighbour(i, j, block, n - width);
@@ -193,6 +197,14 @@ const PIXEL_SINGLE_STEP = 2e-3;
  */
 const SAME_BRANCH = 1e-2;
 
+/**
+ * A branch's continued state whose order parameters lie this close (max norm) to its fixed
+ * corner state has returned to it (a canted state whose canting closed at a continuous
+ * transition): the next pixel tests the fixed state again (`FixedBranch.holds`) rather than
+ * descending from a copy of it that differs by rounding.
+ */
+const NEAR_FIXED = 1e-8;
+
 /** Branch states whose order parameters agree to this (max norm) are one state, not a tie. */
 const TIE_DISTANCE = 1e-5;
 
@@ -205,8 +217,18 @@ interface BranchStore {
   energy: Float64Array;
   converged: Uint8Array;
   groups: Uint8Array;
-  /** 1 where the slot holds its branch corner's state unchanged (see `FixedBranch`). */
+  /**
+   * 1 where the slot holds its branch corner's state unchanged (see `FixedBranch`), 2 where a
+   * descent ended within `NEAR_FIXED` of it, 0 elsewhere.
+   */
   fixed: Uint8Array;
+  /** Order parameters of each slot's state (16 per slot). */
+  orders: Float64Array;
+  /**
+   * The Hessian each slot's descent ended with (64 per slot; for a fixed slot its interpolated
+   * one): whether the picked state is soft then needs no second model.
+   */
+  hessians: Float64Array;
 }
 
 /**
@@ -220,6 +242,7 @@ class FixedBranch {
   /** Gradients (8 each) and Hessians (64 each) at pixels (i0, j0), (i1, j0), (i0, j1). */
   readonly gradient = new Float64Array(24);
   readonly hessian = new Float64Array(192);
+  readonly frame = new Float64Array(32);
   readonly order = new Float64Array(16);
   readonly g = new Float64Array(8);
   readonly k = new Float64Array(64);
@@ -251,6 +274,55 @@ class FixedBranch {
     // The minimum test of `descend` (Goldstone zeros pass the tiny shift).
     return choleskySolve(k, d, 1e-11 * c.scale, g, this.step, this.chol, 0);
   }
+
+  /** Whether order parameters `order` are those of the fixed state, to `NEAR_FIXED`. */
+  near(order: Float64Array): boolean {
+    for (let k = 1; k < 16; k++) {
+      if (!(Math.abs(order[k]! - this.order[k]!) <= NEAR_FIXED)) return false;
+    }
+    return true;
+  }
+}
+
+/** Whether the order parameters at offsets `a` and `b` of `orders` agree to `tolerance`. */
+function ordersWithin(orders: Float64Array, a: number, b: number, tolerance: number): boolean {
+  for (let k = 1; k < 16; k++)
+    if (Math.abs(orders[a + k]! - orders[b + k]!) > tolerance) return false;
+  return true;
+}
+
+/**
+ * Largest change of any occupied-vector component between two neighbouring pixels for which
+ * their states are extrapolated (`predictFrame`); a larger change is no smooth continuation (a
+ * jump to another state, or another gauge of one).
+ */
+const PREDICT_LIMIT = 0.05;
+
+/**
+ * The predictor step of numerical continuation (Allgower and Georg, Introduction to Numerical
+ * Continuation Methods, SIAM (2003), chapter 2): the occupied vectors of the last two states on
+ * a line of pixels, `last` and `before`, extrapolated linearly to the next pixel into `out`
+ * (orthonormalised, completed). A branch that moves smoothly then starts its descent second-order
+ * close to its minimum rather than first-order, and needs one Newton step fewer. The descent
+ * still decides where it ends. False, with `out` left alone, when the two states are equal or
+ * not close (see `PREDICT_LIMIT`).
+ */
+function predictFrame(
+  out: Float64Array,
+  last: Float64Array,
+  before: Float64Array,
+  nf: number,
+  scratch: Float64Array,
+): boolean {
+  const n = 8 * nf;
+  let change = 0;
+  for (let m = 0; m < n; m++) change = Math.max(change, Math.abs(last[m]! - before[m]!));
+  if (!(change > 0 && change < PREDICT_LIMIT)) return false;
+  out.set(last);
+  for (let m = 0; m < n; m++) out[m] = 2 * last[m]! - before[m]!;
+  orthonormaliseFrame(out, nf);
+  completeFrame(out, nf, scratch);
+  return true;
 }
 
 export interface PixelOptions {
@@ -495,6 +567,7 @@ class PixelSolver {
       fm.gradient.set(ws.gradient.subarray(0, d), 8 * q);
       fm.hessian.set(ws.hessian.subarray(0, d * d), 64 * q);
     }
+    fm.frame.set(frame);
     fm.order.set(ws.order);
     fm.groups = presentGroupCount(ws.order, ORDER_TOLERANCE);
     fm.d = d;
@@ -524,13 +597,22 @@ class PixelSolver {
     this.rigid = true;
   }
 
-  fromNeighbour(i: number, j: number, from: Float64Array): void {
+  /**
+   * Pixel (i, j) by one descent from a solved neighbour's state `from`; `before`, the pixel
+   * before that on the same line, lets the descent start from the two states' extrapolation
+   * (see `predictFrame`).
+   */
+  fromNeighbour(i: number, j: number, from: Float64Array, before?: Float64Array): void {
     this.rigid = false;
     const c = this.at(i, j);
     this.best.set(from);
     this.options.abandonAbove = Infinity;
     this.options.abandonNear = undefined;
+    // How much the neighbour's own state relaxes here (for `tryNeighbour`), not the prediction.
     const start = frameEnergy(c, this.best, this.ws, this.ws.order);
+    if (before !== undefined && predictFrame(this.best, from, before, this.nf, this.ws.scratch)) {
+      frameEnergy(c, this.best, this.ws, this.ws.order);
+    }
     const result = descend(c, this.best, this.options, this.ws);
     this.energy = result.energy;
     this.converged = result.converged;
@@ -577,7 +659,8 @@ class PixelSolver {
   /**
    * The certificate of pixel (i, j), whose state is in `best`: when the state is not a
    * converged minimum or a fixed state lies below it, the pixel gets the full search of a
-   * single point instead (counted in the block).
+   * single point instead (counted in the block). `knownSoft`, when given, says whether `best`
+   * has soft directions (a boundary cell's branch knows it from its descent).
    */
   certify(
     i: number,
@@ -585,6 +668,7 @@ class PixelSolver {
     block: PixelBlock,
     ties: readonly Float64Array[] = [],
     orbitTie = false,
+    knownSoft?: boolean,
   ): void {
     if (!this.certificate) return;
     const c = this.at(i, j);
@@ -599,7 +683,8 @@ class PixelSolver {
       // continued from: where a weak field splits two families by less than the pixel
       // tolerance (E_Z = 1e-6 near the KD/CAF line, energies 3e-13 apart), a continued KD
       // keeps its label while the search's representative is CAF.
-      const soft = !this.rigid && softDirections(c, this.best, this.ws, this.fresh) > 0;
+      const soft =
+        !this.rigid && (knownSoft ?? softDirections(c, this.best, this.ws, this.fresh) > 0);
       if (ties.length > 0 || soft || (orbitTie && weakFields(c))) {
         this.best.set(settleDegenerate(c, [this.best, ...ties], this.energy, this.ws));
         this.at(i, j);
@@ -648,6 +733,7 @@ class PixelSolver {
     const labelOf = (corner: number): string =>
       coarse.labels[(b + (corner >> 1)) * width + a + (corner & 1)]!;
     const store = this.branchStore(4 * size);
+    const dd = tangentDimension(this.nf) ** 2;
     options.abandonAbove = Infinity;
     options.abandonNear = undefined;
     for (let k = 0; k < starts.length; k++) {
@@ -664,29 +750,70 @@ class PixelSolver {
           const i = right ? iLast - 1 - q : iFirst + q;
           const slot = k * size + (j - jFirst) * w + (i - iFirst);
           const frame = store.frames.subarray(32 * slot, 32 * slot + 32);
-          const previous = q > 0 ? slot + (right ? 1 : -1) : r > 0 ? slot + (top ? w : -w) : -1;
-          const from =
+          // Slot steps in the scan's directions: along its row, and from row to row.
+          const along = right ? -1 : 1;
+          const across = top ? -w : w;
+          const previous = q > 0 ? slot - along : r > 0 ? slot - across : -1;
+          let from =
             previous >= 0
               ? store.frames.subarray(32 * previous, 32 * previous + 32)
               : this.nodeFrame(node);
-          frame.set(from);
           const c = this.at(i, j);
-          if (
-            fixed &&
-            (previous < 0 || store.fixed[previous] === 1) &&
-            this.fixedModel.holds(i, j, c)
-          ) {
-            store.energy[slot] = energyOfOrder(c, this.fixedModel.order);
-            store.converged[slot] = 1;
-            store.groups[slot] = this.fixedModel.groups;
-            store.fixed[slot] = 1;
-            continue;
+          if (fixed && (previous < 0 || store.fixed[previous] !== 0)) {
+            if (this.fixedModel.holds(i, j, c)) {
+              frame.set(this.fixedModel.frame);
+              store.energy[slot] = energyOfOrder(c, this.fixedModel.order);
+              store.converged[slot] = 1;
+              store.groups[slot] = this.fixedModel.groups;
+              store.fixed[slot] = 1;
+              store.orders.set(this.fixedModel.order, 16 * slot);
+              store.hessians.set(this.fixedModel.k.subarray(0, dd), 64 * slot);
+              continue;
+            }
           }
           store.fixed[slot] = 0;
+          // Where the fixed state stops being a minimum along a row, the pixel below (one row
+          // nearer the corner) already holds the state the branch moved into: a closer start
+          // than the saddle the fixed state has become.
+          let origin = previous;
+          if (
+            q > 0 &&
+            r > 0 &&
+            store.fixed[previous] !== 0 &&
+            store.fixed[slot - across] === 0 &&
+            store.converged[slot - across] === 1
+          ) {
+            origin = slot - across;
+            from = store.frames.subarray(32 * origin, 32 * origin + 32);
+          }
+          frame.set(from);
+          // Two converged pixels of the branch before this one on the same line: start from
+          // their extrapolation (see `predictFrame`).
+          const step = origin === previous && q > 0 ? along : across;
+          const before = origin - step;
+          if (
+            origin >= 0 &&
+            (step === along ? q > 1 : r > 1) &&
+            store.converged[origin] === 1 &&
+            store.converged[before] === 1
+          ) {
+            predictFrame(
+              frame,
+              from,
+              store.frames.subarray(32 * before, 32 * before + 32),
+              this.nf,
+              ws.scratch,
+            );
+          }
           const result = descend(c, frame, options, ws);
           store.energy[slot] = result.energy;
           store.converged[slot] = result.converged ? 1 : 0;
           store.groups[slot] = presentGroupCount(ws.order, ORDER_TOLERANCE);
+          store.orders.set(ws.order, 16 * slot);
+          store.hessians.set(ws.hessian.subarray(0, dd), 64 * slot);
+          // Back at the fixed state (a canted state whose canting closed): the next pixel may
+          // take the fixed state again without a descent.
+          if (fixed && result.converged && this.fixedModel.near(ws.order)) store.fixed[slot] = 2;
           if (!result.converged) died = true;
         }
       }
@@ -739,7 +866,7 @@ class PixelSolver {
           // direction (E_Z = 1e-6 near the KD/CAF line), so there the pixel is still settled,
           // once, from its own state. Any other state at the same energy is a tie and is
           // settled with it.
-          if (sameState(other, this.best, this.nf, TIE_DISTANCE)) continue;
+          if (ordersWithin(store.orders, 16 * slot, 16 * pick, TIE_DISTANCE)) continue;
           const symmetry = modelSymmetry(this.couplings!);
           if (
             sameState(other, this.best, this.nf, TIE_DISTANCE, symmetry) ||
@@ -750,7 +877,11 @@ class PixelSolver {
             ties.push(other);
           }
         }
-        this.certify(i, j, block, ties, orbitTie);
+        // The picked state's Hessian, as its descent left it: whether it is soft.
+        ws.hessian.set(store.hessians.subarray(64 * pick, 64 * pick + dd));
+        const soft =
+          store.converged[pick] === 1 && softDirections(this.couplings!, this.best, ws, true) > 0;
+        this.certify(i, j, block, ties, orbitTie, soft);
         this.store(block, (j - block.j0) * blockWidth + (i - block.i0));
       }
     }
@@ -764,6 +895,8 @@ class PixelSolver {
         converged: new Uint8Array(count),
         groups: new Uint8Array(count),
         fixed: new Uint8Array(count),
+        orders: new Float64Array(16 * count),
+        hessians: new Float64Array(64 * count),
       };
     }
     return this.branchBuffers;
