@@ -27,16 +27,42 @@ export function projectorOf(frame: Float64Array, nf: number, out: Float64Array):
   return out;
 }
 
+/**
+ * Row r of G_k holds one entry g = +-1 or +-i in column c = G_COL[4 k + r], so
+ * Re(g P_cr) = TRACE_SIGN * p[TRACE_AT] with p interleaved re/im: g Re P_cr for real g, and
+ * -t Im P_cr for g = i t.
+ */
+const TRACE_AT = new Int32Array(4 * MATRIX_COUNT);
+const TRACE_SIGN = new Float64Array(4 * MATRIX_COUNT);
+for (let n = 0; n < 4 * MATRIX_COUNT; n++) {
+  const idx = 2 * (4 * G_COL[n]! + (n & 3));
+  const real = G_IM[n] === 0;
+  TRACE_AT[n] = real ? idx : idx + 1;
+  TRACE_SIGN[n] = real ? G_RE[n]! : -G_IM[n]!;
+}
+
+/**
+ * Where row r of G_k puts its one entry in a dense interleaved matrix (its real or imaginary
+ * slot), and the entry's value there.
+ */
+const HF_AT = new Int32Array(4 * MATRIX_COUNT);
+const HF_VALUE = new Float64Array(4 * MATRIX_COUNT);
+for (let n = 0; n < 4 * MATRIX_COUNT; n++) {
+  const idx = 2 * (4 * (n & 3) + G_COL[n]!);
+  const real = G_IM[n] === 0;
+  HF_AT[n] = real ? idx : idx + 1;
+  HF_VALUE[n] = real ? G_RE[n]! : G_IM[n]!;
+}
+
 /** o_k = tr(G_k P) for k = 0..15 (o_0 = tr P). */
 export function orderOfProjector(p: Float64Array, out: Float64Array): Float64Array {
   for (let k = 0; k < MATRIX_COUNT; k++) {
-    let sum = 0;
-    for (let r = 0; r < 4; r++) {
-      const c = G_COL[4 * k + r]!;
-      const idx = 2 * (4 * c + r);
-      // Re(g_rc P_cr)
-      sum += G_RE[4 * k + r]! * p[idx]! - G_IM[4 * k + r]! * p[idx + 1]!;
-    }
+    const n = 4 * k;
+    // sum_r Re(g_rc P_cr)
+    let sum = TRACE_SIGN[n]! * p[TRACE_AT[n]!]!;
+    sum += TRACE_SIGN[n + 1]! * p[TRACE_AT[n + 1]!]!;
+    sum += TRACE_SIGN[n + 2]! * p[TRACE_AT[n + 2]!]!;
+    sum += TRACE_SIGN[n + 3]! * p[TRACE_AT[n + 3]!]!;
     out[k] = sum;
   }
   return out;
@@ -56,11 +82,8 @@ export function hartreeFockOfOrder(
   for (let k = 1; k < MATRIX_COUNT; k++) {
     const mu = c.eta[k]! + c.kappa[k]! * order[k]!;
     if (mu === 0) continue;
-    for (let r = 0; r < 4; r++) {
-      const idx = 2 * (4 * r + G_COL[4 * k + r]!);
-      out[idx] = out[idx]! + mu * G_RE[4 * k + r]!;
-      out[idx + 1] = out[idx + 1]! + mu * G_IM[4 * k + r]!;
-    }
+    // Each row's one entry is real or imaginary: the other part would only add a zero.
+    for (let n = 4 * k; n < 4 * k + 4; n++) out[HF_AT[n]!] = out[HF_AT[n]!]! + mu * HF_VALUE[n]!;
   }
   if (withIdentity) for (let r = 0; r < 4; r++) out[10 * r] = out[10 * r]! + c.identityShift;
   return out;

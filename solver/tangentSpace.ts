@@ -19,6 +19,26 @@ import { hartreeFockOfOrder, orderOfProjector, projectorOf } from './state';
  *   imaginary part of each coordinate.
  */
 
+/**
+ * Row r of G_k holds one entry g = +-1 or +-i, in column G_COL[4 k + r]; its product with
+ * x = conj(u_a[r]) u_i[col] (stored re, im at 8 r + 2 col of a pair's outer products) has real
+ * part RE_SIGN * (the entry at RE_AT) and imaginary part IM_SIGN * (the entry at IM_AT): for
+ * real g, g Re x and g Im x; for g = i t, -t Im x and t Re x. Exactly the products
+ * (g_re Re x - g_im Im x, g_re Im x + g_im Re x) with the zero term left out.
+ */
+const RE_AT = new Int32Array(4 * MATRIX_COUNT);
+const IM_AT = new Int32Array(4 * MATRIX_COUNT);
+const RE_SIGN = new Float64Array(4 * MATRIX_COUNT);
+const IM_SIGN = new Float64Array(4 * MATRIX_COUNT);
+for (let n = 0; n < 4 * MATRIX_COUNT; n++) {
+  const at = 8 * (n & 3) + 2 * G_COL[n]!;
+  const real = G_IM[n] === 0;
+  RE_AT[n] = real ? at : at + 1;
+  IM_AT[n] = real ? at + 1 : at;
+  RE_SIGN[n] = real ? G_RE[n]! : -G_IM[n]!;
+  IM_SIGN[n] = real ? G_RE[n]! : G_IM[n]!;
+}
+
 /** Scratch arrays for one descent; reuse one per thread to avoid allocation in hot loops. */
 export class DescentWorkspace {
   readonly projector = new Float64Array(32);
@@ -155,19 +175,34 @@ export function tangentModel(c: Couplings, frame: Float64Array, ws: DescentWorks
   for (let ch = 1; ch < MATRIX_COUNT; ch++) {
     const kappa = c.kappa[ch]!;
     if (kappa === 0) continue;
+    const g = 4 * ch;
+    const r0 = RE_AT[g]!;
+    const r1 = RE_AT[g + 1]!;
+    const r2 = RE_AT[g + 2]!;
+    const r3 = RE_AT[g + 3]!;
+    const i0 = IM_AT[g]!;
+    const i1 = IM_AT[g + 1]!;
+    const i2 = IM_AT[g + 2]!;
+    const i3 = IM_AT[g + 3]!;
+    const s0 = RE_SIGN[g]!;
+    const s1 = RE_SIGN[g + 1]!;
+    const s2 = RE_SIGN[g + 2]!;
+    const s3 = RE_SIGN[g + 3]!;
+    const t0 = IM_SIGN[g]!;
+    const t1 = IM_SIGN[g + 1]!;
+    const t2 = IM_SIGN[g + 2]!;
+    const t3 = IM_SIGN[g + 3]!;
     for (let pair = 0; pair < pairs; pair++) {
       const base = 32 * pair;
-      let sr = 0;
-      let si = 0;
-      for (let r = 0; r < 4; r++) {
-        const gr = G_RE[4 * ch + r]!;
-        const gi = G_IM[4 * ch + r]!;
-        const idx = base + 8 * r + 2 * G_COL[4 * ch + r]!;
-        const orr = outer[idx]!;
-        const oi = outer[idx + 1]!;
-        sr += gr * orr - gi * oi;
-        si += gr * oi + gi * orr;
-      }
+      // Row by row, as sum_r g_r conj(u_a[r]) u_i[col_r] with g_r = +-1 or +-i.
+      let sr = s0 * outer[base + r0]!;
+      let si = t0 * outer[base + i0]!;
+      sr += s1 * outer[base + r1]!;
+      si += t1 * outer[base + i1]!;
+      sr += s2 * outer[base + r2]!;
+      si += t2 * outer[base + i2]!;
+      sr += s3 * outer[base + r3]!;
+      si += t3 * outer[base + i3]!;
       w[2 * pair] = 2 * sr;
       w[2 * pair + 1] = 2 * si;
     }
