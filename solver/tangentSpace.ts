@@ -47,7 +47,9 @@ export class DescentWorkspace {
   readonly hu = new Float64Array(32);
   readonly m = new Float64Array(32);
   readonly outer = new Float64Array(128);
-  readonly w = new Float64Array(8);
+  /** The vectors w^k of the channels with kappa_k != 0 (8 each) and those kappa_k. */
+  readonly channelVectors = new Float64Array(8 * MATRIX_COUNT);
+  readonly channelKappa = new Float64Array(MATRIX_COUNT);
   readonly gradient = new Float64Array(8);
   readonly hessian = new Float64Array(64);
   readonly step = new Float64Array(8);
@@ -121,7 +123,7 @@ export function tangentModel(c: Couplings, frame: Float64Array, ws: DescentWorks
   const nf = c.nf;
   const ne = 4 - nf;
   const d = 2 * nf * ne;
-  const { hamiltonian: h, hu, m, w, gradient: g, hessian: k } = ws;
+  const { hamiltonian: h, hu, m, gradient: g, hessian: k } = ws;
   // The identity part of H_HF drops out of the gradient and the Hessian; left out, it adds no
   // rounding noise to them (it can be several times the coupling scale).
   hartreeFockOfOrder(c, ws.order, h, false);
@@ -151,7 +153,6 @@ export function tangentModel(c: Couplings, frame: Float64Array, ws: DescentWorks
       g[idx + 1] = 2 * m[mi + 1]!;
     }
   }
-  k.fill(0, 0, d * d);
   // Outer products conj(u_a[r]) u_i[c] for every (empty a, occupied i) pair: then
   // gamma^k_ai = sum_r g^k_r conj(u_a[r]) u_i[col^k_r] costs four products per channel.
   const outer = ws.outer;
@@ -172,6 +173,9 @@ export function tangentModel(c: Couplings, frame: Float64Array, ws: DescentWorks
     }
   }
   const pairs = nf * ne;
+  const vectors = ws.channelVectors;
+  const kappas = ws.channelKappa;
+  let channels = 0;
   for (let ch = 1; ch < MATRIX_COUNT; ch++) {
     const kappa = c.kappa[ch]!;
     if (kappa === 0) continue;
@@ -203,12 +207,45 @@ export function tangentModel(c: Couplings, frame: Float64Array, ws: DescentWorks
       si += t2 * outer[base + i2]!;
       sr += s3 * outer[base + r3]!;
       si += t3 * outer[base + i3]!;
-      w[2 * pair] = 2 * sr;
-      w[2 * pair + 1] = 2 * si;
+      vectors[8 * channels + 2 * pair] = 2 * sr;
+      vectors[8 * channels + 2 * pair + 1] = 2 * si;
     }
-    for (let p = 0; p < d; p++) {
-      const wp = kappa * w[p]!;
-      for (let q = p; q < d; q++) k[p * d + q] = k[p * d + q]! + wp * w[q]!;
+    kappas[channels++] = kappa;
+  }
+  // K_pq = sum_k kappa_k w^k_p w^k_q, a row at a time in registers (channels in the same
+  // order for every entry). Entries past d (d = 6) are never stored; the lower triangle is
+  // overwritten by the upper one below.
+  for (let p = 0; p < d; p++) {
+    let s0 = 0;
+    let s1 = 0;
+    let s2 = 0;
+    let s3 = 0;
+    let s4 = 0;
+    let s5 = 0;
+    let s6 = 0;
+    let s7 = 0;
+    for (let t = 0; t < channels; t++) {
+      const o = 8 * t;
+      const wp = kappas[t]! * vectors[o + p]!;
+      s0 += wp * vectors[o]!;
+      s1 += wp * vectors[o + 1]!;
+      s2 += wp * vectors[o + 2]!;
+      s3 += wp * vectors[o + 3]!;
+      s4 += wp * vectors[o + 4]!;
+      s5 += wp * vectors[o + 5]!;
+      s6 += wp * vectors[o + 6]!;
+      s7 += wp * vectors[o + 7]!;
+    }
+    const row = p * d;
+    k[row] = s0;
+    k[row + 1] = s1;
+    k[row + 2] = s2;
+    k[row + 3] = s3;
+    k[row + 4] = s4;
+    k[row + 5] = s5;
+    if (d === 8) {
+      k[row + 6] = s6;
+      k[row + 7] = s7;
     }
   }
   for (let a = 0; a < ne; a++) {
