@@ -245,6 +245,12 @@ export class PlaneCouplings {
   /** The point `point` holds (NaN before the first call). */
   private lastX = NaN;
   private lastY = NaN;
+  /**
+   * The indices k at which an axis moves a coupling (every other entry of `point` keeps the
+   * base value it was built with), and the largest base coupling among the others.
+   */
+  private readonly moving: Int32Array;
+  private readonly fixedScale: number;
 
   constructor(readonly input: MapInput) {
     const nf = occupiedCount(input.model);
@@ -285,6 +291,25 @@ export class PlaneCouplings {
     this.dx = couplingsFromArrays(nf, direction(targets.x), 0);
     this.dy = couplingsFromArrays(nf, direction(targets.y), 0);
     this.point = couplingsFromArrays(nf, baseArrays, exchange);
+    const { base, dx, dy } = this;
+    const moving: number[] = [];
+    let fixedScale = 0;
+    for (let k = 0; k < 16; k++) {
+      const moves = [dx, dy].some(
+        (d) => d.hartree[k] !== 0 || d.fock[k] !== 0 || d.eta[k] !== 0 || d.kappa[k] !== 0,
+      );
+      if (moves) moving.push(k);
+      else if (k > 0) {
+        fixedScale = Math.max(
+          fixedScale,
+          Math.abs(base.hartree[k]!),
+          Math.abs(base.fock[k]!),
+          Math.abs(base.eta[k]!),
+        );
+      }
+    }
+    this.moving = Int32Array.from(moving);
+    this.fixedScale = fixedScale;
   }
 
   /**
@@ -306,8 +331,8 @@ export class PlaneCouplings {
     if (x === this.lastX && y === this.lastY) return point;
     this.lastX = x;
     this.lastY = y;
-    let scale = 0;
-    for (let k = 0; k < 16; k++) {
+    let scale = this.fixedScale;
+    for (const k of this.moving) {
       point.hartree[k] = base.hartree[k]! + x * dx.hartree[k]! + y * dy.hartree[k]!;
       point.fock[k] = base.fock[k]! + x * dx.fock[k]! + y * dy.fock[k]!;
       point.eta[k] = base.eta[k]! + x * dx.eta[k]! + y * dy.eta[k]!;

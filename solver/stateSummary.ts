@@ -70,9 +70,13 @@ export function fermiGap(frame: Float64Array, nf: number, s: PixelScratch): numb
       hu[8 * b + 2 * r + 1] = im;
     }
   }
+  // M_ab = u_a^dagger (H u_b), only inside the occupied block (a, b < nf) and inside the empty
+  // block (a, b >= nf): the off-diagonal blocks vanish at a self-consistent state and are not
+  // needed.
   let size = 0;
   for (let a = 0; a < 4; a++) {
     for (let b = 0; b < 4; b++) {
+      if (a < nf !== b < nf) continue;
       let re = 0;
       let im = 0;
       for (let r = 0; r < 4; r++) {
@@ -88,14 +92,10 @@ export function fermiGap(frame: Float64Array, nf: number, s: PixelScratch): numb
       size = Math.max(size, Math.abs(re), Math.abs(im));
     }
   }
-  const re = (a: number, b: number): number => m[2 * (4 * a + b)]!;
-  const im = (a: number, b: number): number => m[2 * (4 * a + b) + 1]!;
   if (nf === 2) {
     // Two 2 x 2 Hermitian blocks: lambda = mean -+ sqrt(half-difference^2 + |offdiagonal|^2).
-    const highestOccupied =
-      (re(0, 0) + re(1, 1)) / 2 + Math.hypot((re(0, 0) - re(1, 1)) / 2, re(0, 1), im(0, 1));
-    const lowestEmpty =
-      (re(2, 2) + re(3, 3)) / 2 - Math.hypot((re(2, 2) - re(3, 3)) / 2, re(2, 3), im(2, 3));
+    const highestOccupied = (m[0]! + m[10]!) / 2 + Math.hypot((m[0]! - m[10]!) / 2, m[2]!, m[3]!);
+    const lowestEmpty = (m[20]! + m[30]!) / 2 - Math.hypot((m[20]! - m[30]!) / 2, m[22]!, m[23]!);
     return lowestEmpty - highestOccupied;
   }
   // One 1 x 1 block and one 3 x 3 block; the latter padded far away in a 4 x 4 eigenproblem.
@@ -106,12 +106,13 @@ export function fermiGap(frame: Float64Array, nf: number, s: PixelScratch): numb
   block.fill(0);
   for (let a = first; a < first + 3; a++) {
     for (let b = first; b < first + 3; b++) {
-      block[2 * (4 * a + b)] = re(a, b);
-      block[2 * (4 * a + b) + 1] = im(a, b);
+      block[2 * (4 * a + b)] = m[2 * (4 * a + b)]!;
+      block[2 * (4 * a + b) + 1] = m[2 * (4 * a + b) + 1]!;
     }
   }
   block[10 * single] = pad;
   hermitianEigen4(block, s.values, s.eigenvectors);
-  // nf = 1: the padding sorts first and the empty levels follow; nf = 3: it sorts last.
-  return nf === 1 ? s.values[1]! - re(0, 0) : re(3, 3) - s.values[2]!;
+  // nf = 1: the padding sorts first and the empty levels follow; nf = 3: it sorts last
+  // (M_00 and M_33 are the diagonal entries 0 and 30).
+  return nf === 1 ? s.values[1]! - m[0]! : m[30]! - s.values[2]!;
 }
