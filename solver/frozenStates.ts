@@ -23,6 +23,8 @@ export class FrozenStates {
   /** Indices of the states that can beat a pixel of the current cell (see `forCell`). */
   private active: Int32Array;
   private activeCount = 0;
+  /** The current cell's rectangle of axis values (see `forCell`). */
+  private cell = new Float64Array(4);
 
   constructor(private readonly plane: PlaneCouplings) {
     // Every structured seed twice: its exact state, and the nudged one the search descends from
@@ -80,6 +82,7 @@ export class FrozenStates {
     const n = this.seedCount;
     const k = this.coefficients;
     const scratch = new Float64Array(3);
+    this.cell.set([x0, x1, y0, y1]);
     this.cornerFrames.length = 0;
     cornerOrders.forEach((order, corner) => {
       k.set(this.plane.affineEnergy(order, scratch), 3 * (n + corner));
@@ -104,6 +107,27 @@ export class FrozenStates {
     for (let s = 0; s < total; s++) {
       if (s >= n || extreme(s, false) < ceiling) this.active[this.activeCount++] = s;
     }
+  }
+
+  /**
+   * Whether no kept state lies below the fixed state of affine energy `rigid` ([e0, ex, ey], as
+   * `PlaneCouplings.affineEnergy`) anywhere in the current cell: their differences are affine
+   * too, so non-negative at the rectangle's four corners means non-negative inside, and
+   * `below` would find nothing at any of its pixels.
+   */
+  noneBelowOverCell(rigid: Float64Array): boolean {
+    const k = this.coefficients;
+    const [x0, x1, y0, y1] = this.cell;
+    for (let a = 0; a < this.activeCount; a++) {
+      const s = this.active[a]!;
+      const d0 = k[3 * s]! - rigid[0]!;
+      const dx = k[3 * s + 1]! - rigid[1]!;
+      const dy = k[3 * s + 2]! - rigid[2]!;
+      for (const x of [x0!, x1!]) {
+        for (const y of [y0!, y1!]) if (!(d0 + dx * x + dy * y >= 0)) return false;
+      }
+    }
+    return true;
   }
 
   /**

@@ -135,10 +135,13 @@ export function solveCells(
       if (solver.rigidCell(a, b)) {
         const node = solver.nodeFrame(b * coarse.cols.length + a);
         const order = solver.nodeOrder(b * coarse.cols.length + a);
+        // The certificate of every pixel at once where no fixed state comes near (see
+        // `FrozenStates.noneBelowOverCell`): a rigid pixel that passes it needs nothing more.
+        const certified = solver.rigidCertified(order);
         for (let j = jFirst; j < jLast; j++) {
           for (let i = iFirst; i < iLast; i++) {
             solver.fromRigid(i, j, node, order);
-            solver.certify(i, j, block);
+            if (!certified) solver.certify(i, j, block);
             solver.store(block, (j - j0) * width + (i - i0));
           }
         }
@@ -370,6 +373,7 @@ class PixelSolver {
   private rigidOrder: Float64Array = new Float64Array(16);
   private branchBuffers: BranchStore | undefined;
   private readonly fixedModel = new FixedBranch();
+  private readonly affine = new Float64Array(3);
 
   constructor(
     private readonly input: MapInput,
@@ -576,6 +580,15 @@ class PixelSolver {
     fm.di = iLast - 1 - iFirst;
     fm.dj = jLast - 1 - jFirst;
     return true;
+  }
+
+  /**
+   * Whether the certificate of every pixel of the current (rigid) cell passes at once: no
+   * fixed state lies below the cell's state, of order parameters `order`, anywhere in it.
+   */
+  rigidCertified(order: Float64Array): boolean {
+    if (!this.certificate) return true;
+    return this.frozen.noneBelowOverCell(this.planeCouplings.affineEnergy(order, this.affine));
   }
 
   /** Order parameters of a coarse node's state (o_0 .. o_15). */
