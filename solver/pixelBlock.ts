@@ -374,6 +374,9 @@ class PixelSolver {
   private branchBuffers: BranchStore | undefined;
   private readonly fixedModel = new FixedBranch();
   private readonly affine = new Float64Array(3);
+  /** Axis values of the pixel columns and rows (`axisValue`). */
+  private readonly xs: Float64Array;
+  private readonly ys: Float64Array;
 
   constructor(
     private readonly input: MapInput,
@@ -382,6 +385,9 @@ class PixelSolver {
   ) {
     this.nf = input.model.filling + 2;
     this.planeCouplings = new PlaneCouplings(input);
+    const [nx, ny] = input.plane.resolution;
+    this.xs = Float64Array.from({ length: nx }, (_, i) => axisValue(input.plane.x, nx, i));
+    this.ys = Float64Array.from({ length: ny }, (_, j) => axisValue(input.plane.y, ny, j));
     this.frozen = new FrozenStates(this.planeCouplings);
     const nodes = coarse.labels.length;
     this.nodeOrders = new Float64Array(16 * nodes);
@@ -399,11 +405,7 @@ class PixelSolver {
   }
 
   private at(i: number, j: number): Couplings {
-    const [nx, ny] = this.input.plane.resolution;
-    this.couplings = this.planeCouplings.at(
-      axisValue(this.input.plane.x, nx, i),
-      axisValue(this.input.plane.y, ny, j),
-    );
+    this.couplings = this.planeCouplings.at(this.xs[i]!, this.ys[j]!);
     return this.couplings;
   }
 
@@ -685,10 +687,7 @@ class PixelSolver {
   ): void {
     if (!this.certificate) return;
     const c = this.at(i, j);
-    const [nx, ny] = this.input.plane.resolution;
-    const x = axisValue(this.input.plane.x, nx, i);
-    const y = axisValue(this.input.plane.y, ny, j);
-    const lower = this.frozen.below(x, y, this.energy, c.scale);
+    const lower = this.frozen.below(this.xs[i]!, this.ys[j]!, this.energy, c.scale);
     if (lower === undefined && this.converged) {
       // A tie between branches (two states at one energy), or a state in a soft family: the
       // member the vanishing fields select, as the single-point search reports it. Every soft

@@ -332,7 +332,9 @@ export class PlaneCouplings {
     this.lastX = x;
     this.lastY = y;
     let scale = this.fixedScale;
-    for (const k of this.moving) {
+    const moving = this.moving;
+    for (let n = 0; n < moving.length; n++) {
+      const k = moving[n]!;
       point.hartree[k] = base.hartree[k]! + x * dx.hartree[k]! + y * dy.hartree[k]!;
       point.fock[k] = base.fock[k]! + x * dx.fock[k]! + y * dy.fock[k]!;
       point.eta[k] = base.eta[k]! + x * dx.eta[k]! + y * dy.eta[k]!;
