@@ -200,6 +200,11 @@ const PIXEL_SINGLE_STEP = 2e-3;
  */
 const SAME_BRANCH = 1e-2;
 
+/** Fixed models a branch may hold (its corner state's and states it settles into). */
+const MAX_FIXED_MODELS = 4;
+/** Tries per branch to make a settled state a fixed model (see `solveBranches`). */
+const MAX_FIXED_ATTEMPTS = 4;
+
 /**
  * A branch's continued state whose order parameters lie this close (max norm) to its fixed
  * corner state has returned to it (a canted state whose canting closed at a continuous
@@ -221,10 +226,12 @@ interface BranchStore {
   converged: Uint8Array;
   groups: Uint8Array;
   /**
-   * 1 where the slot holds its branch corner's state unchanged (see `FixedBranch`), 2 where a
-   * descent ended within `NEAR_FIXED` of it, 0 elsewhere.
+   * 1 + m where the slot holds the state of its branch's fixed model m (`FixedBranch`), or a
+   * descent ended within `NEAR_FIXED` of it; 0 elsewhere.
    */
   fixed: Uint8Array;
+  /** 1 where the slot's descent ended where it started (no step taken). */
+  still: Uint8Array;
   /** Order parameters of each slot's state (16 per slot). */
   orders: Float64Array;
   /**
@@ -372,7 +379,11 @@ class PixelSolver {
   /** The order parameters of `best` while it is a rigid cell's state. */
   private rigidOrder: Float64Array = new Float64Array(16);
   private branchBuffers: BranchStore | undefined;
-  private readonly fixedModel = new FixedBranch();
+  /**
+   * A branch's fixed models: its corner state's (when fixed), then states it settles into on its
+   * way (see `solveBranches`).
+   */
+  private readonly fixedModels = Array.from({ length: MAX_FIXED_MODELS }, () => new FixedBranch());
   private readonly affine = new Float64Array(3);
   /** Axis values of the pixel columns and rows (`axisValue`). */
   private readonly xs: Float64Array;
@@ -544,18 +555,18 @@ class PixelSolver {
   }
 
   /**
-   * Sets up `fixedModel` for a branch that starts from `frame` over pixels [iFirst, iLast) x
-   * [jFirst, jLast); false when the state is no critical point at three corners of the cell (it
-   * moves over the cell, as a canted state does): then every pixel of the branch descends.
+   * Sets up `fm` for the state of `frame` over pixels [iFirst, iLast) x [jFirst, jLast); false
+   * when the state is no critical point at three corners of the cell (it moves over the cell, as
+   * a canted state does): then every pixel of the branch descends.
    */
   private fixedBranch(
+    fm: FixedBranch,
     frame: Float64Array,
     iFirst: number,
     iLast: number,
     jFirst: number,
     jLast: number,
   ): boolean {
-    const fm = this.fixedModel;
     const { ws } = this;
     const d = tangentDimension(this.nf);
     const corners: [number, number][] = [
@@ -752,7 +763,18 @@ class PixelSolver {
       const corner = starts[k]!;
       const node = (b + (corner >> 1)) * width + a + (corner & 1);
       let died = false;
-      const fixed = this.fixedBranch(this.nodeFrame(node), iFirst, iLast, jFirst, jLast);
+      const models = this.fixedModels;
+      let modelCount = this.fixedBranch(
+        models[0]!,
+        this.nodeFrame(node),
+        iFirst,
+        iLast,
+        jFirst,
+        jLast,
+      )
+        ? 1
+        : 0;
+      let attempts = 0;
       // Scan away from the branch's corner: rows nearest it first, each row from its side.
       const right = (corner & 1) === 1;
       const top = corner >> 1 === 1;
@@ -771,20 +793,24 @@ class PixelSolver {
               ? store.frames.subarray(32 * previous, 32 * previous + 32)
               : this.nodeFrame(node);
           const c = this.at(i, j);
-          if (fixed && (previous < 0 || store.fixed[previous] !== 0)) {
-            if (this.fixedModel.holds(i, j, c)) {
-              frame.set(this.fixedModel.frame);
-              store.energy[slot] = energyOfOrder(c, this.fixedModel.order);
+          // The fixed model the previous pixel holds (the corner's, at the corner).
+          const held = previous >= 0 ? store.fixed[previous]! - 1 : modelCount > 0 ? 0 : -1;
+          if (held >= 0) {
+            const fm = models[held]!;
+            if (fm.holds(i, j, c)) {
+              frame.set(fm.frame);
+              store.energy[slot] = energyOfOrder(c, fm.order);
               store.converged[slot] = 1;
-              store.groups[slot] = this.fixedModel.groups;
-              store.fixed[slot] = 1;
-              store.orders.set(this.fixedModel.order, 16 * slot);
-              store.hessians.set(this.fixedModel.k.subarray(0, dd), 64 * slot);
+              store.groups[slot] = fm.groups;
+              store.fixed[slot] = held + 1;
+              store.still[slot] = 1;
+              store.orders.set(fm.order, 16 * slot);
+              store.hessians.set(fm.k.subarray(0, dd), 64 * slot);
               continue;
             }
           }
           store.fixed[slot] = 0;
-          // Where the fixed state stops being a minimum along a row, the pixel below (one row
+          // Where a fixed state stops being a minimum along a row, the pixel below (one row
           // nearer the corner) already holds the state the branch moved into: a closer start
           // than the saddle the fixed state has become.
           let origin = previous;
@@ -823,9 +849,33 @@ class PixelSolver {
           store.groups[slot] = presentGroupCount(ws.order, ORDER_TOLERANCE);
           store.orders.set(ws.order, 16 * slot);
           store.hessians.set(ws.hessian.subarray(0, dd), 64 * slot);
-          // Back at the fixed state (a canted state whose canting closed): the next pixel may
-          // take the fixed state again without a descent.
-          if (fixed && result.converged && this.fixedModel.near(ws.order)) store.fixed[slot] = 2;
+          store.still[slot] = result.converged && result.iterations === 0 ? 1 : 0;
+          if (result.converged) {
+            // Back at a fixed model's state (a canted state whose canting closed): the next
+            // pixel may take it again without a descent.
+            for (let m = 0; m < modelCount && store.fixed[slot] === 0; m++) {
+              if (models[m]!.near(ws.order)) store.fixed[slot] = m + 1;
+            }
+            // A state that stayed where it was for two pixels in a row has settled into a fixed
+            // state (a branch that fell from its corner state into another one's): when it is a
+            // critical point over the whole cell, the rest of the branch tests it as a fixed
+            // model instead of descending from it at every pixel.
+            if (
+              store.fixed[slot] === 0 &&
+              store.still[slot] === 1 &&
+              origin >= 0 &&
+              store.still[origin] === 1 &&
+              modelCount < MAX_FIXED_MODELS &&
+              attempts < MAX_FIXED_ATTEMPTS
+            ) {
+              attempts++;
+              if (this.fixedBranch(models[modelCount]!, frame, iFirst, iLast, jFirst, jLast)) {
+                store.fixed[slot] = ++modelCount;
+              }
+              // The models' corner evaluations moved the couplings and the workspace.
+              this.at(i, j);
+            }
+          }
           if (!result.converged) died = true;
         }
       }
@@ -907,6 +957,7 @@ class PixelSolver {
         converged: new Uint8Array(count),
         groups: new Uint8Array(count),
         fixed: new Uint8Array(count),
+        still: new Uint8Array(count),
         orders: new Float64Array(16 * count),
         hessians: new Float64Array(64 * count),
       };
