@@ -1025,8 +1025,9 @@ export function cellOf(line: Int32Array, i: number, n: number): number {
 
 /**
  * The listed pixels (indices p = j nx + i), each by one descent from the nearest corner node of
- * its cell: the state of a pixel inside a region, on demand (hover, the ends of a boundary edge)
- * rather than for every pixel. Results in list order, as a block of width `pixels.length`.
+ * its cell, or in a rigid cell as `solveCells` takes it (the corners' state): the state of a
+ * pixel inside a region, on demand (hover, the ends of a boundary edge) rather than for every
+ * pixel. Results in list order, as a block of width `pixels.length`.
  */
 export function solvePixelList(
   input: MapInput,
@@ -1038,11 +1039,26 @@ export function solvePixelList(
   const block = emptyBlock(0, 0, count, 1);
   const solver = new PixelSolver(input, coarse, true);
   const width = coarse.cols.length;
-  for (let n = 0; n < count; n++) {
+  // The cell whose certificate is set up (pixels in one cell, as sorted lists bring them, share
+  // it: `prepareCell` relaxes up to eighteen seed states).
+  let prepared = -1;
+  let rigid = false;
+  let certified = false;
+  // Taken cell by cell (a pixel's result does not depend on the order), so that each cell's
+  // set-up is made once.
+  const cellIndex = Array.from(pixels, (p) => {
+    const a = cellOf(coarse.cols, p % nx, nx);
+    const b = cellOf(coarse.rows, Math.floor(p / nx), ny);
+    return b * width + a;
+  });
+  const visit = Array.from({ length: count }, (_, n) => n).sort(
+    (m, n) => cellIndex[m]! - cellIndex[n]! || m - n,
+  );
+  for (const n of visit) {
     const i = pixels[n]! % nx;
     const j = Math.floor(pixels[n]! / nx);
-    const a = cellOf(coarse.cols, i, nx);
-    const b = cellOf(coarse.rows, j, ny);
+    const a = cellIndex[n]! % width;
+    const b = Math.floor(cellIndex[n]! / width);
     let nearest = b * width + a;
     let distance = Infinity;
     for (let corner = 0; corner < 4; corner++) {
@@ -1056,9 +1072,21 @@ export function solvePixelList(
     }
     const [iFirst, iLast] = cellSpan(coarse.cols, a, nx);
     const [jFirst, jLast] = cellSpan(coarse.rows, b, ny);
-    solver.prepareCell(a, b, iFirst, iLast, jFirst, jLast);
-    solver.fromNeighbour(i, j, coarse.frames.subarray(32 * nearest, 32 * nearest + 32));
-    solver.certify(i, j, block);
+    const cell = b * width + a;
+    if (prepared !== cell) {
+      solver.prepareCell(a, b, iFirst, iLast, jFirst, jLast);
+      rigid = solver.rigidCell(a, b);
+      certified = rigid && solver.rigidCertified(solver.nodeOrder(cell));
+      prepared = cell;
+    }
+    if (rigid) {
+      // As `solveCells` solves a pixel of a rigid cell: the corners' state, a minimum here.
+      solver.fromRigid(i, j, solver.nodeFrame(cell), solver.nodeOrder(cell));
+      if (!certified) solver.certify(i, j, block);
+    } else {
+      solver.fromNeighbour(i, j, coarse.frames.subarray(32 * nearest, 32 * nearest + 32));
+      solver.certify(i, j, block);
+    }
     solver.store(block, n);
   }
   return block;
