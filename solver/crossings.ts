@@ -105,6 +105,21 @@ export interface LocatedTransition {
 }
 
 /**
+ * Scratch of `bisectTransition`, reused from call to call (a Map locates a transition on every
+ * edge where the label changes, and the workspace alone is some twenty arrays). Never used by
+ * two calls at once: the function does not call itself, and JavaScript runs one call at a time.
+ */
+const bisectionScratch = {
+  p: new Float64Array(32),
+  orderNear: new Float64Array(16),
+  orderFar: new Float64Array(16),
+  ws: new DescentWorkspace(),
+  branchNear: new Float64Array(32),
+  branchFar: new Float64Array(32),
+  orderA: new Float64Array(16),
+};
+
+/**
  * Locates the transition between the states `nearEnd` (at t = 0) and `farEnd` (at t = 1) along
  * couplings `at(t)`, to a bracket narrower than `tolerance` (in t). Both branches are continued
  * from the bracket ends at every probe; when both are distinct local minima the root of their
@@ -119,13 +134,7 @@ export function bisectTransition(
   farEnd: BracketEnd,
   tolerance: number,
 ): LocatedTransition {
-  const p = new Float64Array(32);
-  const orderNear = new Float64Array(16);
-  const orderFar = new Float64Array(16);
-  const ws = new DescentWorkspace();
-  const branchNear = new Float64Array(32);
-  const branchFar = new Float64Array(32);
-  const orderA = new Float64Array(16);
+  const { p, orderNear, orderFar, ws, branchNear, branchFar, orderA } = bisectionScratch;
   // Branches are continued without leaving saddles (a branch that has become a saddle is not
   // the ground state), converged tightly and polished so that soft modes near a continuous
   // transition do not blur the labels.
